@@ -1,0 +1,51 @@
+import { existsSync } from 'node:fs'
+import { dirname, join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import express from 'express'
+import type { Express } from 'express'
+import helmet from 'helmet'
+import { env } from './env'
+import { csrfProtection } from './middleware/csrf'
+import { apiNotFound, errorHandler } from './middleware/errorHandler'
+import { passport } from './middleware/passport'
+import { requestLog } from './middleware/requestLog'
+import { sessionMiddleware } from './middleware/session'
+import { db } from './models'
+import { apiRouter } from './routes'
+
+const distDir = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist')
+
+/** Builds the Express app: middleware, the API, the built client, then the error handler. */
+export function buildApp(): Express {
+  db() // fail fast on a missing database setting, before the first request
+  const app = express()
+  app.disable('x-powered-by')
+  if (env.isProduction) app.set('trust proxy', 'loopback')
+  app.use(requestLog)
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Element Plus positions popups with inline style attributes.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          // Plain-http loopback in development must not be upgraded to https.
+          'upgrade-insecure-requests': env.isProduction ? [] : null,
+        },
+      },
+      hsts: env.isProduction,
+    }),
+  )
+  app.use('/api', express.json({ limit: '1mb' }))
+  app.use('/api', sessionMiddleware(), passport.initialize(), passport.session())
+  app.use('/api', csrfProtection)
+  app.use('/api', apiRouter())
+  app.use('/api', apiNotFound)
+  if (existsSync(distDir)) {
+    app.use(express.static(distDir, { index: false, maxAge: '1h' }))
+    // Client-side routes (and the traveler URLs /u/<serial>) all load the single-page app.
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(join(distDir, 'index.html')))
+  }
+  app.use(errorHandler)
+  return app
+}

@@ -1,0 +1,9 @@
+import { pino } from 'pino'
+import { env } from './env'
+
+/** The one logger; pino-http derives a child per request carrying the request id. */
+export const logger = pino({
+  level: env.LOG_LEVEL ?? (env.isTest ? 'warn' : 'info'),
+  base: { service: 'waymark' },
+  redact: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'password', 'passwordHash'],
+})

@@ -1,0 +1,17 @@
+import { Router } from 'express'
+import { auditRoutes } from './audit'
+import { authRoutes } from './auth'
+import { healthRoutes } from './health'
+import { apiRouters } from './registry'
+import { stationRoutes } from './stations'
+import { userRoutes } from './users'
+
+// Importing the route modules above registers them in `apiRouters`; mount them all in order.
+void [auditRoutes, authRoutes, healthRoutes, stationRoutes, userRoutes]
+
+/** The /api router: every router made with `apiRoutes`, at its base path. */
+export function apiRouter(): Router {
+  const api = Router()
+  for (const { base, router } of apiRouters) api.use(base, router)
+  return api
+}

@@ -1,0 +1,35 @@
+import { Router } from 'express'
+import type { RequestHandler } from 'express'
+import { guard } from '../middleware/access'
+import type { Access } from '../middleware/access'
+
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
+
+/** One API route and who may call it; the role-matrix test compares these with its own table. */
+export interface RouteRule {
+  method: Method
+  path: string
+  access: Access
+}
+
+/** Every route registered through `apiRoutes`, in registration order. */
+export const routeRules: RouteRule[] = []
+
+/** Every router made by `apiRoutes`, with its mount path, so tests can find unguarded routes. */
+export const apiRouters: { base: string; router: Router }[] = []
+
+/**
+ * A router for `/api<base>` whose every route must name its access rule; the guard runs before
+ * any handler, so a forgotten check cannot leave a route open.
+ */
+export function apiRoutes(base: string) {
+  const router = Router()
+  apiRouters.push({ base, router })
+  const add =
+    (method: Method) =>
+    (path: string, access: Access, ...handlers: RequestHandler[]) => {
+      routeRules.push({ method, path: `/api${base}${path === '/' ? '' : path}`, access })
+      router[method](path, guard(access), ...handlers)
+    }
+  return { router, get: add('get'), post: add('post'), put: add('put'), patch: add('patch'), delete: add('delete') }
+}

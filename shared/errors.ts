@@ -1,0 +1,8 @@
+/** The JSON body of every error the API sends. */
+export interface ApiErrorBody {
+  /** Stable snake_case code, e.g. `validation_failed`, `not_found`. */
+  error: string
+  message: string
+  /** Field name to message, for validation errors. */
+  fields?: Record<string, string>
+}

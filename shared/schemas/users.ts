@@ -1,0 +1,39 @@
+import { z } from 'zod'
+import { ROLES } from '../roles'
+
+export const PASSWORD_MIN_LENGTH = 10
+
+export const UserCreateInput = z.object({
+  email: z.string().trim().toLowerCase().email('enter a valid e-mail address').max(254),
+  name: z.string().trim().min(1, 'enter a name').max(120),
+  role: z.enum(ROLES, { error: 'choose a role' }),
+  password: z
+    .string()
+    .min(PASSWORD_MIN_LENGTH, `use at least ${PASSWORD_MIN_LENGTH} characters`)
+    .max(200),
+})
+export type UserCreateInput = z.infer<typeof UserCreateInput>
+
+export const UserUpdateInput = z
+  .object({
+    name: z.string().trim().min(1, 'enter a name').max(120),
+    role: z.enum(ROLES, { error: 'choose a role' }),
+    isActive: z.boolean(),
+    password: z
+      .string()
+      .min(PASSWORD_MIN_LENGTH, `use at least ${PASSWORD_MIN_LENGTH} characters`)
+      .max(200),
+  })
+  .partial()
+export type UserUpdateInput = z.infer<typeof UserUpdateInput>
+
+/** A user as the Admin screen lists it. */
+export interface UserAdminDto {
+  id: string
+  email: string
+  name: string
+  role: (typeof ROLES)[number]
+  isActive: boolean
+  lastSignInAt: string | null
+  createdAt: string
+}

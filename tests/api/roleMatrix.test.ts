@@ -1,0 +1,85 @@
+import { randomUUID } from 'node:crypto'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { ROLES } from '../../shared/roles'
+import type { Role } from '../../shared/roles'
+import { apiRouters, routeRules } from '../../server/routes/registry'
+import { resetSignInLimits, signedInAs, TestClient, testApp } from './support/client'
+
+type Who = 'public' | 'signed_in' | readonly Role[]
+
+/**
+ * Who may call each route, written out by hand. Adding a route to the server without adding it
+ * here fails the first test; a route whose guard differs from this table fails the second.
+ */
+const EXPECTED: { method: string; path: string; who: Who }[] = [
+  { method: 'get', path: '/api/auth/csrf', who: 'public' },
+  { method: 'post', path: '/api/auth/login', who: 'public' },
+  { method: 'post', path: '/api/auth/logout', who: 'public' },
+  { method: 'get', path: '/api/auth/me', who: 'signed_in' },
+  { method: 'get', path: '/api/health', who: 'public' },
+  { method: 'get', path: '/api/stations', who: 'signed_in' },
+  { method: 'post', path: '/api/stations', who: ['admin'] },
+  { method: 'patch', path: '/api/stations/:id', who: ['admin'] },
+  { method: 'get', path: '/api/users', who: ['admin'] },
+  { method: 'post', path: '/api/users', who: ['admin'] },
+  { method: 'patch', path: '/api/users/:id', who: ['admin'] },
+  { method: 'get', path: '/api/audit-events', who: ['admin'] },
+]
+
+const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
+
+function expectedStatusClass(who: Who, role: Role | null): 'open' | 401 | 403 {
+  if (who === 'public') return 'open'
+  if (role === null) return 401
+  if (who === 'signed_in' || who.includes(role)) return 'open'
+  return 403
+}
+
+async function freshAnonymous(): Promise<TestClient> {
+  const client = new TestClient()
+  await client.refreshCsrf()
+  return client
+}
+
+describe('role matrix', () => {
+  beforeAll(async () => {
+    testApp()
+    await resetSignInLimits()
+  })
+
+  it('has a rule in this table for every route the server registers, and no stale rows', () => {
+    expect(routeRules.map(key).sort()).toEqual(EXPECTED.map(key).sort())
+  })
+
+  it('registers no route on an API router without going through the guarded registry', () => {
+    const guarded = routeRules.length
+    let layers = 0
+    for (const { router } of apiRouters)
+      for (const layer of router.stack as { route?: { methods: Record<string, boolean> } }[])
+        if (layer.route) layers += Object.keys(layer.route.methods).filter((m) => m !== '_all').length
+    expect(layers).toBe(guarded)
+  })
+
+  it('answers every route × role with the status its rule implies', async () => {
+    const clients = new Map<Role, TestClient>()
+    for (const role of ROLES) clients.set(role, await signedInAs(role))
+    const anonymous = await freshAnonymous()
+    const failures: string[] = []
+    for (const row of EXPECTED) {
+      const path = row.path.replace(/:id\b/g, randomUUID())
+      for (const role of [null, ...ROLES] as (Role | null)[]) {
+        // Signing out ends the session, so that row gets a client of its own.
+        const client =
+          row.path !== '/api/auth/logout' ? (role ? clients.get(role)! : anonymous) : role ? await signedInAs(role) : await freshAnonymous()
+        const res =
+          row.method === 'get'
+            ? await client.get(path)
+            : await client.send(row.method as 'post' | 'patch', path, {})
+        const want = expectedStatusClass(row.who, role)
+        const isOk = want === 'open' ? res.status !== 401 && res.status !== 403 : res.status === want
+        if (!isOk) failures.push(`${key(row)} as ${role ?? 'anonymous'}: got ${res.status}, want ${want}`)
+      }
+    }
+    expect(failures).toEqual([])
+  })
+})

@@ -1,0 +1,28 @@
+import { fileURLToPath } from 'node:url'
+import type { Worker } from 'bullmq'
+import { logger } from '../server/logger'
+import { newQueueConnection } from '../server/redis'
+import { scheduleMaintenance, startMaintenanceWorker } from './maintenance'
+
+/** Starts every queue's worker on one fresh Redis connection; `close()` drains them. */
+export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
+  const connection = newQueueConnection()
+  await scheduleMaintenance(connection)
+  const workers: Worker[] = [startMaintenanceWorker(connection)]
+  for (const w of workers) w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
+  logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
+  return {
+    close: async () => {
+      await Promise.all(workers.map((w) => w.close()))
+      await connection.quit()
+    },
+  }
+}
+
+// Run on its own (`tsx workers/index.ts`) to scale workers apart from the API.
+if (process.argv[1] === fileURLToPath(import.meta.url)) {
+  const running = await startWorkers()
+  const stop = () => void running.close().then(() => process.exit(0))
+  process.on('SIGINT', stop)
+  process.on('SIGTERM', stop)
+}
