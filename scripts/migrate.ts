@@ -22,7 +22,9 @@ try {
   if (values.reset) await resetTestSchema(sequelize)
   const umzug = migrator(sequelize)
   const ran = values.down ? await umzug.down() : await umzug.up()
-  console.log(`migrate: ${env.WAYMARK_DB}: ${values.down ? 'undid' : 'applied'} ${ran.length} migration(s)`)
+  console.log(
+    `migrate: ${env.WAYMARK_DB}: ${values.down ? 'undid' : 'applied'} ${ran.length} migration(s)`,
+  )
 } finally {
   await sequelize.close()
 }

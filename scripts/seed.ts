@@ -8,7 +8,9 @@ const HELP = `Usage: tsx scripts/seed.ts [--if-empty]
 Loads the invented demo scenario (Ferncastle Power) into the database named by WAYMARK_DB.
   --if-empty  do nothing when the database already has users (what npm start uses)`
 
-const { values } = parseArgs({ options: { 'if-empty': { type: 'boolean' }, help: { type: 'boolean' } } })
+const { values } = parseArgs({
+  options: { 'if-empty': { type: 'boolean' }, help: { type: 'boolean' } },
+})
 if (values.help) {
   console.log(HELP)
   process.exit(0)
@@ -16,7 +18,9 @@ if (values.help) {
 
 try {
   const loaded = await loadDemo({ onlyIfEmpty: values['if-empty'] ?? false })
-  console.log(`seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`)
+  console.log(
+    `seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`,
+  )
 } finally {
   await closeDb()
 }

@@ -19,7 +19,10 @@ const EnvSchema = z.object({
   PUBLIC_BASE_URL: z.string().url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   WAYMARK_DATA_DIR: z.string().default(defaultDataDir()),
-  WAYMARK_DB: z.string().regex(/^[a-z_][a-z0-9_]*$/).default('waymark'),
+  WAYMARK_DB: z
+    .string()
+    .regex(/^[a-z_][a-z0-9_]*$/)
+    .default('waymark'),
   WAYMARK_PG_PORT: z.coerce.number().int().default(55432),
   DATABASE_URL: z.string().optional(),
   DATABASE_OWNER_URL: z.string().optional(),
@@ -59,7 +62,9 @@ function loadEnv() {
   const credsText = readSecret(raw.WAYMARK_DATA_DIR, 'db.json')
   const creds = credsText ? (JSON.parse(credsText) as DbCredentials) : undefined
   const local = (who: 'owner' | 'app') =>
-    creds ? pgUrl(creds[who].user, creds[who].password, raw.WAYMARK_PG_PORT, raw.WAYMARK_DB) : undefined
+    creds
+      ? pgUrl(creds[who].user, creds[who].password, raw.WAYMARK_PG_PORT, raw.WAYMARK_DB)
+      : undefined
   const databaseUrl = raw.DATABASE_URL ?? local('app')
   const ownerUrl = raw.DATABASE_OWNER_URL ?? local('owner') ?? databaseUrl
   const sessionSecret = raw.SESSION_SECRET ?? readSecret(raw.WAYMARK_DATA_DIR, 'session-secret')
@@ -92,6 +97,8 @@ export const env: Env = loadEnv()
 /** Throws a readable error when a setting the server cannot run without is missing. */
 export function requireSetting<T>(value: T | undefined, what: string): T {
   if (value === undefined || value === '')
-    throw new Error(`${what} is not configured: run "npm run services start" or set it in the environment`)
+    throw new Error(
+      `${what} is not configured: run "npm run services start" or set it in the environment`,
+    )
   return value
 }

@@ -5,6 +5,8 @@ export class AppError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** A list of problems, e.g. everything that stops a revision from being released. */
+    readonly details?: string[],
   ) {
     super(message)
     this.name = 'AppError'

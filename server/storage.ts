@@ -39,7 +39,9 @@ export async function putFile(prefix: string, body: Buffer, contentType: string)
 }
 
 /** Reads a whole stored file; throws when the key is absent. */
-export async function getFile(key: string): Promise<{ body: Buffer; contentType: string | undefined }> {
+export async function getFile(
+  key: string,
+): Promise<{ body: Buffer; contentType: string | undefined }> {
   const out = await s3().send(new GetObjectCommand({ Bucket: env.s3.bucket, Key: key }))
   const bytes = await out.Body!.transformToByteArray()
   return { body: Buffer.from(bytes), contentType: out.ContentType }

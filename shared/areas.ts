@@ -13,7 +13,12 @@ export interface AreaDefinition {
  * navigation never shows a dead link; later issues append to this list.
  */
 export const AREAS: readonly AreaDefinition[] = [
-  { key: 'stations', label: 'Stations', path: '/admin/stations', roles: ['admin', 'lead', 'engineer'] },
+  {
+    key: 'stations',
+    label: 'Stations',
+    path: '/admin/stations',
+    roles: ['admin', 'lead', 'engineer'],
+  },
   { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },
   { key: 'audit', label: 'Audit log', path: '/admin/audit', roles: ['admin'] },
 ]

@@ -5,4 +5,6 @@ export interface ApiErrorBody {
   message: string
   /** Field name to message, for validation errors. */
   fields?: Record<string, string>
+  /** A list of problems, e.g. what stops a revision from being released. */
+  details?: string[]
 }

@@ -9,7 +9,8 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   const connection = newQueueConnection()
   await scheduleMaintenance(connection)
   const workers: Worker[] = [startMaintenanceWorker(connection)]
-  for (const w of workers) w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
+  for (const w of workers)
+    w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
   logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
   return {
     close: async () => {

@@ -20,7 +20,11 @@ export async function scheduleMaintenance(connection: Redis): Promise<void> {
   await queue.upsertJobScheduler(
     'sweep-sessions',
     { every: SWEEP_EVERY_MS },
-    { name: 'sweep-sessions', data: { kind: 'sweep-sessions' }, opts: { attempts: 3, backoff: { type: 'exponential', delay: 5000 } } },
+    {
+      name: 'sweep-sessions',
+      data: { kind: 'sweep-sessions' },
+      opts: { attempts: 3, backoff: { type: 'exponential', delay: 5000 } },
+    },
   )
   await queue.close()
 }

@@ -36,12 +36,18 @@ export function migrator(sequelize: Sequelize): Umzug<MigrationContext> {
       resolve: ({ name, path }) => ({
         name,
         up: async (params) => ((await import(pathToFileURL(path!).href)) as Migration).up(params),
-        down: async (params) => ((await import(pathToFileURL(path!).href)) as Migration).down(params),
+        down: async (params) =>
+          ((await import(pathToFileURL(path!).href)) as Migration).down(params),
       }),
     },
     context: { queryInterface: sequelize.getQueryInterface(), sequelize, appRole: env.appDbRole },
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
-    logger: { info: (m) => logger.debug(m), warn: (m) => logger.warn(m), error: (m) => logger.error(m), debug: () => {} },
+    logger: {
+      info: (m) => logger.debug(m),
+      warn: (m) => logger.warn(m),
+      error: (m) => logger.error(m),
+      debug: () => {},
+    },
   })
 }
 
@@ -50,8 +56,12 @@ export function migrator(sequelize: Sequelize): Umzug<MigrationContext> {
  * database whose name does not end in `_test`, so a slip of the environment cannot wipe real data.
  */
 export async function resetTestSchema(sequelize: Sequelize): Promise<void> {
-  const [[row]] = (await sequelize.query('SELECT current_database() AS name')) as [{ name: string }[], unknown]
-  if (!row.name.endsWith('_test')) throw new Error(`refusing to reset database ${row.name}: not a test database`)
+  const [[row]] = (await sequelize.query('SELECT current_database() AS name')) as [
+    { name: string }[],
+    unknown,
+  ]
+  if (!row.name.endsWith('_test'))
+    throw new Error(`refusing to reset database ${row.name}: not a test database`)
   await sequelize.query('DROP SCHEMA IF EXISTS public CASCADE')
   await sequelize.query('CREATE SCHEMA public')
 }

@@ -22,7 +22,12 @@ export function signedInUser(req: Request): UserDto {
 /** The acting user with the request's address and id, for the audit log. */
 export function actorOf(req: Request): Actor {
   const user = currentUser(req)
-  return { id: user?.id ?? null, email: user?.email ?? null, ip: req.ip ?? null, requestId: String(req.id) }
+  return {
+    id: user?.id ?? null,
+    email: user?.email ?? null,
+    ip: req.ip ?? null,
+    requestId: String(req.id),
+  }
 }
 
 /** A guard: 401 when signed out, 403 when the user's role is not listed. */

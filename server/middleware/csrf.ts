@@ -8,5 +8,9 @@ export const { csrfSynchronisedProtection: csrfProtection, generateToken: csrfTo
     const header = req.headers['x-csrf-token']
     return typeof header === 'string' ? header : undefined
   },
-  errorConfig: { statusCode: 403, code: 'csrf_invalid', message: 'the form expired: reload the page and try again' },
+  errorConfig: {
+    statusCode: 403,
+    code: 'csrf_invalid',
+    message: 'the form expired: reload the page and try again',
+  },
 })

@@ -1,4 +1,5 @@
 import type { NextFunction, Request, Response } from 'express'
+import { MulterError } from 'multer'
 import { UniqueConstraintError, ValidationError } from 'sequelize'
 import type { ApiErrorBody } from '../../shared/errors'
 import { AppError } from '../errors'
@@ -13,12 +14,27 @@ function toAppError(err: unknown): AppError | null {
     const fields = Object.fromEntries(err.errors.map((e) => [e.path ?? '_', e.message]))
     return AppError.badRequest(err.errors[0]?.message ?? 'invalid input', fields)
   }
-  const e = err as { status?: number; statusCode?: number; code?: string; type?: string; message?: string }
+  if (err instanceof MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE')
+      return AppError.tooLarge(`${err.field ?? 'file'}: the file is over the size limit`)
+    return AppError.badRequest(`${err.field ?? 'file'}: ${err.message}`, {
+      [err.field ?? 'file']: err.message,
+    })
+  }
+  const e = err as {
+    status?: number
+    statusCode?: number
+    code?: string
+    type?: string
+    message?: string
+  }
   const status = e.status ?? e.statusCode
   // Errors raised by middleware (body parser, csrf-sync) carry an HTTP status of their own.
-  if (status === 403 && e.code === 'csrf_invalid') return new AppError(403, 'csrf_invalid', e.message ?? 'bad token')
+  if (status === 403 && e.code === 'csrf_invalid')
+    return new AppError(403, 'csrf_invalid', e.message ?? 'bad token')
   if (status === 413) return AppError.tooLarge('the request body is too large')
-  if (status === 400 && e.type === 'entity.parse.failed') return AppError.badRequest('the body is not valid JSON')
+  if (status === 400 && e.type === 'entity.parse.failed')
+    return AppError.badRequest('the body is not valid JSON')
   if (status === 415) return AppError.unsupportedType('send JSON')
   return null
 }
@@ -33,14 +49,19 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   if (known) {
     const body: ApiErrorBody = { error: known.code, message: known.message }
     if (known.fields) body.fields = known.fields
+    if (known.details) body.details = known.details
     res.status(known.status).json(body)
     return
   }
   req.log.error({ err }, 'unhandled error')
-  res.status(500).json({ error: 'internal', message: `something went wrong (request ${String(req.id)})` })
+  res
+    .status(500)
+    .json({ error: 'internal', message: `something went wrong (request ${String(req.id)})` })
 }
 
 /** The JSON 404 for any /api path that no router answered; registered after every router. */
 export function apiNotFound(req: Request, res: Response): void {
-  res.status(404).json({ error: 'not_found', message: `no such endpoint: ${req.method} ${req.path}` })
+  res
+    .status(404)
+    .json({ error: 'not_found', message: `no such endpoint: ${req.method} ${req.path}` })
 }

@@ -15,12 +15,15 @@ passport.deserializeUser((id: string, done) => {
 })
 
 passport.use(
-  new LocalStrategy({ usernameField: 'email', passReqToCallback: true }, (req, email, password, done) => {
-    authenticate({ email, password }, { ip: req.ip ?? null, requestId: String(req.id) }).then(
-      (user) => done(null, user ?? false),
-      (err: unknown) => done(err),
-    )
-  }),
+  new LocalStrategy(
+    { usernameField: 'email', passReqToCallback: true },
+    (req, email, password, done) => {
+      authenticate({ email, password }, { ip: req.ip ?? null, requestId: String(req.id) }).then(
+        (user) => done(null, user ?? false),
+        (err: unknown) => done(err),
+      )
+    },
+  ),
 )
 
 export { passport }

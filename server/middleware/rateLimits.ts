@@ -24,7 +24,11 @@ function accountKey(req: Request): string {
 }
 
 const tooMany = () => {
-  throw new AppError(429, 'too_many_attempts', 'too many sign-in attempts: wait 15 minutes or ask an admin')
+  throw new AppError(
+    429,
+    'too_many_attempts',
+    'too many sign-in attempts: wait 15 minutes or ask an admin',
+  )
 }
 
 /** Limits failed sign-ins per client address and, separately, per e-mail address tried. */
@@ -38,6 +42,11 @@ export function signInLimiters() {
   }
   return [
     rateLimit({ ...common, limit: SIGN_IN_LIMITS.perIp, store: store('ip') }),
-    rateLimit({ ...common, limit: SIGN_IN_LIMITS.perAccount, store: store('account'), keyGenerator: accountKey }),
+    rateLimit({
+      ...common,
+      limit: SIGN_IN_LIMITS.perAccount,
+      store: store('account'),
+      keyGenerator: accountKey,
+    }),
   ]
 }

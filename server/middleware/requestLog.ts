@@ -14,9 +14,14 @@ export const requestLog = pinoHttp({
     res.setHeader('X-Request-Id', id)
     return id
   },
-  customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug'),
+  customLogLevel: (_req, res, err) =>
+    err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug',
   serializers: {
-    req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+    req: (req: { id: string; method: string; url: string }) => ({
+      id: req.id,
+      method: req.method,
+      url: req.url,
+    }),
     res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
   },
 })

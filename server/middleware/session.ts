@@ -12,7 +12,10 @@ let pool: pg.Pool | undefined
 
 /** The session pool, shared so shutdown can close it. */
 export function sessionPool(): pg.Pool {
-  pool ??= new pg.Pool({ connectionString: requireSetting(env.databaseUrl, 'the database URL'), max: 5 })
+  pool ??= new pg.Pool({
+    connectionString: requireSetting(env.databaseUrl, 'the database URL'),
+    max: 5,
+  })
   return pool
 }
 
@@ -24,12 +27,22 @@ export function sessionMiddleware() {
   return session({
     name: 'waymark.sid',
     secret: requireSetting(env.sessionSecret, 'the session secret'),
-    store: new PgStore({ pool: sessionPool(), tableName: 'sessions', createTableIfMissing: false, pruneSessionInterval: false }),
+    store: new PgStore({
+      pool: sessionPool(),
+      tableName: 'sessions',
+      createTableIfMissing: false,
+      pruneSessionInterval: false,
+    }),
     resave: false,
     saveUninitialized: false,
     rolling: true,
     proxy: env.isProduction,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: env.isProduction, maxAge: SESSION_MAX_AGE_MS },
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: env.isProduction,
+      maxAge: SESSION_MAX_AGE_MS,
+    },
   })
 }
 

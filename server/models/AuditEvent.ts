@@ -1,8 +1,16 @@
 import { DataTypes, Model } from 'sequelize'
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import type {
+  CreationOptional,
+  InferAttributes,
+  InferCreationAttributes,
+  Sequelize,
+} from 'sequelize'
 
 /** One append-only row of the audit log; the database refuses UPDATE and DELETE on it. */
-export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
+export class AuditEvent extends Model<
+  InferAttributes<AuditEvent>,
+  InferCreationAttributes<AuditEvent>
+> {
   declare id: CreationOptional<string>
   declare at: CreationOptional<Date>
   declare actorId: string | null

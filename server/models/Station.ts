@@ -1,5 +1,10 @@
 import { DataTypes, Model } from 'sequelize'
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import type {
+  CreationOptional,
+  InferAttributes,
+  InferCreationAttributes,
+  Sequelize,
+} from 'sequelize'
 import { STATION_KINDS } from '../../shared/stations'
 import type { StationKind } from '../../shared/stations'
 

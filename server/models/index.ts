@@ -2,12 +2,49 @@ import { Sequelize } from 'sequelize'
 import { env, requireSetting } from '../env'
 import { logger } from '../logger'
 import { AuditEvent, initAuditEvent } from './AuditEvent'
+import { BomLine, initBomLine } from './BomLine'
+import { Check, initCheck } from './Check'
+import { ComponentLot, initComponentLot } from './ComponentLot'
+import { DefectCode, initDefectCode } from './DefectCode'
+import { initPart, Part } from './Part'
+import { initProduct, Product } from './Product'
+import { initRevision, Revision } from './Revision'
+import { initRouteStep, RouteStep } from './RouteStep'
 import { initStation, Station } from './Station'
+import { initUpload, Upload } from './Upload'
 import { initUser, User } from './User'
+import { initWinding, Winding } from './Winding'
 
-export { AuditEvent, Station, User }
+export {
+  AuditEvent,
+  BomLine,
+  Check,
+  ComponentLot,
+  DefectCode,
+  Part,
+  Product,
+  Revision,
+  RouteStep,
+  Station,
+  Upload,
+  User,
+  Winding,
+}
 
 let instance: Sequelize | undefined
+
+function associate(): void {
+  AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId', constraints: false })
+  Product.hasMany(Revision, { as: 'revisions', foreignKey: 'productId' })
+  Revision.belongsTo(Product, { as: 'product', foreignKey: 'productId' })
+  Revision.hasMany(Winding, { as: 'windings', foreignKey: 'revisionId' })
+  Revision.hasMany(RouteStep, { as: 'steps', foreignKey: 'revisionId' })
+  Revision.hasMany(BomLine, { as: 'bomLines', foreignKey: 'revisionId' })
+  RouteStep.hasMany(Check, { as: 'checks', foreignKey: 'stepId' })
+  BomLine.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
+  ComponentLot.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
+  ComponentLot.belongsTo(Upload, { as: 'certificate', foreignKey: 'certificateUploadId' })
+}
 
 /** The app's Sequelize instance (connected as the app's own, non-owner role), made on first use. */
 export function db(): Sequelize {
@@ -18,11 +55,23 @@ export function db(): Sequelize {
     pool: { max: 10, idle: 10_000 },
     define: { underscored: true },
   })
-  initUser(instance)
-  initStation(instance)
-  initAuditEvent(instance)
-  // associations
-  AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId', constraints: false })
+  for (const init of [
+    initUser,
+    initStation,
+    initAuditEvent,
+    initProduct,
+    initRevision,
+    initWinding,
+    initRouteStep,
+    initCheck,
+    initPart,
+    initBomLine,
+    initDefectCode,
+    initUpload,
+    initComponentLot,
+  ])
+    init(instance)
+  associate()
   return instance
 }
 

@@ -19,15 +19,20 @@ authRoutes.get('/csrf', 'public', (req, res) => {
 // One text for every failure, so the answer does not tell whether the account exists.
 const SIGN_IN_FAILED = 'e-mail or password is wrong'
 
-authRoutes.post('/login', 'public', ...signInLimiters(), (req: Request, res: Response, next: NextFunction) => {
-  req.body = parse(LoginInput, req.body)
-  passport.authenticate('local', (err: unknown, user: UserDto | false) => {
-    if (err) return next(err)
-    if (!user) return next(new AppError(401, 'invalid_credentials', SIGN_IN_FAILED))
-    // passport ≥ 0.6 regenerates the session here, which defeats session fixation.
-    req.logIn(user, (loginErr) => (loginErr ? next(loginErr) : res.json({ user })))
-  })(req, res, next)
-})
+authRoutes.post(
+  '/login',
+  'public',
+  ...signInLimiters(),
+  (req: Request, res: Response, next: NextFunction) => {
+    req.body = parse(LoginInput, req.body)
+    passport.authenticate('local', (err: unknown, user: UserDto | false) => {
+      if (err) return next(err)
+      if (!user) return next(new AppError(401, 'invalid_credentials', SIGN_IN_FAILED))
+      // passport ≥ 0.6 regenerates the session here, which defeats session fixation.
+      req.logIn(user, (loginErr) => (loginErr ? next(loginErr) : res.json({ user })))
+    })(req, res, next)
+  },
+)
 
 authRoutes.post('/logout', 'public', async (req, res, next) => {
   const actor = actorOf(req)

@@ -1,13 +1,35 @@
 import { Router } from 'express'
 import { auditRoutes } from './audit'
 import { authRoutes } from './auth'
+import { componentLotRoutes } from './componentLots'
 import { healthRoutes } from './health'
+import { defectCodeRoutes, partRoutes } from './parts'
+import { productRoutes } from './products'
+import { bomLineRoutes, checkRoutes, stepRoutes, windingRoutes } from './recipeParts'
 import { apiRouters } from './registry'
+import { revisionRoutes } from './revisions'
 import { stationRoutes } from './stations'
 import { userRoutes } from './users'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
-void [auditRoutes, authRoutes, healthRoutes, stationRoutes, userRoutes]
+void [
+  auditRoutes,
+  authRoutes,
+  healthRoutes,
+  stationRoutes,
+  userRoutes,
+  productRoutes,
+  revisionRoutes,
+]
+void [
+  stepRoutes,
+  checkRoutes,
+  windingRoutes,
+  bomLineRoutes,
+  partRoutes,
+  defectCodeRoutes,
+  componentLotRoutes,
+]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

@@ -31,5 +31,12 @@ export function apiRoutes(base: string) {
       routeRules.push({ method, path: `/api${base}${path === '/' ? '' : path}`, access })
       router[method](path, guard(access), ...handlers)
     }
-  return { router, get: add('get'), post: add('post'), put: add('put'), patch: add('patch'), delete: add('delete') }
+  return {
+    router,
+    get: add('get'),
+    post: add('post'),
+    put: add('put'),
+    patch: add('patch'),
+    delete: add('delete'),
+  }
 }

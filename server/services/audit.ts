@@ -21,7 +21,11 @@ export interface AuditEntry {
  * Appends one event to the audit log. Pass the transaction of the change it records, so that the
  * change and its audit row commit or roll back together.
  */
-export async function recordAudit(actor: Actor, entry: AuditEntry, transaction?: Transaction): Promise<void> {
+export async function recordAudit(
+  actor: Actor,
+  entry: AuditEntry,
+  transaction?: Transaction,
+): Promise<void> {
   await AuditEvent.create(
     {
       actorId: actor.id,

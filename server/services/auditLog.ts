@@ -19,7 +19,10 @@ export async function listAuditEvents(q: AuditQuery): Promise<AuditPageDto> {
   if (q.actor) where.actorEmail = { [Op.iLike]: `%${q.actor}%` }
   const { rows, count } = await AuditEvent.findAndCountAll({
     where,
-    order: [['at', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['at', 'DESC'],
+      ['id', 'DESC'],
+    ],
     limit: q.pageSize,
     offset: (q.page - 1) * q.pageSize,
   })

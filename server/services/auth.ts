@@ -9,14 +9,28 @@ import { toUserDto } from './users'
  * Checks an e-mail and password. Returns the user, or null with one reason for the audit log; the
  * caller answers the same 401 for every reason so that the response does not reveal accounts.
  */
-export async function authenticate(input: LoginInput, from: Omit<Actor, 'id' | 'email'>): Promise<UserDto | null> {
+export async function authenticate(
+  input: LoginInput,
+  from: Omit<Actor, 'id' | 'email'>,
+): Promise<UserDto | null> {
   const user = await User.findOne({ where: { email: input.email } })
   const isPasswordRight = await verifyPassword(input.password, user?.passwordHash ?? null)
-  const reason = !user ? 'unknown_email' : !isPasswordRight ? 'wrong_password' : !user.isActive ? 'inactive' : null
+  const reason = !user
+    ? 'unknown_email'
+    : !isPasswordRight
+      ? 'wrong_password'
+      : !user.isActive
+        ? 'inactive'
+        : null
   if (reason || !user) {
     await recordAudit(
       { ...from, id: user?.id ?? null, email: input.email },
-      { action: 'auth.sign_in_failed', entity: 'user', entityId: user?.id ?? null, after: { reason } },
+      {
+        action: 'auth.sign_in_failed',
+        entity: 'user',
+        entityId: user?.id ?? null,
+        after: { reason },
+      },
     )
     return null
   }

@@ -3,8 +3,11 @@ import { db } from '../models'
 import { redisConnection } from '../redis'
 import { checkStorage } from '../storage'
 
-const version = (JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string })
-  .version
+const version = (
+  JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as {
+    version: string
+  }
+).version
 
 type PartState = 'ok' | 'down'
 export interface Health {
@@ -30,5 +33,11 @@ export async function checkHealth(): Promise<Health> {
     withTimeout(checkStorage(), 2000),
   ])
   const isOk = dbState === 'ok' && redisState === 'ok' && storageState === 'ok'
-  return { status: isOk ? 'ok' : 'degraded', db: dbState, redis: redisState, storage: storageState, version }
+  return {
+    status: isOk ? 'ok' : 'degraded',
+    db: dbState,
+    redis: redisState,
+    storage: storageState,
+    version,
+  }
 }

@@ -1,5 +1,9 @@
 import { UniqueConstraintError } from 'sequelize'
-import type { StationCreateInput, StationDto, StationUpdateInput } from '../../shared/schemas/stations'
+import type {
+  StationCreateInput,
+  StationDto,
+  StationUpdateInput,
+} from '../../shared/schemas/stations'
 import { AppError } from '../errors'
 import { db, Station } from '../models'
 import { changedFields, recordAudit } from './audit'
@@ -19,7 +23,9 @@ function toStationDto(s: Station): StationDto {
 
 function duplicateCode(err: unknown): never {
   if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another station has this code', { code: 'already in use' })
+    throw AppError.conflict('duplicate', 'another station has this code', {
+      code: 'already in use',
+    })
   throw err
 }
 
@@ -34,14 +40,22 @@ export async function createStation(input: StationCreateInput, actor: Actor): Pr
     .transaction(async (transaction) => {
       const station = await Station.create(input, { transaction })
       const dto = toStationDto(station)
-      await recordAudit(actor, { action: 'station.create', entity: 'station', entityId: station.id, after: dto }, transaction)
+      await recordAudit(
+        actor,
+        { action: 'station.create', entity: 'station', entityId: station.id, after: dto },
+        transaction,
+      )
       return dto
     })
     .catch(duplicateCode)
 }
 
 /** Changes a station's code, name, kind or active flag. */
-export async function updateStation(id: string, input: StationUpdateInput, actor: Actor): Promise<StationDto> {
+export async function updateStation(
+  id: string,
+  input: StationUpdateInput,
+  actor: Actor,
+): Promise<StationDto> {
   return db()
     .transaction(async (transaction) => {
       const station = await Station.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
@@ -50,7 +64,11 @@ export async function updateStation(id: string, input: StationUpdateInput, actor
       await station.update(input, { transaction })
       const after = toStationDto(station)
       const { before: b, after: a } = changedFields(before, after)
-      await recordAudit(actor, { action: 'station.update', entity: 'station', entityId: id, before: b, after: a }, transaction)
+      await recordAudit(
+        actor,
+        { action: 'station.update', entity: 'station', entityId: id, before: b, after: a },
+        transaction,
+      )
       return after
     })
     .catch(duplicateCode)

@@ -23,7 +23,12 @@ function toAdminDto(user: User): UserAdminDto {
 
 /** Every user, for the Admin screen, active ones first. */
 export async function listUsers(): Promise<UserAdminDto[]> {
-  const users = await User.findAll({ order: [['isActive', 'DESC'], ['name', 'ASC']] })
+  const users = await User.findAll({
+    order: [
+      ['isActive', 'DESC'],
+      ['name', 'ASC'],
+    ],
+  })
   return users.map(toAdminDto)
 }
 
@@ -38,14 +43,23 @@ export async function createUser(input: UserCreateInput, actor: Actor): Promise<
   const passwordHash = await hashPassword(input.password)
   try {
     return await db().transaction(async (transaction) => {
-      const user = await User.create({ ...input, passwordHash, lastSignInAt: null }, { transaction })
+      const user = await User.create(
+        { ...input, passwordHash, lastSignInAt: null },
+        { transaction },
+      )
       const dto = toAdminDto(user)
-      await recordAudit(actor, { action: 'user.create', entity: 'user', entityId: user.id, after: dto }, transaction)
+      await recordAudit(
+        actor,
+        { action: 'user.create', entity: 'user', entityId: user.id, after: dto },
+        transaction,
+      )
       return dto
     })
   } catch (err) {
     if (err instanceof UniqueConstraintError)
-      throw AppError.conflict('duplicate', 'a user with this e-mail exists', { email: 'already in use' })
+      throw AppError.conflict('duplicate', 'a user with this e-mail exists', {
+        email: 'already in use',
+      })
     throw err
   }
 }
@@ -54,9 +68,16 @@ export async function createUser(input: UserCreateInput, actor: Actor): Promise<
  * Changes a user's name, role, password or active flag. Deactivating also deletes the user's
  * stored sessions, so a signed-in browser loses access on its next request.
  */
-export async function updateUser(id: string, input: UserUpdateInput, actor: Actor): Promise<UserAdminDto> {
+export async function updateUser(
+  id: string,
+  input: UserUpdateInput,
+  actor: Actor,
+): Promise<UserAdminDto> {
   if (id === actor.id && (input.isActive === false || (input.role && input.role !== 'admin')))
-    throw AppError.conflict('self_lockout', 'you cannot deactivate yourself or drop your own admin role')
+    throw AppError.conflict(
+      'self_lockout',
+      'you cannot deactivate yourself or drop your own admin role',
+    )
   const { password, ...fields } = input
   return db().transaction(async (transaction) => {
     const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
@@ -68,7 +89,11 @@ export async function updateUser(id: string, input: UserUpdateInput, actor: Acto
     const after = toAdminDto(user)
     const diff = changedFields(before, after)
     if (password) diff.after.password = 'changed'
-    await recordAudit(actor, { action: 'user.update', entity: 'user', entityId: id, ...diff }, transaction)
+    await recordAudit(
+      actor,
+      { action: 'user.update', entity: 'user', entityId: id, ...diff },
+      transaction,
+    )
     if (input.isActive === false || password) await endSessionsOf(id, transaction)
     return after
   })

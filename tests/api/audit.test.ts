@@ -10,21 +10,29 @@ describe('audit log', () => {
   })
 
   it('cannot be updated or deleted by the role the app connects as', async () => {
-    const [row] = await db().query<{ id: string }>('SELECT id FROM audit_events ORDER BY id LIMIT 1', {
-      type: QueryTypes.SELECT,
-    })
+    const [row] = await db().query<{ id: string }>(
+      'SELECT id FROM audit_events ORDER BY id LIMIT 1',
+      {
+        type: QueryTypes.SELECT,
+      },
+    )
     expect(row).toBeDefined()
-    await expect(db().query(`UPDATE audit_events SET action = 'forged' WHERE id = :id`, { replacements: row })).rejects.toThrow(
+    await expect(
+      db().query(`UPDATE audit_events SET action = 'forged' WHERE id = :id`, { replacements: row }),
+    ).rejects.toThrow(/permission denied|append-only/)
+    await expect(
+      db().query('DELETE FROM audit_events WHERE id = :id', { replacements: row }),
+    ).rejects.toThrow(/permission denied|append-only/)
+    await expect(db().query('TRUNCATE audit_events')).rejects.toThrow(
       /permission denied|append-only/,
     )
-    await expect(db().query('DELETE FROM audit_events WHERE id = :id', { replacements: row })).rejects.toThrow(
-      /permission denied|append-only/,
+    const [still] = await db().query<{ action: string }>(
+      'SELECT action FROM audit_events WHERE id = :id',
+      {
+        replacements: row,
+        type: QueryTypes.SELECT,
+      },
     )
-    await expect(db().query('TRUNCATE audit_events')).rejects.toThrow(/permission denied|append-only/)
-    const [still] = await db().query<{ action: string }>('SELECT action FROM audit_events WHERE id = :id', {
-      replacements: row,
-      type: QueryTypes.SELECT,
-    })
     expect(still.action).not.toBe('forged')
   })
 

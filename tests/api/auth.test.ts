@@ -4,7 +4,9 @@ import { SIGN_IN_LIMITS } from '../../server/middleware/rateLimits'
 import { resetSignInLimits, TestClient, uniqueSuffix } from './support/client'
 
 const sessionCookie = (res: { headers: Record<string, unknown> }) =>
-  ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) => c.startsWith('waymark.sid='))
+  ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) =>
+    c.startsWith('waymark.sid='),
+  )
 
 describe('sign-in', () => {
   beforeAll(resetSignInLimits)
@@ -23,7 +25,10 @@ describe('sign-in', () => {
   it('gives the same 401 text for a wrong e-mail and a wrong password', async () => {
     const c = new TestClient()
     const wrongPassword = await c.signIn('lead@ferncastle.example', 'not-the-password')
-    const wrongEmail = await c.signIn(`nobody-${uniqueSuffix()}@ferncastle.example`, 'not-the-password')
+    const wrongEmail = await c.signIn(
+      `nobody-${uniqueSuffix()}@ferncastle.example`,
+      'not-the-password',
+    )
     expect(wrongPassword.status).toBe(401)
     expect(wrongEmail.status).toBe(401)
     expect(wrongEmail.body).toEqual(wrongPassword.body)
@@ -34,7 +39,10 @@ describe('sign-in', () => {
     const first = await c.agent.get('/api/auth/csrf')
     const before = sessionCookie(first)
     c.csrf = first.body.csrfToken
-    const res = await c.post('/api/auth/login', { email: 'operator@ferncastle.example', password: 'waymark-demo' })
+    const res = await c.post('/api/auth/login', {
+      email: 'operator@ferncastle.example',
+      password: 'waymark-demo',
+    })
     expect(res.status).toBe(200)
     const after = sessionCookie(res)
     expect(before).toBeDefined()
@@ -47,7 +55,9 @@ describe('sign-in', () => {
 
   it('refuses a state change without the CSRF token with 403', async () => {
     const c = new TestClient()
-    const res = await c.agent.post('/api/auth/login').send({ email: 'lead@ferncastle.example', password: 'waymark-demo' })
+    const res = await c.agent
+      .post('/api/auth/login')
+      .send({ email: 'lead@ferncastle.example', password: 'waymark-demo' })
     expect(res.status).toBe(403)
     expect(res.body.error).toBe('csrf_invalid')
   })
@@ -73,8 +83,13 @@ describe('sign-in', () => {
     const since = new Date()
     await c.signIn(email, 'wrong-one')
     await c.signIn(email)
-    const events = await AuditEvent.findAll({ where: { actorEmail: email }, order: [['id', 'ASC']] })
-    const recent = events.filter((e) => e.at >= new Date(since.getTime() - 1000)).map((e) => e.action)
+    const events = await AuditEvent.findAll({
+      where: { actorEmail: email },
+      order: [['id', 'ASC']],
+    })
+    const recent = events
+      .filter((e) => e.at >= new Date(since.getTime() - 1000))
+      .map((e) => e.action)
     expect(recent).toEqual(expect.arrayContaining(['auth.sign_in_failed', 'auth.sign_in']))
   })
 
@@ -82,7 +97,8 @@ describe('sign-in', () => {
     await resetSignInLimits()
     const c = new TestClient()
     const email = 'engineer@ferncastle.example'
-    for (let i = 0; i < SIGN_IN_LIMITS.perAccount; i++) expect((await c.signIn(email, `guess-${i}`)).status).toBe(401)
+    for (let i = 0; i < SIGN_IN_LIMITS.perAccount; i++)
+      expect((await c.signIn(email, `guess-${i}`)).status).toBe(401)
     const blocked = await c.signIn(email)
     expect(blocked.status).toBe(429)
     expect(blocked.body.error).toBe('too_many_attempts')

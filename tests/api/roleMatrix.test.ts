@@ -24,6 +24,57 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/users', who: ['admin'] },
   { method: 'patch', path: '/api/users/:id', who: ['admin'] },
   { method: 'get', path: '/api/audit-events', who: ['admin'] },
+  { method: 'get', path: '/api/products', who: 'signed_in' },
+  { method: 'post', path: '/api/products', who: ['engineer'] },
+  { method: 'patch', path: '/api/products/:id', who: ['engineer'] },
+  { method: 'post', path: '/api/products/:id/revisions', who: ['engineer'] },
+  { method: 'get', path: '/api/revisions/:id', who: 'signed_in' },
+  { method: 'patch', path: '/api/revisions/:id', who: ['engineer'] },
+  { method: 'delete', path: '/api/revisions/:id', who: ['engineer'] },
+  { method: 'get', path: '/api/revisions/:id/release-check', who: ['engineer', 'lead', 'admin'] },
+  { method: 'post', path: '/api/revisions/:id/release', who: ['engineer'] },
+  { method: 'post', path: '/api/revisions/:id/obsolete', who: ['engineer'] },
+  { method: 'post', path: '/api/revisions/:id/copy', who: ['engineer'] },
+  { method: 'post', path: '/api/revisions/:id/windings', who: ['engineer'] },
+  { method: 'post', path: '/api/revisions/:id/steps', who: ['engineer'] },
+  { method: 'put', path: '/api/revisions/:id/steps/order', who: ['engineer'] },
+  { method: 'get', path: '/api/revisions/:id/bom', who: 'signed_in' },
+  { method: 'post', path: '/api/revisions/:id/bom', who: ['engineer'] },
+  { method: 'patch', path: '/api/steps/:id', who: ['engineer'] },
+  { method: 'delete', path: '/api/steps/:id', who: ['engineer'] },
+  { method: 'post', path: '/api/steps/:id/checks', who: ['engineer'] },
+  { method: 'patch', path: '/api/checks/:id', who: ['engineer'] },
+  { method: 'delete', path: '/api/checks/:id', who: ['engineer'] },
+  { method: 'patch', path: '/api/windings/:id', who: ['engineer'] },
+  { method: 'delete', path: '/api/windings/:id', who: ['engineer'] },
+  { method: 'patch', path: '/api/bom-lines/:id', who: ['engineer'] },
+  { method: 'delete', path: '/api/bom-lines/:id', who: ['engineer'] },
+  { method: 'get', path: '/api/parts', who: ['engineer', 'stores', 'lead', 'admin'] },
+  { method: 'post', path: '/api/parts', who: ['engineer', 'stores'] },
+  { method: 'patch', path: '/api/parts/:id', who: ['engineer', 'stores'] },
+  { method: 'get', path: '/api/defect-codes', who: 'signed_in' },
+  { method: 'post', path: '/api/defect-codes', who: ['engineer'] },
+  { method: 'patch', path: '/api/defect-codes/:id', who: ['engineer'] },
+  {
+    method: 'get',
+    path: '/api/component-lots',
+    who: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  },
+  { method: 'post', path: '/api/component-lots', who: ['stores'] },
+  {
+    method: 'get',
+    path: '/api/component-lots/:id',
+    who: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  },
+  { method: 'patch', path: '/api/component-lots/:id', who: ['stores'] },
+  { method: 'post', path: '/api/component-lots/:id/status', who: ['stores', 'lead'] },
+  { method: 'put', path: '/api/component-lots/:id/certificate', who: ['stores'] },
+  {
+    method: 'get',
+    path: '/api/component-lots/:id/certificate',
+    who: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  },
+  { method: 'get', path: '/api/component-lots/:id/label.pdf', who: ['stores', 'lead', 'admin'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
@@ -56,7 +107,8 @@ describe('role matrix', () => {
     let layers = 0
     for (const { router } of apiRouters)
       for (const layer of router.stack as { route?: { methods: Record<string, boolean> } }[])
-        if (layer.route) layers += Object.keys(layer.route.methods).filter((m) => m !== '_all').length
+        if (layer.route)
+          layers += Object.keys(layer.route.methods).filter((m) => m !== '_all').length
     expect(layers).toBe(guarded)
   })
 
@@ -70,14 +122,22 @@ describe('role matrix', () => {
       for (const role of [null, ...ROLES] as (Role | null)[]) {
         // Signing out ends the session, so that row gets a client of its own.
         const client =
-          row.path !== '/api/auth/logout' ? (role ? clients.get(role)! : anonymous) : role ? await signedInAs(role) : await freshAnonymous()
+          row.path !== '/api/auth/logout'
+            ? role
+              ? clients.get(role)!
+              : anonymous
+            : role
+              ? await signedInAs(role)
+              : await freshAnonymous()
         const res =
           row.method === 'get'
             ? await client.get(path)
-            : await client.send(row.method as 'post' | 'patch', path, {})
+            : await client.send(row.method as 'post' | 'patch' | 'put' | 'delete', path, {})
         const want = expectedStatusClass(row.who, role)
-        const isOk = want === 'open' ? res.status !== 401 && res.status !== 403 : res.status === want
-        if (!isOk) failures.push(`${key(row)} as ${role ?? 'anonymous'}: got ${res.status}, want ${want}`)
+        const isOk =
+          want === 'open' ? res.status !== 401 && res.status !== 403 : res.status === want
+        if (!isOk)
+          failures.push(`${key(row)} as ${role ?? 'anonymous'}: got ${res.status}, want ${want}`)
       }
     }
     expect(failures).toEqual([])

@@ -14,7 +14,9 @@ describe('stations', () => {
 
   it('lists the demo floor to any signed-in user', async () => {
     const res = await operator.get('/api/stations').expect(200)
-    expect(res.body.map((s: { code: string }) => s.code)).toEqual(expect.arrayContaining(['WND-1', 'HPT-1']))
+    expect(res.body.map((s: { code: string }) => s.code)).toEqual(
+      expect.arrayContaining(['WND-1', 'HPT-1']),
+    )
   })
 
   it('creates a station, upper-cases its code and audits it', async () => {
@@ -42,22 +44,38 @@ describe('stations', () => {
     expect(res.status).toBe(409)
     expect(res.body.fields).toEqual({ code: 'already in use' })
     const list = await admin.get('/api/stations')
-    expect(list.body.filter((s: { code: string }) => s.code === code).map((s: { name: string }) => s.name)).toEqual(['First'])
+    expect(
+      list.body
+        .filter((s: { code: string }) => s.code === code)
+        .map((s: { name: string }) => s.name),
+    ).toEqual(['First'])
   })
 
   it('edits a station and audits the changed fields only', async () => {
-    const created = await admin.post('/api/stations', { code: `E-${uniqueSuffix()}`, name: 'Old', kind: 'other' })
-    const res = await admin.patch(`/api/stations/${created.body.id}`, { name: 'New name', isActive: false })
+    const created = await admin.post('/api/stations', {
+      code: `E-${uniqueSuffix()}`,
+      name: 'Old',
+      kind: 'other',
+    })
+    const res = await admin.patch(`/api/stations/${created.body.id}`, {
+      name: 'New name',
+      isActive: false,
+    })
     expect(res.status).toBe(200)
     expect(res.body).toMatchObject({ name: 'New name', isActive: false, kind: 'other' })
-    const audit = await AuditEvent.findOne({ where: { entity: 'station', entityId: created.body.id, action: 'station.update' } })
+    const audit = await AuditEvent.findOne({
+      where: { entity: 'station', entityId: created.body.id, action: 'station.update' },
+    })
     expect(audit?.before).toMatchObject({ name: 'Old', isActive: true })
     expect(audit?.after).toMatchObject({ name: 'New name', isActive: false })
     expect(Object.keys(audit?.after as object)).not.toContain('code')
   })
 
   it('answers 404 for an unknown station and 400 for a malformed id', async () => {
-    expect((await admin.patch('/api/stations/00000000-0000-4000-8000-000000000000', { name: 'x' })).status).toBe(404)
+    expect(
+      (await admin.patch('/api/stations/00000000-0000-4000-8000-000000000000', { name: 'x' }))
+        .status,
+    ).toBe(404)
     const bad = await admin.patch('/api/stations/not-an-id', { name: 'x' })
     expect(bad.status).toBe(400)
   })

@@ -10,7 +10,12 @@ describe('users', () => {
 
   it('creates a user who can then sign in with the given role', async () => {
     const email = `new-${uniqueSuffix()}@ferncastle.example`.toLowerCase()
-    const res = await admin.post('/api/users', { email, name: 'New Person', role: 'operator', password: 'long-enough-1' })
+    const res = await admin.post('/api/users', {
+      email,
+      name: 'New Person',
+      role: 'operator',
+      password: 'long-enough-1',
+    })
     expect(res.status).toBe(201)
     expect(res.body).toMatchObject({ email, role: 'operator', isActive: true })
     const person = new TestClient()
@@ -18,7 +23,12 @@ describe('users', () => {
   })
 
   it('refuses a short password and a taken e-mail, naming the field', async () => {
-    const short = await admin.post('/api/users', { email: 'x@ferncastle.example', name: 'X', role: 'lead', password: 'short' })
+    const short = await admin.post('/api/users', {
+      email: 'x@ferncastle.example',
+      name: 'X',
+      role: 'lead',
+      password: 'short',
+    })
     expect(short.status).toBe(400)
     expect(short.body.fields.password).toMatch(/at least/)
     const taken = await admin.post('/api/users', {
@@ -31,9 +41,14 @@ describe('users', () => {
     expect(taken.body.fields).toEqual({ email: 'already in use' })
   })
 
-  it('ends a deactivated user\'s session at once', async () => {
+  it("ends a deactivated user's session at once", async () => {
     const email = `leaver-${uniqueSuffix()}@ferncastle.example`.toLowerCase()
-    const created = await admin.post('/api/users', { email, name: 'Leaver', role: 'lead', password: 'long-enough-1' })
+    const created = await admin.post('/api/users', {
+      email,
+      name: 'Leaver',
+      role: 'lead',
+      password: 'long-enough-1',
+    })
     const leaver = new TestClient()
     await leaver.signIn(email, 'long-enough-1')
     await leaver.get('/api/stations').expect(200)
@@ -44,7 +59,12 @@ describe('users', () => {
 
   it('applies a role change on the next request', async () => {
     const email = `mover-${uniqueSuffix()}@ferncastle.example`.toLowerCase()
-    const created = await admin.post('/api/users', { email, name: 'Mover', role: 'operator', password: 'long-enough-1' })
+    const created = await admin.post('/api/users', {
+      email,
+      name: 'Mover',
+      role: 'operator',
+      password: 'long-enough-1',
+    })
     const mover = new TestClient()
     await mover.signIn(email, 'long-enough-1')
     await mover.get('/api/users').expect(403)

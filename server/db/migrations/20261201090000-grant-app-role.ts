@@ -12,13 +12,19 @@ export async function up({ context: { sequelize, appRole } }: { context: Migrati
   await sequelize.query(
     `ALTER DEFAULT PRIVILEGES IN SCHEMA public GRANT SELECT, INSERT, UPDATE, DELETE ON TABLES TO ${role}`,
   )
-  await sequelize.query(`ALTER DEFAULT PRIVILEGES IN SCHEMA public GRANT USAGE, SELECT ON SEQUENCES TO ${role}`)
+  await sequelize.query(
+    `ALTER DEFAULT PRIVILEGES IN SCHEMA public GRANT USAGE, SELECT ON SEQUENCES TO ${role}`,
+  )
 }
 
 export async function down({ context: { sequelize, appRole } }: { context: MigrationContext }) {
   const role = `"${appRole.replace(/"/g, '""')}"`
-  await sequelize.query(`ALTER DEFAULT PRIVILEGES IN SCHEMA public REVOKE ALL ON SEQUENCES FROM ${role}`)
-  await sequelize.query(`ALTER DEFAULT PRIVILEGES IN SCHEMA public REVOKE ALL ON TABLES FROM ${role}`)
+  await sequelize.query(
+    `ALTER DEFAULT PRIVILEGES IN SCHEMA public REVOKE ALL ON SEQUENCES FROM ${role}`,
+  )
+  await sequelize.query(
+    `ALTER DEFAULT PRIVILEGES IN SCHEMA public REVOKE ALL ON TABLES FROM ${role}`,
+  )
   await sequelize.query(
     `DO $$ BEGIN EXECUTE format('REVOKE TEMPORARY ON DATABASE %I FROM ${role}', current_database()); END $$`,
   )

@@ -11,7 +11,9 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
   // Serves the sweep of expired sessions (workers/maintenance.ts).
   await sequelize.query('CREATE INDEX sessions_expire_idx ON sessions (expire)')
   // Serves "end every session of this user" when an admin deactivates an account.
-  await sequelize.query(`CREATE INDEX sessions_user_idx ON sessions ((sess -> 'passport' ->> 'user'))`)
+  await sequelize.query(
+    `CREATE INDEX sessions_user_idx ON sessions ((sess -> 'passport' ->> 'user'))`,
+  )
 }
 
 export async function down({ context: { sequelize } }: { context: MigrationContext }) {

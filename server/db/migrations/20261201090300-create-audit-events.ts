@@ -19,7 +19,9 @@ export async function up({ context: { sequelize, appRole } }: { context: Migrati
       request_id varchar(64) NULL
     )`)
   // Serves the Admin audit screen (newest first, filtered by entity) and per-record history.
-  await sequelize.query('CREATE INDEX audit_events_entity_idx ON audit_events (entity, entity_id, at DESC)')
+  await sequelize.query(
+    'CREATE INDEX audit_events_entity_idx ON audit_events (entity, entity_id, at DESC)',
+  )
   await sequelize.query('CREATE INDEX audit_events_at_idx ON audit_events (at DESC)')
   await sequelize.query(`
     CREATE FUNCTION audit_events_refuse_change() RETURNS trigger LANGUAGE plpgsql AS $$

@@ -1,17 +1,15 @@
 import { db, Station, User } from '../../models'
-import { hashPassword } from '../../services/passwords'
 import { recordAudit } from '../../services/audit'
+import type { Actor } from '../../services/audit'
+import { hashPassword } from '../../services/passwords'
 import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
+import { loadDemoRecipes } from './loadRecipes'
 
-const SEED_ACTOR = { id: null, email: 'seed@waymark', ip: null, requestId: null }
+/** The actor the audit log names for demo rows. */
+export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, requestId: null }
 
-/**
- * Loads the invented Ferncastle Power scenario (DESIGN.md §10). Idempotent: users and stations
- * that exist already are left as they are. Returns false when `onlyIfEmpty` found users.
- */
-export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promise<boolean> {
-  if (onlyIfEmpty && (await User.count()) > 0) return false
+async function loadPeopleAndFloor(): Promise<void> {
   const passwordHash = await hashPassword(DEMO_PASSWORD)
   await db().transaction(async (transaction) => {
     for (const u of DEMO_USERS) {
@@ -20,12 +18,38 @@ export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promi
         defaults: { ...u, passwordHash, lastSignInAt: null },
         transaction,
       })
-      if (isNew) await recordAudit(SEED_ACTOR, { action: 'user.create', entity: 'user', entityId: user.id, after: u }, transaction)
+      if (isNew)
+        await recordAudit(
+          SEED_ACTOR,
+          { action: 'user.create', entity: 'user', entityId: user.id, after: u },
+          transaction,
+        )
     }
     for (const s of DEMO_STATIONS) {
-      const [station, isNew] = await Station.findOrCreate({ where: { code: s.code }, defaults: s, transaction })
-      if (isNew) await recordAudit(SEED_ACTOR, { action: 'station.create', entity: 'station', entityId: station.id, after: s }, transaction)
+      const [station, isNew] = await Station.findOrCreate({
+        where: { code: s.code },
+        defaults: s,
+        transaction,
+      })
+      if (isNew)
+        await recordAudit(
+          SEED_ACTOR,
+          { action: 'station.create', entity: 'station', entityId: station.id, after: s },
+          transaction,
+        )
     }
   })
+}
+
+/**
+ * Loads the invented Ferncastle Power scenario (DESIGN.md §10). Each part is skipped when its
+ * rows exist already, so running it twice changes nothing. Returns false when `onlyIfEmpty`
+ * found users.
+ */
+export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promise<boolean> {
+  db()
+  if (onlyIfEmpty && (await User.count()) > 0) return false
+  await loadPeopleAndFloor()
+  await loadDemoRecipes(SEED_ACTOR)
   return true
 }

@@ -58,7 +58,8 @@ export class TestClient {
 export async function signedInAs(role: string): Promise<TestClient> {
   const client = new TestClient()
   const res = await client.signIn(`${role}@ferncastle.example`)
-  if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`)
+  if (res.status !== 200)
+    throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`)
   return client
 }
 

@@ -1,0 +1,56 @@
+import { DataTypes, Model } from 'sequelize'
+import type {
+  CreationOptional,
+  InferAttributes,
+  InferCreationAttributes,
+  NonAttribute,
+  Sequelize,
+} from 'sequelize'
+import { REVISION_STATUSES } from '../../shared/recipes/definitions'
+import type { RevisionStatus } from '../../shared/recipes/definitions'
+import type { BomLine } from './BomLine'
+import type { Product } from './Product'
+import type { RouteStep } from './RouteStep'
+import type { Winding } from './Winding'
+
+export class Revision extends Model<InferAttributes<Revision>, InferCreationAttributes<Revision>> {
+  declare id: CreationOptional<string>
+  declare productId: string
+  declare letter: string
+  declare status: CreationOptional<RevisionStatus>
+  declare notes: CreationOptional<string>
+  declare fpyThresholdPercent: CreationOptional<number>
+  declare copiedFromId: string | null
+  declare releasedAt: Date | null
+  declare releasedBy: string | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  // associations
+  declare product?: NonAttribute<Product>
+  declare windings?: NonAttribute<Winding[]>
+  declare steps?: NonAttribute<RouteStep[]>
+  declare bomLines?: NonAttribute<BomLine[]>
+}
+
+export function initRevision(sequelize: Sequelize): void {
+  Revision.init(
+    {
+      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      productId: { type: DataTypes.UUID, allowNull: false },
+      letter: { type: DataTypes.STRING(3), allowNull: false },
+      status: {
+        type: DataTypes.ENUM(...REVISION_STATUSES),
+        allowNull: false,
+        defaultValue: 'draft',
+      },
+      notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+      fpyThresholdPercent: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90 },
+      copiedFromId: { type: DataTypes.UUID, allowNull: true },
+      releasedAt: { type: DataTypes.DATE, allowNull: true },
+      releasedBy: { type: DataTypes.UUID, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { sequelize, tableName: 'revisions', underscored: true },
+  )
+}

@@ -1,0 +1,100 @@
+import multer from 'multer'
+import { IdParam } from '../../shared/schemas/common'
+import {
+  ComponentLotCreateInput,
+  ComponentLotQuery,
+  ComponentLotStatusInput,
+  ComponentLotUpdateInput,
+} from '../../shared/schemas/receiving'
+import { PERMISSIONS } from '../../shared/permissions'
+import { componentLotLabelPdf } from '../documents/componentLotLabel'
+import { env } from '../env'
+import { AppError } from '../errors'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import {
+  attachCertificate,
+  certificateOf,
+  getComponentLot,
+  listComponentLots,
+  receiveComponentLot,
+  setComponentLotStatus,
+  updateComponentLot,
+} from '../services/componentLots'
+import { CERTIFICATE_MAX_BYTES } from '../services/uploads'
+import { getFile } from '../storage'
+import { apiRoutes } from './registry'
+
+export const componentLotRoutes = apiRoutes('/component-lots')
+const id = (p: { id?: string }) => parse(IdParam, p.id)
+
+// Held in memory: the file goes to the object store, never to this process's disk.
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },
+}).single('file')
+
+componentLotRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
+  res.json(await listComponentLots(parse(ComponentLotQuery, req.query)))
+})
+
+componentLotRoutes.post('/', PERMISSIONS.editComponentLots, async (req, res) => {
+  res
+    .status(201)
+    .json(await receiveComponentLot(parse(ComponentLotCreateInput, req.body), actorOf(req)))
+})
+
+componentLotRoutes.get('/:id', PERMISSIONS.readComponentLots, async (req, res) => {
+  res.json(await getComponentLot(id(req.params)))
+})
+
+componentLotRoutes.patch('/:id', PERMISSIONS.editComponentLots, async (req, res) => {
+  res.json(
+    await updateComponentLot(
+      id(req.params),
+      parse(ComponentLotUpdateInput, req.body),
+      actorOf(req),
+    ),
+  )
+})
+
+componentLotRoutes.post('/:id/status', PERMISSIONS.setComponentLotStatus, async (req, res) => {
+  res.json(
+    await setComponentLotStatus(
+      id(req.params),
+      parse(ComponentLotStatusInput, req.body),
+      actorOf(req),
+    ),
+  )
+})
+
+componentLotRoutes.put(
+  '/:id/certificate',
+  PERMISSIONS.editComponentLots,
+  upload,
+  async (req, res) => {
+    if (!req.file)
+      throw AppError.badRequest('file: attach the certificate as the form field "file"', {
+        file: 'attach a file',
+      })
+    res.json(await attachCertificate(id(req.params), req.file, actorOf(req)))
+  },
+)
+
+componentLotRoutes.get('/:id/certificate', PERMISSIONS.readComponentLots, async (req, res) => {
+  const cert = await certificateOf(id(req.params))
+  const file = await getFile(cert.storageKey)
+  res.type(cert.contentType)
+  res.setHeader(
+    'Content-Disposition',
+    `inline; filename="${cert.filename.replace(/["\\\r\n]/g, '_')}"`,
+  )
+  res.send(file.body)
+})
+
+componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req, res) => {
+  const lot = await getComponentLot(id(req.params))
+  res.type('application/pdf')
+  res.setHeader('Content-Disposition', `inline; filename="label-${lot.internalCode}.pdf"`)
+  res.send(await componentLotLabelPdf(lot, env.publicBaseUrl))
+})

@@ -1,0 +1,33 @@
+import { IdParam } from '../../shared/schemas/common'
+import { ProductCreateInput, ProductUpdateInput } from '../../shared/schemas/recipes'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import { createProduct, listProducts, updateProduct } from '../services/products'
+import { createRevision } from '../services/revisions'
+import { apiRoutes } from './registry'
+
+export const productRoutes = apiRoutes('/products')
+const edit = PERMISSIONS.editRecipes
+
+productRoutes.get('/', 'signed_in', async (_req, res) => {
+  res.json(await listProducts())
+})
+
+productRoutes.post('/', edit, async (req, res) => {
+  res.status(201).json(await createProduct(parse(ProductCreateInput, req.body), actorOf(req)))
+})
+
+productRoutes.patch('/:id', edit, async (req, res) => {
+  res.json(
+    await updateProduct(
+      parse(IdParam, req.params.id),
+      parse(ProductUpdateInput, req.body),
+      actorOf(req),
+    ),
+  )
+})
+
+productRoutes.post('/:id/revisions', edit, async (req, res) => {
+  res.status(201).json(await createRevision(parse(IdParam, req.params.id), actorOf(req)))
+})

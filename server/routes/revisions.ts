@@ -1,0 +1,83 @@
+import { IdParam } from '../../shared/schemas/common'
+import {
+  BomLineInput,
+  RevisionUpdateInput,
+  StepInput,
+  StepOrderInput,
+  WindingInput,
+} from '../../shared/schemas/recipes'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import { createBomLine, listBom } from '../services/bom'
+import {
+  copyRevision,
+  deleteRevision,
+  getRevision,
+  obsoleteRevision,
+  releaseCheck,
+  releaseRevision,
+  updateRevision,
+} from '../services/revisions'
+import { createStep, reorderSteps } from '../services/routeSteps'
+import { createWinding } from '../services/windings'
+import { apiRoutes } from './registry'
+
+export const revisionRoutes = apiRoutes('/revisions')
+const edit = PERMISSIONS.editRecipes
+const id = (p: { id?: string }) => parse(IdParam, p.id)
+
+revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
+  res.json(await getRevision(id(req.params)))
+})
+
+revisionRoutes.patch('/:id', edit, async (req, res) => {
+  res.json(await updateRevision(id(req.params), parse(RevisionUpdateInput, req.body), actorOf(req)))
+})
+
+revisionRoutes.delete('/:id', edit, async (req, res) => {
+  await deleteRevision(id(req.params), actorOf(req))
+  res.status(204).end()
+})
+
+revisionRoutes.get('/:id/release-check', PERMISSIONS.readReleaseCheck, async (req, res) => {
+  res.json(await releaseCheck(id(req.params)))
+})
+
+revisionRoutes.post('/:id/release', edit, async (req, res) => {
+  res.json(await releaseRevision(id(req.params), actorOf(req)))
+})
+
+revisionRoutes.post('/:id/obsolete', edit, async (req, res) => {
+  res.json(await obsoleteRevision(id(req.params), actorOf(req)))
+})
+
+revisionRoutes.post('/:id/copy', edit, async (req, res) => {
+  res.status(201).json(await copyRevision(id(req.params), actorOf(req)))
+})
+
+revisionRoutes.post('/:id/windings', edit, async (req, res) => {
+  res
+    .status(201)
+    .json(await createWinding(id(req.params), parse(WindingInput, req.body), actorOf(req)))
+})
+
+revisionRoutes.post('/:id/steps', edit, async (req, res) => {
+  res.status(201).json(await createStep(id(req.params), parse(StepInput, req.body), actorOf(req)))
+})
+
+revisionRoutes.put('/:id/steps/order', edit, async (req, res) => {
+  res.json(
+    await reorderSteps(id(req.params), parse(StepOrderInput, req.body).stepIds, actorOf(req)),
+  )
+})
+
+revisionRoutes.get('/:id/bom', 'signed_in', async (req, res) => {
+  res.json(await listBom(id(req.params)))
+})
+
+revisionRoutes.post('/:id/bom', edit, async (req, res) => {
+  res
+    .status(201)
+    .json(await createBomLine(id(req.params), parse(BomLineInput, req.body), actorOf(req)))
+})

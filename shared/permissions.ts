@@ -1,0 +1,24 @@
+import type { Role } from './roles'
+
+/**
+ * Who may do what, in one place: the server's route guards and the client's edit buttons both
+ * read these lists, so a screen never offers what the API will refuse.
+ */
+export const PERMISSIONS = {
+  editRecipes: ['engineer'],
+  readReleaseCheck: ['engineer', 'lead', 'admin'],
+  readParts: ['engineer', 'stores', 'lead', 'admin'],
+  editParts: ['engineer', 'stores'],
+  editDefectCodes: ['engineer'],
+  readComponentLots: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  editComponentLots: ['stores'],
+  setComponentLotStatus: ['stores', 'lead'],
+  printLotLabels: ['stores', 'lead', 'admin'],
+} as const satisfies Record<string, readonly Role[]>
+
+export type Permission = keyof typeof PERMISSIONS
+
+/** Whether a role holds a permission. */
+export function can(role: Role | undefined, permission: Permission): boolean {
+  return role !== undefined && (PERMISSIONS[permission] as readonly Role[]).includes(role)
+}

@@ -1,0 +1,45 @@
+import type { RevisionDto } from '../schemas/recipes'
+import { UNITS } from '../units'
+import type { Unit } from '../units'
+import { DERIVED_FORMULAS } from './definitions'
+
+/**
+ * What stops a revision from being released, in words an engineer can act on; empty when it is
+ * complete. Derived checks may read only checks of their own step, which the Floor has at hand.
+ */
+export function releaseProblems(rev: Pick<RevisionDto, 'steps' | 'bom' | 'windings'>): string[] {
+  const problems: string[] = []
+  if (rev.steps.length === 0) problems.push('the route has no steps')
+  const stepIds = new Set(rev.steps.map((s) => s.id))
+  for (const step of rev.steps) {
+    const byKey = new Map(step.checks.map((c) => [c.key, c]))
+    for (const c of step.checks) {
+      const where = `step ${step.position} "${step.name}", check ${c.key}`
+      if (c.kind === 'numeric' && !c.unit) problems.push(`${where}: choose a unit`)
+      if (c.kind === 'numeric' && c.lower === null && c.upper === null)
+        problems.push(`${where}: give at least one limit`)
+      if (!c.derived) continue
+      const formula = DERIVED_FORMULAS[c.derived]
+      if (c.unit && UNITS[c.unit as Unit].quantity !== formula.quantity)
+        problems.push(`${where}: the unit ${c.unit} does not fit ${formula.label.toLowerCase()}`)
+      for (const input of formula.inputs) {
+        const ref = c.derivedInputs?.[input.name]
+        if (input.source === 'winding') {
+          if (!rev.windings.some((w) => w.id === ref))
+            problems.push(`${where}: choose the winding for "${input.label}"`)
+          continue
+        }
+        const source = ref ? byKey.get(ref) : undefined
+        if (!source || source.derived)
+          problems.push(`${where}: choose a typed check of this step for "${input.label}"`)
+        else if (!source.unit || UNITS[source.unit as Unit].quantity !== input.quantity)
+          problems.push(`${where}: "${input.label}" must be a ${input.quantity} check`)
+      }
+    }
+  }
+  for (const line of rev.bom) {
+    if (!line.fittedAtStepId || !stepIds.has(line.fittedAtStepId))
+      problems.push(`bill of materials, ${line.partNumber}: choose the step where it is fitted`)
+  }
+  return problems
+}

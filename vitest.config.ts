@@ -1,0 +1,64 @@
+import { fileURLToPath } from 'node:url'
+import vue from '@vitejs/plugin-vue'
+import { ElementPlusResolver } from 'unplugin-vue-components/resolvers'
+import Components from 'unplugin-vue-components/vite'
+import { defineConfig } from 'vitest/config'
+
+const fromRoot = (path: string) => fileURLToPath(new URL(path, import.meta.url))
+
+// Four projects; scripts/test.ts runs them as phases (unit = unit + unit-dom, then api, e2e).
+// vitest 4 has no environmentMatchGlobs, so component tests get their own project.
+export default defineConfig({
+  plugins: [
+    vue(),
+    // Same on-demand Element Plus registration as the app, so mounted views resolve <el-*>.
+    Components({ dts: false, resolvers: [ElementPlusResolver({ importStyle: false })] }),
+  ],
+  resolve: {
+    alias: { '@': fromRoot('./src'), '@shared': fromRoot('./shared') },
+  },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          exclude: ['tests/unit/src/**'],
+          environment: 'node',
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'unit-dom',
+          include: ['tests/unit/src/**/*.test.ts'],
+          environment: 'happy-dom',
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'api',
+          include: ['tests/api/**/*.test.ts'],
+          environment: 'node',
+          // One real database: files run one after another.
+          fileParallelism: false,
+          testTimeout: 20000,
+          hookTimeout: 20000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 60000,
+          hookTimeout: 60000,
+        },
+      },
+    ],
+  },
+})
