@@ -1,0 +1,83 @@
+import { createRouter, createWebHistory } from 'vue-router'
+import type { RouteLocationRaw } from 'vue-router'
+import { AREAS } from '@shared/areas'
+import type { Role } from '@shared/roles'
+import { onUnauthenticated } from '@/api/client'
+import { useSessionStore } from '@/stores/session'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Roles that may open the route; absent means any signed-in user. */
+    roles?: readonly Role[]
+    /** Open without signing in, shown without the app shell. */
+    isPublic?: boolean
+  }
+}
+
+/** Access comes from shared/areas.ts, so the navigation and the guard cannot disagree. */
+function rolesOf(areaKey: string): readonly Role[] {
+  return AREAS.find((a) => a.key === areaKey)?.roles ?? []
+}
+
+export const router = createRouter({
+  history: createWebHistory(),
+  routes: [
+    {
+      path: '/signin',
+      name: 'signin',
+      meta: { isPublic: true },
+      component: () => import('@/views/Auth/SignInView.vue'),
+    },
+    { path: '/', name: 'home', component: () => import('@/views/HomeView.vue') },
+    {
+      path: '/admin/stations',
+      name: 'stations',
+      meta: { roles: rolesOf('stations') },
+      component: () => import('@/views/Admin/StationsView.vue'),
+    },
+    {
+      path: '/admin/users',
+      name: 'users',
+      meta: { roles: rolesOf('users') },
+      component: () => import('@/views/Admin/UsersView.vue'),
+    },
+    {
+      path: '/admin/audit',
+      name: 'audit',
+      meta: { roles: rolesOf('audit') },
+      component: () => import('@/views/Admin/AuditView.vue'),
+    },
+    {
+      path: '/:pathMatch(.*)*',
+      name: 'not-found',
+      component: () => import('@/views/NotFoundView.vue'),
+    },
+  ],
+})
+
+router.beforeEach(async (to): Promise<true | RouteLocationRaw> => {
+  const session = useSessionStore()
+  if (!session.isKnown) {
+    // NOTE: a failed lookup (server down) leaves the session unknown, so the next
+    // navigation asks again; meanwhile the sign-in page is the only useful screen.
+    await session.load().catch(() => undefined)
+  }
+  if (to.meta.isPublic) return to.name === 'signin' && session.user ? { name: 'home' } : true
+  if (!session.user) {
+    return { name: 'signin', query: to.fullPath === '/' ? {} : { next: to.fullPath } }
+  }
+  if (to.meta.roles && !to.meta.roles.includes(session.user.role)) return { name: 'home' }
+  const firstArea = session.areas[0]
+  if (to.name === 'home' && firstArea) return firstArea.path
+  return true
+})
+
+// A session can end under an open screen (expiry, an admin deactivating the account):
+// forget the user and send them to sign in, coming back here afterwards.
+onUnauthenticated(() => {
+  const session = useSessionStore()
+  if (!session.user) return
+  session.user = null
+  const here = router.currentRoute.value
+  if (!here.meta.isPublic) void router.replace({ name: 'signin', query: { next: here.fullPath } })
+})
