@@ -16,6 +16,8 @@ export class ApiError extends Error {
     message: string,
     /** Field name to message, when the server names the fields at fault. */
     readonly fields: Record<string, string> = {},
+    /** A list of problems, e.g. what stops a revision from being released. */
+    readonly details: string[] = [],
   ) {
     super(message)
   }
@@ -57,6 +59,7 @@ async function toApiError(response: Response): Promise<ApiError> {
     body?.error ?? `http_${response.status}`,
     body?.message ?? (response.statusText || `Request failed (${response.status})`),
     body?.fields ?? {},
+    body?.details ?? [],
   )
 }
 
@@ -64,7 +67,8 @@ async function send(path: string, init: RequestInit): Promise<Response> {
   const method = (init.method ?? 'GET').toUpperCase()
   const headers = new Headers(init.headers)
   headers.set('Accept', 'application/json')
-  if (init.body !== undefined && !headers.has('Content-Type'))
+  // A FormData body (a file upload) sets its own multipart content type with the boundary.
+  if (init.body !== undefined && !(init.body instanceof FormData) && !headers.has('Content-Type'))
     headers.set('Content-Type', 'application/json')
   if (UNSAFE_METHODS.has(method)) headers.set('X-CSRF-Token', await ensureCsrfToken())
   try {

@@ -1,0 +1,9 @@
+import type { ComponentLotStatus } from '@shared/recipes/definitions'
+
+/** Human labels for component lot statuses. */
+export const LOT_STATUS_LABELS: Record<ComponentLotStatus, string> = {
+  available: 'Available',
+  quarantined: 'Quarantined',
+  used_up: 'Used up',
+  rejected: 'Rejected',
+}

@@ -1,0 +1,34 @@
+import { reactive, ref, shallowRef } from 'vue'
+import { useSubmit } from './useSubmit'
+
+/**
+ * State of one create/edit dialog: what it edits, whether it is open, and its save.
+ * Returned reactive, so a template reads `winding.isOpen` without `.value`.
+ * @param save stores the input; `target` is null when creating
+ * @param success the message after saving, e.g. "Winding added"; it also gets the input
+ * @param onError called after a refusal was shown, e.g. to reload a frozen revision
+ */
+export function useEditDialog<T, I>(
+  save: (target: T | null, input: I) => Promise<unknown>,
+  success: (target: T | null, input: I) => string,
+  onError?: (error: unknown) => void,
+) {
+  const isOpen = ref(false)
+  /** The record being edited, or null for a new one. */
+  const target = shallowRef<T | null>(null)
+  const { isSaving, fieldErrors, clearFieldErrors, run } = useSubmit()
+
+  function open(next: T | null) {
+    target.value = next
+    clearFieldErrors()
+    isOpen.value = true
+  }
+
+  async function submit(input: I) {
+    const current = target.value
+    if (await run(() => save(current, input), success(current, input), onError))
+      isOpen.value = false
+  }
+
+  return reactive({ isOpen, target, isSaving, fieldErrors, open, submit })
+}

@@ -1,0 +1,99 @@
+import { defineStore } from 'pinia'
+import { reactive, ref } from 'vue'
+import type { ComponentLotStatus } from '@shared/recipes/definitions'
+import type {
+  COMPONENT_LOT_SORTS,
+  ComponentLotCreateInput,
+  ComponentLotDto,
+  ComponentLotStatusInput,
+  ComponentLotUpdateInput,
+} from '@shared/schemas/receiving'
+import { componentLotsApi } from '@/api/componentLots'
+
+export type ComponentLotSort = (typeof COMPONENT_LOT_SORTS)[number]
+
+/** Filters of the receiving list; empty strings mean "any". */
+export interface ComponentLotFilters {
+  q: string
+  partId: string
+  status: ComponentLotStatus | ''
+}
+
+/** Component lots as received by stores, paged, sorted and filtered on the server. */
+export const useComponentLotsStore = defineStore('componentLots', () => {
+  /** Lots of the current page. */
+  const rows = ref<ComponentLotDto[]>([])
+  /** Lots matching the filters, over all pages. */
+  const total = ref(0)
+  const page = ref(1)
+  const pageSize = ref(25)
+  const sort = ref<ComponentLotSort>('receivedOn')
+  const order = ref<'asc' | 'desc'>('desc')
+  const filters = reactive<ComponentLotFilters>({ q: '', partId: '', status: '' })
+  /** True while a page is being fetched. */
+  const isLoading = ref(false)
+
+  /** Fetches the current page with the current filters and sort; throws ApiError. */
+  async function fetchPage() {
+    isLoading.value = true
+    try {
+      const result = await componentLotsApi.list({
+        page: page.value,
+        pageSize: pageSize.value,
+        sort: sort.value,
+        order: order.value,
+        q: filters.q.trim() || undefined,
+        partId: filters.partId || undefined,
+        status: filters.status || undefined,
+      })
+      rows.value = result.rows
+      total.value = result.total
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Applies changed filters or sort from the first page. */
+  async function search() {
+    page.value = 1
+    await fetchPage()
+  }
+
+  function put(lot: ComponentLotDto) {
+    rows.value = rows.value.map((l) => (l.id === lot.id ? lot : l))
+    return lot
+  }
+
+  /** Receives a lot and shows the list again, so the new lot appears where the sort puts it. */
+  async function create(input: ComponentLotCreateInput) {
+    const lot = await componentLotsApi.create(input)
+    await fetchPage()
+    return lot
+  }
+
+  const update = async (id: string, input: ComponentLotUpdateInput) =>
+    put(await componentLotsApi.update(id, input))
+  const setStatus = async (id: string, input: ComponentLotStatusInput) =>
+    put(await componentLotsApi.setStatus(id, input))
+  const uploadCertificate = async (id: string, file: File) =>
+    put(await componentLotsApi.uploadCertificate(id, file))
+
+  return {
+    rows,
+    total,
+    page,
+    pageSize,
+    sort,
+    order,
+    filters,
+    isLoading,
+    fetchPage,
+    search,
+    create,
+    update,
+    setStatus,
+    uploadCertificate,
+    certificateUrl: componentLotsApi.certificateUrl,
+    labelUrl: componentLotsApi.labelUrl,
+  }
+})
