@@ -41,8 +41,9 @@ export default defineConfig({
     rolldownOptions: {
       output: {
         // Views are lazy routes already; this splits the shared vendor code so no single
-        // chunk carries the framework, the UI kit and zod together. maxSize (measured before
-        // minification) keeps the UI kit in several pieces as later screens use more of it.
+        // chunk carries the framework, the UI kit and zod together. The UI kit stays one chunk:
+        // splitting it by size made its pieces import each other in a circle, and message
+        // boxes then rendered their buttons as bare tags.
         codeSplitting: {
           groups: [
             {
@@ -55,7 +56,6 @@ export default defineConfig({
               name: 'element-plus',
               test: /node_modules[\\/](element-plus|@element-plus|@floating-ui|@popperjs|@vueuse|lodash-es|lodash-unified|dayjs|async-validator|memoize-one|normalize-wheel-es|@ctrl)[\\/]/,
               priority: 10,
-              maxSize: 450 * 1024,
             },
           ],
         },

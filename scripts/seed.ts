@@ -2,6 +2,7 @@ import { parseArgs } from 'node:util'
 import { loadDemo } from '../server/db/seed/demo'
 import { env } from '../server/env'
 import { closeDb } from '../server/models'
+import { closeDocumentsQueue } from '../server/queues/documents'
 
 const HELP = `Usage: tsx scripts/seed.ts [--if-empty]
 
@@ -22,5 +23,7 @@ try {
     `seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`,
   )
 } finally {
-  await closeDb()
+  await Promise.all([closeDb(), closeDocumentsQueue()])
 }
+// Nothing else should be left open, but a seed must never hang the start or test run.
+process.exit(0)

@@ -5,6 +5,7 @@ import { logger } from './logger'
 import { closeSessionPool } from './middleware/session'
 import { closeDb } from './models'
 import { closeRedis } from './redis'
+import { closeDocumentsQueue } from './queues/documents'
 import { DEMO_PASSWORD, DEMO_USERS } from './db/seed/demoUsers'
 import { startWorkers } from '../workers'
 
@@ -35,7 +36,7 @@ async function main(): Promise<void> {
     server.close()
     server.closeAllConnections()
     await workers?.close()
-    await Promise.allSettled([closeDb(), closeSessionPool(), closeRedis()])
+    await Promise.allSettled([closeDb(), closeSessionPool(), closeRedis(), closeDocumentsQueue()])
     process.exit(0)
   }
   process.on('SIGINT', () => void stop('SIGINT'))

@@ -14,6 +14,20 @@ export interface AreaDefinition {
  */
 export const AREAS: readonly AreaDefinition[] = [
   {
+    key: 'floor',
+    label: 'Floor',
+    path: '/floor',
+    roles: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  { key: 'lots', label: 'Lots', path: '/lots', roles: ['lead', 'engineer', 'admin', 'service'] },
+  { key: 'recipes', label: 'Recipes', path: '/recipes', roles: ['engineer', 'lead', 'admin'] },
+  {
+    key: 'receiving',
+    label: 'Receiving',
+    path: '/receiving',
+    roles: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  },
+  {
     key: 'stations',
     label: 'Stations',
     path: '/admin/stations',

@@ -14,6 +14,12 @@ export const PERMISSIONS = {
   editComponentLots: ['stores'],
   setComponentLotStatus: ['stores', 'lead'],
   printLotLabels: ['stores', 'lead', 'admin'],
+  readLots: ['lead', 'engineer', 'admin', 'service'],
+  editLots: ['lead'],
+  useFloor: ['operator', 'lead', 'engineer', 'admin'],
+  recordStepRuns: ['operator', 'lead', 'engineer'],
+  readNonconformances: ['lead', 'engineer', 'admin', 'service'],
+  disposeNonconformances: ['lead', 'engineer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

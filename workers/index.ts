@@ -1,20 +1,25 @@
 import { fileURLToPath } from 'node:url'
 import type { Worker } from 'bullmq'
 import { logger } from '../server/logger'
+import { closeDocumentsQueue } from '../server/queues/documents'
 import { newQueueConnection } from '../server/redis'
+import { startDocumentsWorker } from './documents'
 import { scheduleMaintenance, startMaintenanceWorker } from './maintenance'
 
 /** Starts every queue's worker on one fresh Redis connection; `close()` drains them. */
 export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   const connection = newQueueConnection()
   await scheduleMaintenance(connection)
-  const workers: Worker[] = [startMaintenanceWorker(connection)]
+  const documents = startDocumentsWorker(connection)
+  const workers: Worker[] = [startMaintenanceWorker(connection), documents.worker]
   for (const w of workers)
     w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
   logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
   return {
     close: async () => {
+      documents.stop()
       await Promise.all(workers.map((w) => w.close()))
+      await closeDocumentsQueue()
       await connection.quit()
     },
   }

@@ -14,6 +14,13 @@ import { initStation, Station } from './Station'
 import { initUpload, Upload } from './Upload'
 import { initUser, User } from './User'
 import { initWinding, Winding } from './Winding'
+import { initLot, Lot } from './Lot'
+import { initUnit, Unit } from './Unit'
+import { initStepRun, StepRun } from './StepRun'
+import { initMeasurement, Measurement } from './Measurement'
+import { Consumption, initConsumption } from './Consumption'
+import { initNonconformance, Nonconformance } from './Nonconformance'
+import { Document, initDocument } from './Document'
 
 export {
   AuditEvent,
@@ -30,6 +37,7 @@ export {
   User,
   Winding,
 }
+export { Consumption, Document, Lot, Measurement, Nonconformance, StepRun, Unit }
 
 let instance: Sequelize | undefined
 
@@ -44,6 +52,9 @@ function associate(): void {
   BomLine.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
   ComponentLot.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
   ComponentLot.belongsTo(Upload, { as: 'certificate', foreignKey: 'certificateUploadId' })
+  Lot.belongsTo(Revision, { as: 'revision', foreignKey: 'revisionId' })
+  Unit.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' })
+  Unit.belongsTo(RouteStep, { as: 'currentStep', foreignKey: 'currentStepId' })
 }
 
 /** The app's Sequelize instance (connected as the app's own, non-owner role), made on first use. */
@@ -69,6 +80,13 @@ export function db(): Sequelize {
     initDefectCode,
     initUpload,
     initComponentLot,
+    initLot,
+    initUnit,
+    initStepRun,
+    initMeasurement,
+    initConsumption,
+    initNonconformance,
+    initDocument,
   ])
     init(instance)
   associate()

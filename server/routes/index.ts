@@ -10,6 +10,10 @@ import { apiRouters } from './registry'
 import { revisionRoutes } from './revisions'
 import { stationRoutes } from './stations'
 import { userRoutes } from './users'
+import { lotRoutes } from './lots'
+import { floorRoutes, stepRunRoutes } from './floor'
+import { nonconformanceRoutes } from './nonconformances'
+import { documentRoutes } from './documents'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -30,6 +34,8 @@ void [
   defectCodeRoutes,
   componentLotRoutes,
 ]
+
+void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

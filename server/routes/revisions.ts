@@ -7,7 +7,8 @@ import {
   WindingInput,
 } from '../../shared/schemas/recipes'
 import { PERMISSIONS } from '../../shared/permissions'
-import { actorOf } from '../middleware/access'
+import { AppError } from '../errors'
+import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { createBomLine, listBom } from '../services/bom'
 import {
@@ -28,7 +29,14 @@ const edit = PERMISSIONS.editRecipes
 const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
-  res.json(await getRevision(id(req.params)))
+  const rev = await getRevision(id(req.params))
+  // Operators, stores and service see what is built: released (or retired) revisions only.
+  if (
+    rev.status === 'draft' &&
+    !PERMISSIONS.readReleaseCheck.includes(signedInUser(req).role as never)
+  )
+    throw AppError.notFound(`revision ${rev.id}`)
+  res.json(rev)
 })
 
 revisionRoutes.patch('/:id', edit, async (req, res) => {

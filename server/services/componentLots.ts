@@ -91,8 +91,9 @@ export async function listComponentLots(q: ComponentLotQuery): Promise<PageDto<C
   const { rows, count } = await ComponentLot.findAndCountAll({
     where,
     include: INCLUDE,
+    // Lots without an expiry date sort after those with one, whichever way the column runs.
     order: [
-      [q.sort, q.order.toUpperCase()],
+      [q.sort, `${q.order.toUpperCase()} NULLS LAST`],
       ['internalCode', 'DESC'],
     ],
     limit: q.pageSize,

@@ -1,6 +1,7 @@
 import { createRouter, createWebHistory } from 'vue-router'
 import type { RouteLocationRaw } from 'vue-router'
 import { AREAS } from '@shared/areas'
+import { PERMISSIONS } from '@shared/permissions'
 import type { Role } from '@shared/roles'
 import { onUnauthenticated } from '@/api/client'
 import { useSessionStore } from '@/stores/session'
@@ -11,6 +12,8 @@ declare module 'vue-router' {
     roles?: readonly Role[]
     /** Open without signing in, shown without the app shell. */
     isPublic?: boolean
+    /** Signed in, but drawn without the app shell (the Floor brings its own bar). */
+    isBare?: boolean
   }
 }
 
@@ -29,6 +32,63 @@ export const router = createRouter({
       component: () => import('@/views/Auth/SignInView.vue'),
     },
     { path: '/', name: 'home', component: () => import('@/views/HomeView.vue') },
+    {
+      path: '/floor',
+      name: 'floor-pick',
+      meta: { roles: rolesOf('floor') },
+      component: () => import('@/views/Floor/FloorPickView.vue'),
+    },
+    {
+      path: '/floor/:stationCode',
+      name: 'floor',
+      props: true,
+      meta: { roles: rolesOf('floor'), isBare: true },
+      component: () => import('@/views/Floor/FloorView.vue'),
+    },
+    {
+      path: '/lots',
+      name: 'lots',
+      meta: { roles: rolesOf('lots') },
+      component: () => import('@/views/Lots/LotsView.vue'),
+    },
+    {
+      path: '/lots/:id',
+      name: 'lot',
+      props: true,
+      meta: { roles: rolesOf('lots') },
+      component: () => import('@/views/Lots/LotView.vue'),
+    },
+    {
+      path: '/recipes',
+      name: 'recipes',
+      meta: { roles: rolesOf('recipes') },
+      component: () => import('@/views/Recipes/RecipesView.vue'),
+    },
+    {
+      path: '/recipes/revisions/:id',
+      name: 'revision',
+      props: true,
+      meta: { roles: ['engineer', 'lead', 'admin', 'operator', 'service', 'stores'] },
+      component: () => import('@/views/Recipes/RevisionView.vue'),
+    },
+    {
+      path: '/recipes/parts',
+      name: 'parts',
+      meta: { roles: PERMISSIONS.readParts },
+      component: () => import('@/views/Recipes/PartsView.vue'),
+    },
+    {
+      path: '/recipes/defect-codes',
+      name: 'defect-codes',
+      meta: { roles: ['engineer', 'lead', 'admin'] },
+      component: () => import('@/views/Recipes/DefectCodesView.vue'),
+    },
+    {
+      path: '/receiving',
+      name: 'receiving',
+      meta: { roles: rolesOf('receiving') },
+      component: () => import('@/views/Receiving/ReceivingView.vue'),
+    },
     {
       path: '/admin/stations',
       name: 'stations',

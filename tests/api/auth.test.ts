@@ -105,7 +105,7 @@ describe('sign-in', () => {
     await resetSignInLimits()
   })
 
-  it('rate-limits failed sign-ins per address across accounts', async () => {
+  it('rate-limits failed sign-ins per address across accounts', { timeout: 60_000 }, async () => {
     await resetSignInLimits()
     const c = new TestClient()
     let last = 0

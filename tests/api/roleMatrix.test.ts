@@ -75,6 +75,38 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
     who: ['stores', 'lead', 'admin', 'engineer', 'service'],
   },
   { method: 'get', path: '/api/component-lots/:id/label.pdf', who: ['stores', 'lead', 'admin'] },
+  { method: 'get', path: '/api/lots', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'post', path: '/api/lots', who: ['lead'] },
+  { method: 'get', path: '/api/lots/:id', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'patch', path: '/api/lots/:id', who: ['lead'] },
+  { method: 'post', path: '/api/lots/:id/release', who: ['lead'] },
+  { method: 'post', path: '/api/lots/:id/hold', who: ['lead'] },
+  { method: 'post', path: '/api/lots/:id/unhold', who: ['lead'] },
+  { method: 'post', path: '/api/lots/:id/close', who: ['lead'] },
+  { method: 'get', path: '/api/lots/:id/units', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'get', path: '/api/lots/:id/grid', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'get', path: '/api/lots/:id/documents', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'post', path: '/api/lots/:id/documents', who: ['lead'] },
+  { method: 'get', path: '/api/documents/:id', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'get', path: '/api/documents/:id/file', who: ['lead', 'engineer', 'admin', 'service'] },
+  {
+    method: 'get',
+    path: '/api/floor/units/:serial',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  {
+    method: 'get',
+    path: '/api/floor/component-lots/:code',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  {
+    method: 'get',
+    path: '/api/floor/stations/:code/recent',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  { method: 'post', path: '/api/step-runs', who: ['operator', 'lead', 'engineer'] },
+  { method: 'get', path: '/api/nonconformances', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
@@ -112,34 +144,38 @@ describe('role matrix', () => {
     expect(layers).toBe(guarded)
   })
 
-  it('answers every route × role with the status its rule implies', async () => {
-    const clients = new Map<Role, TestClient>()
-    for (const role of ROLES) clients.set(role, await signedInAs(role))
-    const anonymous = await freshAnonymous()
-    const failures: string[] = []
-    for (const row of EXPECTED) {
-      const path = row.path.replace(/:id\b/g, randomUUID())
-      for (const role of [null, ...ROLES] as (Role | null)[]) {
-        // Signing out ends the session, so that row gets a client of its own.
-        const client =
-          row.path !== '/api/auth/logout'
-            ? role
-              ? clients.get(role)!
-              : anonymous
-            : role
-              ? await signedInAs(role)
-              : await freshAnonymous()
-        const res =
-          row.method === 'get'
-            ? await client.get(path)
-            : await client.send(row.method as 'post' | 'patch' | 'put' | 'delete', path, {})
-        const want = expectedStatusClass(row.who, role)
-        const isOk =
-          want === 'open' ? res.status !== 401 && res.status !== 403 : res.status === want
-        if (!isOk)
-          failures.push(`${key(row)} as ${role ?? 'anonymous'}: got ${res.status}, want ${want}`)
+  it(
+    'answers every route × role with the status its rule implies',
+    { timeout: 90_000 },
+    async () => {
+      const clients = new Map<Role, TestClient>()
+      for (const role of ROLES) clients.set(role, await signedInAs(role))
+      const anonymous = await freshAnonymous()
+      const failures: string[] = []
+      for (const row of EXPECTED) {
+        const path = row.path.replace(/:\w+/g, randomUUID())
+        for (const role of [null, ...ROLES] as (Role | null)[]) {
+          // Signing out ends the session, so that row gets a client of its own.
+          const client =
+            row.path !== '/api/auth/logout'
+              ? role
+                ? clients.get(role)!
+                : anonymous
+              : role
+                ? await signedInAs(role)
+                : await freshAnonymous()
+          const res =
+            row.method === 'get'
+              ? await client.get(path)
+              : await client.send(row.method as 'post' | 'patch' | 'put' | 'delete', path, {})
+          const want = expectedStatusClass(row.who, role)
+          const isOk =
+            want === 'open' ? res.status !== 401 && res.status !== 403 : res.status === want
+          if (!isOk)
+            failures.push(`${key(row)} as ${role ?? 'anonymous'}: got ${res.status}, want ${want}`)
+        }
       }
-    }
-    expect(failures).toEqual([])
-  })
+      expect(failures).toEqual([])
+    },
+  )
 })

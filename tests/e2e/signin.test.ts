@@ -46,10 +46,11 @@ describe('Sign-in', { timeout: 60_000 }, () => {
     expect(await nav.textContent()).not.toContain('Users')
     expect(await page.locator('a[href="/admin/users"]').count()).toBe(0)
 
-    // Typing the address does not help either: the guard sends the operator home.
+    // Typing the address does not help either: the guard sends the operator to their first
+    // area, the Floor's station picker.
     await page.goto(`${app.baseUrl}/admin/users`)
-    await page.getByRole('heading', { name: /Hello/ }).waitFor()
-    expect(new URL(page.url()).pathname).toBe('/')
+    await page.waitForURL(/\/floor$/)
+    expect(new URL(page.url()).pathname).toBe('/floor')
 
     await page.getByRole('button', { name: 'Sign out' }).click()
     await page.waitForURL(/\/signin/)

@@ -4,6 +4,7 @@ import type { Actor } from '../../services/audit'
 import { hashPassword } from '../../services/passwords'
 import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
+import { loadDemoLots } from './demoLots'
 import { loadDemoRecipes } from './loadRecipes'
 
 /** The actor the audit log names for demo rows. */
@@ -51,5 +52,6 @@ export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promi
   if (onlyIfEmpty && (await User.count()) > 0) return false
   await loadPeopleAndFloor()
   await loadDemoRecipes(SEED_ACTOR)
+  await loadDemoLots()
   return true
 }

@@ -1,0 +1,77 @@
+import { SEED_ACTOR } from '../../server/db/seed/demo'
+import { User } from '../../server/models'
+import { createCheck } from '../../server/services/checks'
+import { listLotUnits } from '../../server/services/lotGrid'
+import { createLot, releaseLot } from '../../server/services/lots'
+import { createProduct } from '../../server/services/products'
+import { releaseRevision } from '../../server/services/revisions'
+import { createStep } from '../../server/services/routeSteps'
+
+/**
+ * A one-step winding recipe with two checks, released, and a released lot of `units` of it.
+ * Returns the serials, queued at the winding step.
+ */
+export async function seedBenchLot(units: number): Promise<string[]> {
+  const product = await createProduct(
+    { code: 'BN01', name: 'Benchmark unit', description: 'made by scripts/bench' },
+    SEED_ACTOR,
+  )
+  const revId = product.revisions[0]!.id
+  const step = await createStep(
+    revId,
+    {
+      name: 'Winding',
+      stationKind: 'winding',
+      instructions: '',
+      safetyNote: '',
+      requiresSignoff: false,
+    },
+    SEED_ACTOR,
+  )
+  const base = {
+    nominal: null,
+    decimals: 2,
+    choices: null,
+    derived: null,
+    derivedInputs: null,
+  } as const
+  await createCheck(
+    step.id,
+    { ...base, key: 'turns', label: 'Turns', kind: 'numeric', unit: 'turns', lower: 92, upper: 92 },
+    SEED_ACTOR,
+  )
+  await createCheck(
+    step.id,
+    {
+      ...base,
+      key: 'l_sec',
+      label: 'Inductance',
+      kind: 'numeric',
+      unit: 'mH',
+      lower: 19,
+      upper: 32,
+    },
+    SEED_ACTOR,
+  )
+  // A second step so a recorded unit moves on rather than finishing its route.
+  await createStep(
+    revId,
+    {
+      name: 'Inspect',
+      stationKind: 'inspection',
+      instructions: '',
+      safetyNote: '',
+      requiresSignoff: false,
+    },
+    SEED_ACTOR,
+  )
+  await releaseRevision(revId, SEED_ACTOR)
+  const lead = (await User.findOne({ where: { role: 'lead' } }))!
+  const actor = { ...SEED_ACTOR, id: lead.id, email: lead.email }
+  const lot = await createLot(
+    { revisionId: revId, quantity: units, orderRef: 'BENCH', customerName: '', dueDate: null },
+    actor,
+  )
+  await releaseLot(lot.id, actor)
+  return (await listLotUnits(lot.id)).map((u) => u.serial)
+}

@@ -1,0 +1,37 @@
+import { DataTypes, Model } from 'sequelize'
+import type {
+  CreationOptional,
+  InferAttributes,
+  InferCreationAttributes,
+  Sequelize,
+} from 'sequelize'
+
+export class Consumption extends Model<
+  InferAttributes<Consumption>,
+  InferCreationAttributes<Consumption>
+> {
+  declare id: CreationOptional<string>
+  declare unitId: string
+  declare componentLotId: string
+  declare bomLineId: string
+  declare stepRunId: string
+  declare quantity: number
+  declare itemSerial: string | null
+  declare createdAt: CreationOptional<Date>
+}
+
+export function initConsumption(sequelize: Sequelize): void {
+  Consumption.init(
+    {
+      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      unitId: { type: DataTypes.UUID, allowNull: false },
+      componentLotId: { type: DataTypes.UUID, allowNull: false },
+      bomLineId: { type: DataTypes.UUID, allowNull: false },
+      stepRunId: { type: DataTypes.UUID, allowNull: false },
+      quantity: { type: DataTypes.DOUBLE, allowNull: false },
+      itemSerial: { type: DataTypes.STRING(80), allowNull: true },
+      createdAt: DataTypes.DATE,
+    },
+    { sequelize, tableName: 'consumptions', underscored: true, updatedAt: false },
+  )
+}

@@ -1,0 +1,31 @@
+import { z } from 'zod'
+import { StepRunInput } from '../../shared/schemas/lots'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
+import { recordStepRun } from '../services/stepRuns'
+import { apiRoutes } from './registry'
+
+export const floorRoutes = apiRoutes('/floor')
+const use = PERMISSIONS.useFloor
+
+floorRoutes.get('/units/:serial', use, async (req, res) => {
+  const { station } = parse(z.object({ station: z.string().min(1, 'which station?') }), req.query)
+  res.json(await floorUnit(String(req.params.serial), station))
+})
+floorRoutes.get('/component-lots/:code', use, async (req, res) => {
+  const { bomLineId } = parse(z.object({ bomLineId: z.string().uuid('which line?') }), req.query)
+  res.json(await floorComponentLot(String(req.params.code), bomLineId))
+})
+floorRoutes.get('/stations/:code/recent', use, async (req, res) => {
+  res.json(await recentRuns(String(req.params.code)))
+})
+
+export const stepRunRoutes = apiRoutes('/step-runs')
+
+// 201 for a new step run; 200 with the first answer when the same clientEventId comes again.
+stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, async (req, res) => {
+  const { isRepeat, body } = await recordStepRun(parse(StepRunInput, req.body), actorOf(req))
+  res.status(isRepeat ? 200 : 201).json(body)
+})

@@ -1,0 +1,34 @@
+import { z } from 'zod'
+import { IdParam } from '../../shared/schemas/common'
+import { DispositionInput } from '../../shared/schemas/lots'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf, signedInUser } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import { disposeNonconformance, listNonconformances } from '../services/nonconformances'
+import { apiRoutes } from './registry'
+
+export const nonconformanceRoutes = apiRoutes('/nonconformances')
+
+const Query = z.object({
+  lotId: z.string().uuid().optional(),
+  serial: z.string().max(40).optional(),
+  status: z.enum(['open', 'closed']).optional(),
+})
+
+nonconformanceRoutes.get('/', PERMISSIONS.readNonconformances, async (req, res) => {
+  res.json(await listNonconformances(parse(Query, req.query)))
+})
+nonconformanceRoutes.post(
+  '/:id/disposition',
+  PERMISSIONS.disposeNonconformances,
+  async (req, res) => {
+    const actor = { ...actorOf(req), role: signedInUser(req).role }
+    res.json(
+      await disposeNonconformance(
+        parse(IdParam, req.params.id),
+        parse(DispositionInput, req.body),
+        actor,
+      ),
+    )
+  },
+)

@@ -1,0 +1,122 @@
+import { QueryTypes } from 'sequelize'
+import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../shared/schemas/lots'
+import { codeFromScan } from '../../shared/links'
+import { AppError } from '../errors'
+import {
+  BomLine,
+  Check,
+  ComponentLot,
+  db,
+  Lot,
+  Part,
+  Product,
+  Revision,
+  RouteStep,
+  Station,
+  Winding,
+} from '../models'
+import { todayIso } from './componentLots'
+import { componentLotRefusal } from './consumptions'
+import { unitRefusal } from './floorRules'
+import { toBomLineDto, toStepDto, toWindingDto } from './recipePresenters'
+import { findUnitByScan } from './stepRuns'
+import { unitSummary } from './unitMoves'
+
+async function stationByCode(code: string): Promise<Station> {
+  const station = await Station.findOne({ where: { code: code.toUpperCase() } })
+  if (!station) throw AppError.notFound(`station ${code}`)
+  return station
+}
+
+/** What the Floor shows after a scan: the unit, and its step here or why it cannot be worked. */
+export async function floorUnit(scanned: string, stationCode: string): Promise<FloorUnitDto> {
+  const station = await stationByCode(stationCode)
+  const unit = await findUnitByScan(scanned)
+  const lot = (await Lot.findByPk(unit.lotId, {
+    include: [{ model: Revision, as: 'revision', include: [{ model: Product, as: 'product' }] }],
+  }))!
+  const step = unit.currentStepId
+    ? await RouteStep.findByPk(unit.currentStepId, { include: [{ model: Check, as: 'checks' }] })
+    : null
+  const refusal = unitRefusal(unit, lot, step, station)
+  const summary = await unitSummary(unit)
+  const header = {
+    ...summary,
+    lotNumber: lot.number,
+    productCode: lot.revision!.product!.code,
+    productName: lot.revision!.product!.name,
+    revisionLetter: lot.revision!.letter,
+    holdReason: unit.holdReason,
+  }
+  if (refusal || !step)
+    return { unit: header, refusal: refusal?.message ?? null, step: null, bom: [], windings: [] }
+  const [bom, windings] = await Promise.all([
+    BomLine.findAll({
+      where: { fittedAtStepId: step.id },
+      include: [{ model: Part, as: 'part' }],
+      order: [['position', 'ASC']],
+    }),
+    Winding.findAll({ where: { revisionId: lot.revisionId }, order: [['position', 'ASC']] }),
+  ])
+  return {
+    unit: header,
+    refusal: null,
+    step: toStepDto(step),
+    bom: bom.map(toBomLineDto),
+    windings: windings.map(toWindingDto),
+  }
+}
+
+/** A scanned component lot as the Floor checks it against a bill-of-materials line. */
+export async function floorComponentLot(
+  scanned: string,
+  bomLineId: string,
+): Promise<FloorComponentLotDto> {
+  const code = codeFromScan(scanned)
+  const lot = await ComponentLot.findOne({
+    where: { internalCode: code },
+    include: [{ model: Part, as: 'part' }],
+  })
+  if (!lot)
+    throw new AppError(404, 'unknown_component_lot', `no component lot ${code}: check the label`)
+  const line = await BomLine.findByPk(bomLineId, { include: [{ model: Part, as: 'part' }] })
+  if (!line) throw AppError.notFound(`bill of materials line ${bomLineId}`)
+  const today = todayIso()
+  return {
+    internalCode: lot.internalCode,
+    partId: lot.partId,
+    partNumber: lot.part?.partNumber ?? '',
+    status: lot.status,
+    isExpired: lot.expiresOn !== null && lot.expiresOn < today,
+    quantityRemaining: lot.quantityRemaining,
+    refusal: componentLotRefusal(lot, line, line.quantity, today),
+  }
+}
+
+/** The last 20 step runs recorded at a station, newest first. */
+export async function recentRuns(stationCode: string): Promise<RecentRunDto[]> {
+  const station = await stationByCode(stationCode)
+  const rows = await db().query<{
+    id: string
+    serial: string
+    step_name: string
+    result: 'pass' | 'fail'
+    attempt: number
+    finished_at: Date
+    operator_name: string
+  }>(
+    `SELECT sr.id, u.serial, s.name AS step_name, sr.result, sr.attempt, sr.finished_at, op.name AS operator_name
+       FROM step_runs sr JOIN units u ON u.id = sr.unit_id JOIN route_steps s ON s.id = sr.step_id JOIN users op ON op.id = sr.operator_id
+      WHERE sr.station_id = :stationId ORDER BY sr.finished_at DESC LIMIT 20`,
+    { replacements: { stationId: station.id }, type: QueryTypes.SELECT },
+  )
+  return rows.map((r) => ({
+    id: r.id,
+    serial: r.serial,
+    stepName: r.step_name,
+    result: r.result,
+    attempt: r.attempt,
+    finishedAt: new Date(r.finished_at).toISOString(),
+    operatorName: r.operator_name,
+  }))
+}

@@ -1,0 +1,94 @@
+import type { Transaction } from 'sequelize'
+import type { StepRunInput, UnitSummaryDto } from '../../shared/schemas/lots'
+import type { Lot, RouteStep, StepRun, Unit } from '../models'
+import { Nonconformance, RouteStep as RouteStepModel } from '../models'
+import type { Actor } from './audit'
+
+/** The summary of a unit the Floor and the lot page show. */
+export async function unitSummary(unit: Unit, transaction?: Transaction): Promise<UnitSummaryDto> {
+  const step = unit.currentStepId
+    ? await RouteStepModel.findByPk(unit.currentStepId, { transaction })
+    : null
+  return {
+    serial: unit.serial,
+    state: unit.state,
+    currentStep: step
+      ? { id: step.id, name: step.name, stationKind: step.stationKind, position: step.position }
+      : null,
+    reworkCount: unit.reworkCount,
+  }
+}
+
+/** The step after `position` in a revision's route, or null at the end. */
+export async function stepAfter(
+  revisionId: string,
+  position: number,
+  transaction: Transaction,
+): Promise<RouteStep | null> {
+  return RouteStepModel.findOne({ where: { revisionId, position: position + 1 }, transaction })
+}
+
+/**
+ * Moves a unit after a step run. A pass goes to the next step (or ends the route as passed)
+ * and ends a rework once the failed step is passed again; a fail opens a nonconformance and
+ * holds the unit for the lead. The first run of a lot marks the lot in progress.
+ */
+export async function moveUnitOn(
+  unit: Unit,
+  lot: Lot,
+  step: RouteStep,
+  run: StepRun,
+  failedKeys: string[],
+  input: StepRunInput,
+  actor: Actor,
+  transaction: Transaction,
+): Promise<Nonconformance | null> {
+  if (lot.status === 'released') await lot.update({ status: 'in_progress' }, { transaction })
+  if (run.result === 'fail') {
+    const nc = await Nonconformance.create(
+      {
+        unitId: unit.id,
+        stepRunId: run.id,
+        defectCodeId: input.defectCodeId,
+        description: input.note,
+        failedChecks: failedKeys,
+        disposition: null,
+        reworkToStepId: null,
+        openedBy: actor.id,
+        decidedBy: null,
+        countersignedBy: null,
+        openedAt: run.finishedAt,
+        closedAt: null,
+      },
+      { transaction },
+    )
+    await unit.update(
+      {
+        state: 'on_hold',
+        holdKind: 'nonconformance',
+        heldFromState: unit.state,
+        holdReason: `failed ${step.name} (${failedKeys.join(', ')})`,
+      },
+      { transaction },
+    )
+    return nc
+  }
+  const next = await stepAfter(lot.revisionId, step.position, transaction)
+  const isReworkDone =
+    unit.state === 'in_rework' && (unit.reworkUntilPosition ?? 0) <= step.position
+  const state = !next
+    ? 'passed'
+    : unit.state === 'in_rework' && !isReworkDone
+      ? 'in_rework'
+      : 'in_progress'
+  await unit.update(
+    {
+      state,
+      currentStepId: next?.id ?? null,
+      reworkUntilPosition: state === 'in_rework' ? unit.reworkUntilPosition : null,
+      finishedAt: next ? null : run.finishedAt,
+    },
+    { transaction },
+  )
+  return null
+}

@@ -1,0 +1,357 @@
+import { randomUUID } from 'node:crypto'
+import { QueryTypes } from 'sequelize'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { ComponentLot, db } from '../../server/models'
+import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
+import type { TestClient } from './support/client'
+import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
+
+async function count(sql: string, replacements: Record<string, unknown>): Promise<number> {
+  const [row] = await db().query<{ n: string }>(sql, { replacements, type: QueryTypes.SELECT })
+  return Number(row!.n)
+}
+
+describe('step runs at the Floor', () => {
+  let engineer: TestClient
+  let lead: TestClient
+  let stores: TestClient
+  let operator: TestClient
+  let defectId: string
+  const lot = (quantity: number, stock?: number) =>
+    releasedTestLot({ engineer, lead, stores }, quantity, stock)
+
+  beforeAll(async () => {
+    await resetSignInLimits()
+    ;[engineer, lead, stores, operator] = await Promise.all(
+      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
+    )
+    defectId = (await operator.get('/api/defect-codes')).body.find(
+      (d: { code: string }) => d.code === 'W-TURNS',
+    ).id
+  })
+
+  it('records a pass, moves the unit on and takes the part out of stock', async () => {
+    const t = await lot(2, 10)
+    const serial = t.units[0]!.serial
+    const res = await operator.post('/api/step-runs', windingRun(t, serial))
+    expect(res.status).toBe(201)
+    expect(res.body.stepRun).toMatchObject({ result: 'pass', attempt: 1 })
+    expect(res.body.unit).toMatchObject({
+      serial,
+      state: 'in_progress',
+      currentStep: { name: 'Load test' },
+    })
+    const cl = (await stores.get(`/api/component-lots?q=${t.componentLotCode}`)).body.rows[0]
+    expect(cl.quantityRemaining).toBe(9)
+    const lotNow = (await lead.get(`/api/lots/${t.lot.id}`)).body
+    expect(lotNow.status).toBe('in_progress')
+    const done = await operator.post('/api/step-runs', loadTestRun(serial, 350))
+    expect(done.body.unit).toMatchObject({ state: 'passed', currentStep: null })
+  })
+
+  it('recomputes verdicts and derived values on the server', async () => {
+    const t = await lot(1)
+    const res = await operator.post(
+      '/api/step-runs',
+      windingRun(t, t.units[0]!.serial, { values: { l_sec: 24.3 } }),
+    )
+    expect(res.status).toBe(201) // 24.3 mH is inside 19–32 mH, and 90 turns is inside ±12 of 92
+    const rows = await db().query<{
+      key: string
+      value_number: number
+      is_derived: boolean
+      is_pass: boolean
+    }>(
+      `SELECT c.key, m.value_number, m.is_derived, m.is_pass FROM measurements m JOIN checks c ON c.id = m.check_id WHERE m.step_run_id = :id ORDER BY c.position`,
+      { replacements: { id: res.body.stepRun.id }, type: QueryTypes.SELECT },
+    )
+    // L = AL·N² (common practice): 24.3 mH on AL 3000 nH/turn² is 90 turns, so −2 from 92.
+    expect(rows[1]).toMatchObject({ key: 'sec_dev', is_derived: true, is_pass: true })
+    expect(rows[1]!.value_number).toBeCloseTo(-2, 9)
+  })
+
+  it('refuses, with words for the operator, a unit due at another station', async () => {
+    const t = await lot(1)
+    const res = await operator.post('/api/step-runs', loadTestRun(t.units[0]!.serial, 350))
+    expect(res.status).toBe(409)
+    expect(res.body.message).toBe(
+      `${t.units[0]!.serial} is waiting for Winding; this is Load-test rack 1`,
+    )
+  })
+
+  it('refuses a lot on hold, a unit on hold, a scrapped unit and a finished unit', async () => {
+    const t = await lot(3)
+    const [a, b, c] = t.units.map((u) => u.serial)
+    await lead.post(`/api/lots/${t.lot.id}/hold`, { reason: 'wire lot suspect' }).expect(200)
+    const held = await operator.post('/api/step-runs', windingRun(t, a!))
+    expect(held.body.message).toMatch(/lot L-\d+ is on hold \(wire lot suspect\)/)
+    await lead.post(`/api/lots/${t.lot.id}/unhold`, { reason: 'cleared' }).expect(200)
+    const failed = await operator.post(
+      '/api/step-runs',
+      windingRun(t, b!, { values: { l_sec: 40 }, defectCodeId: defectId }),
+    )
+    expect(failed.body.unit.state).toBe('on_hold')
+    const onHold = await operator.post('/api/step-runs', windingRun(t, b!))
+    expect(onHold.status).toBe(409)
+    expect(onHold.body.message).toMatch(/is on hold: failed Winding \(l_sec, sec_dev\)/)
+    await lead
+      .post(`/api/nonconformances/${failed.body.nonconformanceId}/disposition`, {
+        disposition: 'scrap',
+      })
+      .expect(200)
+    expect((await operator.post('/api/step-runs', windingRun(t, b!))).body.message).toMatch(
+      /was scrapped/,
+    )
+    await operator.post('/api/step-runs', windingRun(t, c!)).expect(201)
+    await operator.post('/api/step-runs', loadTestRun(c!, 350)).expect(201)
+    expect((await operator.post('/api/step-runs', loadTestRun(c!, 350))).body.message).toMatch(
+      /has finished its route/,
+    )
+  })
+
+  it('refuses a lot not yet released and a mistyped or unknown serial', async () => {
+    const t = await lot(1)
+    const planned = await lead.post('/api/lots', { revisionId: t.rev.id, quantity: 1 })
+    expect(planned.status).toBe(201)
+    const serial = t.units[0]!.serial
+    const typo = serial.slice(0, -1) + (serial.endsWith('0') ? '1' : '0')
+    const mistyped = await operator.post('/api/step-runs', windingRun(t, typo))
+    expect(mistyped.status).toBe(400)
+    expect(mistyped.body.error).toBe('mistyped_serial')
+    const unknown = await operator.post(
+      '/api/step-runs',
+      windingRun(t, `https://x.example/u/ZZ99-2649-00001${'0'}`),
+    )
+    expect([400, 404]).toContain(unknown.status)
+  })
+
+  it('names a missing value and a missing component scan, and records nothing', async () => {
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    const noValue = await operator.post('/api/step-runs', windingRun(t, serial, { values: {} }))
+    expect(noValue.status).toBe(400)
+    expect(noValue.body.fields).toEqual({ 'values.l_sec': 'enter Inductance' })
+    const noScan = await operator.post(
+      '/api/step-runs',
+      windingRun(t, serial, { consumptions: [] }),
+    )
+    expect(noScan.status).toBe(400)
+    expect(Object.values(noScan.body.fields)[0]).toMatch(/scan a lot of TP-/)
+    const noDefect = await operator.post(
+      '/api/step-runs',
+      windingRun(t, serial, { values: { l_sec: 40 } }),
+    )
+    expect(noDefect.body.fields).toEqual({ defectCodeId: 'choose a defect code' })
+    expect(
+      await count(
+        'SELECT count(*) AS n FROM step_runs sr JOIN units u ON u.id = sr.unit_id WHERE u.serial = :serial',
+        { serial },
+      ),
+    ).toBe(0)
+  })
+
+  it('refuses component lots that are quarantined, used up, expired or of another part', async () => {
+    const t = await lot(3, 1)
+    const [a, b] = t.units.map((u) => u.serial)
+    await operator.post('/api/step-runs', windingRun(t, a!)).expect(201)
+    const usedUp = await operator.post('/api/step-runs', windingRun(t, b!))
+    expect(usedUp.status).toBe(409)
+    expect(usedUp.body.message).toBe(`${t.componentLotCode} is used up; take a new lot from stores`)
+    const lots = (await stores.get('/api/component-lots?q=HM-26-0502')).body.rows
+    const quarantined = await operator.post(
+      '/api/step-runs',
+      windingRun(t, b!, {
+        consumptions: [{ bomLineId: t.rev.bom[0]!.id, code: lots[0].internalCode }],
+      }),
+    )
+    expect(quarantined.body.message).toMatch(/is FCS-3000U; this line needs TP-/)
+    const partId = t.rev.bom[0]!.partId
+    const fresh = await stores.post('/api/component-lots', {
+      partId,
+      supplierName: 'X',
+      supplierLotCode: `Q-${uniqueSuffix()}`,
+      quantityReceived: 5,
+      receivedOn: '2026-11-01',
+    })
+    await stores
+      .post(`/api/component-lots/${fresh.body.id}/status`, {
+        status: 'quarantined',
+        reason: 'waiting for report',
+      })
+      .expect(200)
+    const q = await operator.post(
+      '/api/step-runs',
+      windingRun(t, b!, {
+        consumptions: [
+          { bomLineId: t.rev.bom[0]!.id, code: `http://x/c/${fresh.body.internalCode}` },
+        ],
+      }),
+    )
+    expect(q.body.message).toBe(
+      `${fresh.body.internalCode} is quarantined; take a lot that is available`,
+    )
+    // Test set-up only: backdate a lot's expiry, which the API allows only for parts that expire.
+    const old = await stores.post('/api/component-lots', {
+      partId,
+      supplierName: 'X',
+      supplierLotCode: `E-${uniqueSuffix()}`,
+      quantityReceived: 5,
+      receivedOn: '2026-01-01',
+    })
+    await ComponentLot.update({ expiresOn: '2026-02-01' }, { where: { id: old.body.id } })
+    const expired = await operator.post(
+      '/api/step-runs',
+      windingRun(t, b!, {
+        consumptions: [{ bomLineId: t.rev.bom[0]!.id, code: old.body.internalCode }],
+      }),
+    )
+    expect(expired.body.message).toBe(
+      `${old.body.internalCode} expired on 2026-02-01; return it to stores`,
+    )
+  })
+
+  it('records exactly once under 20 concurrent duplicate and conflicting submissions', async () => {
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    const same = windingRun(t, serial)
+    const other = await signedInAs('operator')
+    const submissions = Array.from({ length: 20 }, (_, i) =>
+      (i % 2 ? operator : other).post(
+        '/api/step-runs',
+        i < 10 ? same : { ...same, clientEventId: randomUUID() },
+      ),
+    )
+    const results = await Promise.all(submissions)
+    const statuses = results.map((r) => r.status)
+    expect(statuses.filter((s) => s === 201)).toHaveLength(1)
+    expect(statuses.every((s) => [200, 201, 409].includes(s))).toBe(true)
+    const winner = results.find((r) => r.status === 201)!.body.stepRun.id
+    for (const r of results.filter((r) => r.status === 200)) expect(r.body.stepRun.id).toBe(winner)
+    expect(
+      await count(
+        'SELECT count(*) AS n FROM step_runs sr JOIN units u ON u.id = sr.unit_id WHERE u.serial = :serial',
+        { serial },
+      ),
+    ).toBe(1)
+    expect(
+      await count(
+        'SELECT count(*) AS n FROM consumptions c JOIN units u ON u.id = c.unit_id WHERE u.serial = :serial',
+        { serial },
+      ),
+    ).toBe(1)
+    const again = await operator.post('/api/step-runs', same)
+    expect(again.status).toBe(200)
+    expect(again.body.stepRun.id).toBe(winner)
+  })
+
+  it('reworks a failed unit back to a chosen step, counting the rework and new attempts', async () => {
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
+    const failed = await operator.post(
+      '/api/step-runs',
+      loadTestRun(serial, 340, { defectCodeId: defectId }),
+    )
+    expect(failed.body.stepRun.result).toBe('fail')
+    const nc = failed.body.nonconformanceId
+    const bad = await lead.post(`/api/nonconformances/${nc}/disposition`, {
+      disposition: 'rework',
+      reworkToStepId: randomUUID(),
+    })
+    expect(bad.body.fields).toHaveProperty('reworkToStepId')
+    const windingStep = t.rev.steps[0]!.id
+    const disposed = await lead.post(`/api/nonconformances/${nc}/disposition`, {
+      disposition: 'rework',
+      reworkToStepId: windingStep,
+      reason: 'rewind secondary',
+    })
+    expect(disposed.body).toMatchObject({
+      status: 'closed',
+      disposition: 'rework',
+      reworkToStepName: 'Winding',
+      decidedBy: 'Dev Okafor',
+    })
+    const units = (await lead.get(`/api/lots/${t.lot.id}/units`)).body
+    expect(units[0]).toMatchObject({
+      state: 'in_rework',
+      reworkCount: 1,
+      currentStep: { name: 'Winding' },
+    })
+    const again = await operator.post('/api/step-runs', windingRun(t, serial))
+    expect(again.body).toMatchObject({ stepRun: { attempt: 2 }, unit: { state: 'in_rework' } })
+    const pass = await operator.post('/api/step-runs', loadTestRun(serial, 350))
+    expect(pass.body).toMatchObject({
+      stepRun: { attempt: 2, result: 'pass' },
+      unit: { state: 'passed' },
+    })
+    const grid = (await lead.get(`/api/lots/${t.lot.id}/grid`)).body
+    expect(grid.units[0].cells).toEqual(['passed_after_rework', 'passed_after_rework'])
+    expect(
+      (await lead.post(`/api/nonconformances/${nc}/disposition`, { disposition: 'scrap' })).status,
+    ).toBe(409)
+  })
+
+  it('lets a unit be used as is only with a reason and an engineer’s signature', async () => {
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
+    const nc = (
+      await operator.post('/api/step-runs', loadTestRun(serial, 356, { defectCodeId: defectId }))
+    ).body.nonconformanceId
+    expect(
+      (
+        await lead.post(`/api/nonconformances/${nc}/disposition`, {
+          disposition: 'use_as_is',
+          reason: 'short',
+        })
+      ).body.fields,
+    ).toHaveProperty('reason')
+    const reason = 'output 1 V over; customer accepts per deviation note'
+    const unsigned = await lead.post(`/api/nonconformances/${nc}/disposition`, {
+      disposition: 'use_as_is',
+      reason,
+    })
+    expect(unsigned.body.fields).toHaveProperty('countersign')
+    const wrongRole = await lead.post(`/api/nonconformances/${nc}/disposition`, {
+      disposition: 'use_as_is',
+      reason,
+      countersign: { email: 'operator@ferncastle.example', password: 'waymark-demo' },
+    })
+    expect(wrongRole.body.fields.countersign).toMatch(/engineer/)
+    const ok = await lead.post(`/api/nonconformances/${nc}/disposition`, {
+      disposition: 'use_as_is',
+      reason,
+      countersign: { email: 'engineer@ferncastle.example', password: 'waymark-demo' },
+    })
+    expect(ok.body).toMatchObject({ disposition: 'use_as_is', countersignedBy: 'Imogen Tarrant' })
+    expect((await lead.get(`/api/lots/${t.lot.id}/units`)).body[0].state).toBe('passed')
+    expect(
+      (await operator.post(`/api/nonconformances/${nc}/disposition`, { disposition: 'scrap' }))
+        .status,
+    ).toBe(403)
+  })
+
+  it('shows the grid cells, WIP and the station’s recent runs', async () => {
+    const t = await lot(2)
+    await operator.post('/api/step-runs', windingRun(t, t.units[0]!.serial)).expect(201)
+    const grid = (await lead.get(`/api/lots/${t.lot.id}/grid`)).body
+    expect(grid.steps.map((s: { name: string }) => s.name)).toEqual(['Winding', 'Load test'])
+    expect(grid.units.map((u: { cells: string[] }) => u.cells)).toEqual([
+      ['passed_first', 'in_progress'],
+      ['not_reached', 'not_reached'],
+    ])
+    expect(grid.wip.map((w: { units: number }) => w.units)).toEqual([1, 1])
+    const recent = (await operator.get('/api/floor/stations/WND-1/recent')).body
+    expect(recent[0]).toMatchObject({
+      serial: t.units[0]!.serial,
+      result: 'pass',
+      operatorName: 'Sina Marsh',
+    })
+    const preview = (
+      await operator.get(
+        `/api/floor/units/${encodeURIComponent(`http://h/u/${t.units[0]!.serial}`)}?station=WND-1`,
+      )
+    ).body
+    expect(preview.refusal).toMatch(/is waiting for Load test; this is Winding bench 1/)
+  })
+})

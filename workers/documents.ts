@@ -1,0 +1,43 @@
+import { Worker } from 'bullmq'
+import type { Redis } from 'ioredis'
+import { logger } from '../server/logger'
+import { DOCUMENTS_QUEUE, enqueueDocument } from '../server/queues/documents'
+import type { DocumentJob } from '../server/queues/documents'
+import { redisPrefix } from '../server/redis'
+import { failDocument, pendingDocumentIds, renderDocument } from '../server/services/documentRender'
+
+export { DOCUMENTS_QUEUE, enqueueDocument }
+export type { DocumentJob }
+
+const SWEEP_EVERY_MS = 60_000
+
+/** Enqueues again every document row left `queued` (its job was lost while Redis was down). */
+export async function sweepDocuments(olderThanMs = 30_000): Promise<number> {
+  const ids = await pendingDocumentIds(new Date(), olderThanMs)
+  for (const id of ids) await enqueueDocument(id)
+  return ids.length
+}
+
+/** Renders travelers and label sheets; progress goes to the job and to the documents row. */
+export function startDocumentsWorker(connection: Redis): {
+  worker: Worker<DocumentJob>
+  stop: () => void
+} {
+  const worker = new Worker<DocumentJob>(
+    DOCUMENTS_QUEUE,
+    async (job) => {
+      await renderDocument(job.data.documentId, (percent) => job.updateProgress(percent))
+    },
+    { connection, prefix: redisPrefix, concurrency: 2 },
+  )
+  worker.on('failed', (job, err) => {
+    if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
+      void failDocument(job.data.documentId, err.message)
+  })
+  const sweep = () =>
+    void sweepDocuments().catch((err: unknown) => logger.warn({ err }, 'document sweep failed'))
+  sweep() // on start-up: pick up what was requested while no worker or no Redis was there
+  const timer = setInterval(sweep, SWEEP_EVERY_MS)
+  timer.unref()
+  return { worker, stop: () => clearInterval(timer) }
+}
