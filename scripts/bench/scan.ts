@@ -1,13 +1,14 @@
 // Benchmark of the scan route: `npx tsx scripts/bench/scan.ts [--units 2000] [--connections 32]`.
 // Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench).
 import { randomUUID } from 'node:crypto'
+import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { parseArgs } from 'node:util'
 import autocannon from 'autocannon'
 import express from 'express'
 import pg from 'pg'
 
-process.env.WAYMARK_DB ??= 'waymark_test'
+process.env.WAYMARK_DB ??= 'waymark_bench_test'
 process.env.NODE_ENV ??= 'test'
 process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
 process.env.LOG_LEVEL ??= 'error'
@@ -22,7 +23,7 @@ const { values: args } = parseArgs({
 if (args.help) {
   console.log(`Usage: tsx scripts/bench/scan.ts [--units N] [--connections N]
 
-Resets the test database (WAYMARK_DB, default waymark_test), releases one lot of N units of a
+Resets its own database (WAYMARK_DB, default waymark_bench_test), releases one lot of N units of a
 one-step recipe, then drives POST /api/step-runs with autocannon over loopback, next to a
 baseline: a bare Express route doing one INSERT through pg. Prints p50/p95/p99 and throughput.`)
   process.exit(0)
@@ -80,7 +81,12 @@ bare.post('/insert', async (req, res) => {
   ])
   res.status(201).json({ ok: true })
 })
-const bareServer = bare.listen(0, '127.0.0.1')
+function listen(handler: express.Express): Promise<Server> {
+  return new Promise((resolve) => {
+    const s = handler.listen(0, '127.0.0.1', () => resolve(s))
+  })
+}
+const bareServer = await listen(bare)
 const barePort = (bareServer.address() as AddressInfo).port
 const baseline = await run(
   `http://127.0.0.1:${barePort}/insert`,
@@ -89,7 +95,7 @@ const baseline = await run(
 )
 
 const app = buildApp()
-const server = app.listen(0, '127.0.0.1')
+const server = await listen(app)
 const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
 const csrf1 = await fetch(`${base}/api/auth/csrf`)
 let cookie = csrf1.headers.get('set-cookie')!.split(';')[0]!

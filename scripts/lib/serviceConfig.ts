@@ -36,7 +36,7 @@ export interface ServiceConfig {
   buckets: readonly string[]
 }
 
-export const DATABASES = ['waymark', 'waymark_test'] as const
+export const DATABASES = ['waymark', 'waymark_test', 'waymark_bench_test'] as const
 export const BUCKETS = ['waymark', 'waymark-test'] as const
 
 function portFromEnv(name: string, fallback: number): number {

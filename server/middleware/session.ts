@@ -5,7 +5,7 @@ import { env, requireSetting } from '../env'
 
 const PgStore = connectPgSimple(session)
 
-/** Eight hours: one shift. Activity rolls the expiry forward. */
+/** Eight hours from sign-in: one shift. */
 const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000
 
 let pool: pg.Pool | undefined
@@ -32,10 +32,12 @@ export function sessionMiddleware() {
       tableName: 'sessions',
       createTableIfMissing: false,
       pruneSessionInterval: false,
+      // No write per request: a session lasts one shift from sign-in (see SESSION_MAX_AGE_MS).
+      disableTouch: true,
     }),
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     proxy: env.isProduction,
     cookie: {
       httpOnly: true,

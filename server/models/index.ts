@@ -63,7 +63,7 @@ export function db(): Sequelize {
   instance = new Sequelize(requireSetting(env.databaseUrl, 'the database URL'), {
     dialect: 'postgres',
     logging: (sql) => logger.trace({ sql }, 'sql'),
-    pool: { max: 10, idle: 10_000 },
+    pool: { max: 20, idle: 10_000 },
     define: { underscored: true },
   })
   for (const init of [

@@ -39,17 +39,10 @@ export interface PlannedConsumption {
  * may not be used is a 409 saying why.
  */
 export async function planConsumptions(
-  revisionId: string,
-  stepId: string,
+  lines: readonly BomLine[],
   scans: Scan[],
   transaction: Transaction,
 ): Promise<PlannedConsumption[]> {
-  const lines = await BomLine.findAll({
-    where: { revisionId, fittedAtStepId: stepId },
-    include: [{ model: Part, as: 'part' }],
-    order: [['position', 'ASC']],
-    transaction,
-  })
   const today = todayIso()
   const planned: PlannedConsumption[] = []
   for (const line of lines) {

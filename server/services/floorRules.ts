@@ -15,7 +15,7 @@ export interface Refusal {
 export function unitRefusal(
   unit: Unit,
   lot: Lot,
-  step: RouteStep | null,
+  step: Pick<RouteStep, 'name' | 'stationKind'> | null,
   station: Station,
 ): Refusal | null {
   const s = unit.serial

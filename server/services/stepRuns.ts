@@ -3,29 +3,21 @@ import type { Transaction } from 'sequelize'
 import { evaluateChecks } from '../../shared/recipes/evaluate'
 import type { CheckResult } from '../../shared/recipes/evaluate'
 import type { StepRunInput, StepRunResultDto } from '../../shared/schemas/lots'
+import type { CheckDto } from '../../shared/schemas/recipes'
 import { codeFromScan } from '../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../shared/serials'
 import { AppError } from '../errors'
-import {
-  Check,
-  db,
-  DefectCode,
-  Lot,
-  Measurement,
-  Nonconformance,
-  RouteStep,
-  Station,
-  StepRun,
-  Unit,
-  Winding,
-} from '../models'
+import { db, DefectCode, Lot, Measurement, Nonconformance, Station, StepRun, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { applyConsumptions, planConsumptions } from './consumptions'
 import { verifyCountersign } from './countersign'
 import { unitRefusal } from './floorRules'
-import { toCheckDto, toWindingDto } from './recipePresenters'
 import { moveUnitOn, unitSummary } from './unitMoves'
+import { stepPlan } from './stepPlans'
+import type { StepPlan } from './stepPlans'
+
+const stepRef = (s: StepPlan) => ({ id: s.id, name: s.name, stationKind: s.stationKind, position: s.position })
 
 /** Finds a unit by what was scanned; a mistyped serial (bad check character) is a 400. */
 export async function findUnitByScan(
@@ -68,7 +60,7 @@ async function resultOf(run: StepRun, input: StepRunInput): Promise<StepRunResul
 }
 
 /** Typed values must be present and of the check's kind; the 400 names each bad check. */
-function checkTypedValues(checks: Check[], values: StepRunInput['values']): void {
+function checkTypedValues(checks: CheckDto[], values: StepRunInput['values']): void {
   const fields: Record<string, string> = {}
   for (const c of checks.filter((c) => !c.derived)) {
     const v = values[c.key]
@@ -85,7 +77,7 @@ function checkTypedValues(checks: Check[], values: StepRunInput['values']): void
   if (first) throw AppError.badRequest(`${first[0]}: ${first[1]}`, fields)
 }
 
-function measurementRows(stepRunId: string, checks: Check[], results: Record<string, CheckResult>) {
+function measurementRows(stepRunId: string, checks: CheckDto[], results: Record<string, CheckResult>) {
   return checks.map((c) => {
     const r = results[c.key]!
     return {
@@ -115,25 +107,18 @@ async function record(
   if (earlier) return { repeat: earlier }
   const station = await Station.findOne({ where: { code: input.stationCode }, transaction })
   if (!station) throw AppError.notFound(`station ${input.stationCode}`)
-  const lot = (await Lot.findByPk(unit.lotId, { transaction, lock: transaction.LOCK.SHARE }))!
-  const step = unit.currentStepId
-    ? await RouteStep.findByPk(unit.currentStepId, {
-        include: [{ model: Check, as: 'checks' }],
-        transaction,
-      })
-    : null
+  // No lock on the lot: holding a lot locks each of its open units, which this run holds.
+  const lot = (await Lot.findByPk(unit.lotId, { transaction }))!
+  const step = unit.currentStepId ? await stepPlan(unit.currentStepId, transaction) : null
   const refusal = unitRefusal(unit, lot, step, station)
   if (refusal || !step)
     throw AppError.conflict(
       refusal?.code ?? 'no_step',
       refusal?.message ?? `${unit.serial} has no step to do`,
     )
-  const checks = [...(step.checks ?? [])].sort((a, b) => a.position - b.position)
+  const checks = step.checks
   checkTypedValues(checks, input.values)
-  const windings = (
-    await Winding.findAll({ where: { revisionId: lot.revisionId }, transaction })
-  ).map(toWindingDto)
-  const results = evaluateChecks(checks.map(toCheckDto), input.values, windings)
+  const results = evaluateChecks(checks, input.values, step.windings)
   const failed = checks.filter((c) => results[c.key]!.verdict !== 'pass')
   const result = failed.length ? 'fail' : 'pass'
   if (result === 'fail' && !input.defectCodeId)
@@ -144,7 +129,7 @@ async function record(
     throw AppError.badRequest('defectCodeId: no such defect code', {
       defectCodeId: 'no such defect code',
     })
-  const planned = await planConsumptions(lot.revisionId, step.id, input.consumptions, transaction)
+  const planned = await planConsumptions(step.bomLines, input.consumptions, transaction)
   const second = step.requiresSignoff
     ? await verifyCountersign(
         input.countersign,
@@ -205,7 +190,7 @@ async function record(
   )
   return {
     stepRun: { id: run.id, result, attempt },
-    unit: await unitSummary(unit, transaction),
+    unit: await unitSummary(unit, transaction, run.result === 'pass' ? step.next : stepRef(step)),
     nonconformanceId: nc?.id ?? null,
   }
 }

@@ -1,14 +1,23 @@
 import type { Transaction } from 'sequelize'
-import type { StepRunInput, UnitSummaryDto } from '../../shared/schemas/lots'
+import type { StepRefDto, StepRunInput, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { Lot, RouteStep, StepRun, Unit } from '../models'
+import type { StepPlan } from './stepPlans'
 import { Nonconformance, RouteStep as RouteStepModel } from '../models'
 import type { Actor } from './audit'
 
 /** The summary of a unit the Floor and the lot page show. */
-export async function unitSummary(unit: Unit, transaction?: Transaction): Promise<UnitSummaryDto> {
-  const step = unit.currentStepId
-    ? await RouteStepModel.findByPk(unit.currentStepId, { transaction })
-    : null
+export async function unitSummary(
+  unit: Unit,
+  transaction?: Transaction,
+  /** The unit's current step when the caller has it already, saving a query. */
+  known?: StepRefDto | null,
+): Promise<UnitSummaryDto> {
+  const step =
+    known !== undefined
+      ? known
+      : unit.currentStepId
+        ? await RouteStepModel.findByPk(unit.currentStepId, { transaction })
+        : null
   return {
     serial: unit.serial,
     state: unit.state,
@@ -36,7 +45,7 @@ export async function stepAfter(
 export async function moveUnitOn(
   unit: Unit,
   lot: Lot,
-  step: RouteStep,
+  step: StepPlan,
   run: StepRun,
   failedKeys: string[],
   input: StepRunInput,
@@ -73,7 +82,7 @@ export async function moveUnitOn(
     )
     return nc
   }
-  const next = await stepAfter(lot.revisionId, step.position, transaction)
+  const next = step.next
   const isReworkDone =
     unit.state === 'in_rework' && (unit.reworkUntilPosition ?? 0) <= step.position
   const state = !next

@@ -1,0 +1,57 @@
+import type { Transaction } from 'sequelize'
+import type { StepRefDto } from '../../shared/schemas/lots'
+import type { CheckDto, WindingDto } from '../../shared/schemas/recipes'
+import type { StationKind } from '../../shared/stations'
+import { BomLine, Check, Part, Revision, RouteStep, Winding } from '../models'
+import { toCheckDto, toWindingDto } from './recipePresenters'
+
+/** Everything the Floor needs to know about one step of a released route. */
+export interface StepPlan {
+  id: string
+  revisionId: string
+  name: string
+  stationKind: StationKind
+  position: number
+  requiresSignoff: boolean
+  checks: CheckDto[]
+  windings: WindingDto[]
+  bomLines: BomLine[]
+  next: StepRefDto | null
+}
+
+// Units only ever stand at steps of released revisions, and a released revision is frozen
+// (every recipe change refuses with 409), so a step's plan never changes once built: keeping
+// it saves the scan route five queries. Drafts are never kept.
+const plans = new Map<string, StepPlan>()
+const MAX_PLANS = 5000
+
+/** The plan of a step, from memory when its revision is released. */
+export async function stepPlan(stepId: string, transaction?: Transaction): Promise<StepPlan | null> {
+  const known = plans.get(stepId)
+  if (known) return known
+  const step = await RouteStep.findByPk(stepId, { include: [{ model: Check, as: 'checks' }], transaction })
+  if (!step) return null
+  const [revision, windings, bomLines, next] = await Promise.all([
+    Revision.findByPk(step.revisionId, { attributes: ['status'], transaction }),
+    Winding.findAll({ where: { revisionId: step.revisionId }, order: [['position', 'ASC']], transaction }),
+    BomLine.findAll({ where: { fittedAtStepId: step.id }, include: [{ model: Part, as: 'part' }], order: [['position', 'ASC']], transaction }),
+    RouteStep.findOne({ where: { revisionId: step.revisionId, position: step.position + 1 }, transaction }),
+  ])
+  const plan: StepPlan = {
+    id: step.id,
+    revisionId: step.revisionId,
+    name: step.name,
+    stationKind: step.stationKind,
+    position: step.position,
+    requiresSignoff: step.requiresSignoff,
+    checks: [...(step.checks ?? [])].sort((a, b) => a.position - b.position).map(toCheckDto),
+    windings: windings.map(toWindingDto),
+    bomLines,
+    next: next ? { id: next.id, name: next.name, stationKind: next.stationKind, position: next.position } : null,
+  }
+  if (revision?.status !== 'draft') {
+    if (plans.size >= MAX_PLANS) plans.clear()
+    plans.set(stepId, plan)
+  }
+  return plan
+}
