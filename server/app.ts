@@ -29,11 +29,12 @@ export function buildApp(): Express {
           // Element Plus positions popups with inline style attributes.
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
-          // Plain-http loopback in development must not be upgraded to https.
-          'upgrade-insecure-requests': env.isProduction ? [] : null,
+          // A plain-http installation (the loopback demo, a tablet on the LAN) must not be
+          // upgraded to https.
+          'upgrade-insecure-requests': env.isHttps ? [] : null,
         },
       },
-      hsts: env.isProduction,
+      hsts: env.isHttps,
     }),
   )
   app.use('/api', express.json({ limit: '1mb' }))

@@ -86,6 +86,8 @@ function loadEnv() {
       secretAccessKey: raw.S3_SECRET_ACCESS_KEY ?? (s3IsLocal ? 'S3RVER' : ''),
     },
     publicBaseUrl: raw.PUBLIC_BASE_URL ?? `http://${raw.HOST}:${raw.PORT}`,
+    /** Whether people reach the app over HTTPS (PUBLIC_BASE_URL says so). */
+    isHttps: (raw.PUBLIC_BASE_URL ?? '').startsWith('https://'),
   }
 }
 

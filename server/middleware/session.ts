@@ -42,7 +42,10 @@ export function sessionMiddleware() {
     cookie: {
       httpOnly: true,
       sameSite: 'lax',
-      secure: env.isProduction,
+      // Secure in production. Behind a TLS proxy ('auto') the flag follows X-Forwarded-Proto, so
+      // the same build still signs in on a plain-http loopback demo, where a Secure cookie
+      // would never come back and every form would fail its CSRF check.
+      secure: env.isHttps ? true : env.isProduction ? 'auto' : false,
       maxAge: SESSION_MAX_AGE_MS,
     },
   })

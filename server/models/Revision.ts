@@ -11,6 +11,7 @@ import type { RevisionStatus } from '../../shared/recipes/definitions'
 import type { BomLine } from './BomLine'
 import type { Product } from './Product'
 import type { RouteStep } from './RouteStep'
+import type { User } from './User'
 import type { Winding } from './Winding'
 
 export class Revision extends Model<InferAttributes<Revision>, InferCreationAttributes<Revision>> {
@@ -30,6 +31,7 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
   declare windings?: NonAttribute<Winding[]>
   declare steps?: NonAttribute<RouteStep[]>
   declare bomLines?: NonAttribute<BomLine[]>
+  declare releaser?: NonAttribute<User | null>
 }
 
 export function initRevision(sequelize: Sequelize): void {

@@ -45,6 +45,7 @@ function associate(): void {
   AuditEvent.belongsTo(User, { as: 'actor', foreignKey: 'actorId', constraints: false })
   Product.hasMany(Revision, { as: 'revisions', foreignKey: 'productId' })
   Revision.belongsTo(Product, { as: 'product', foreignKey: 'productId' })
+  Revision.belongsTo(User, { as: 'releaser', foreignKey: 'releasedBy' })
   Revision.hasMany(Winding, { as: 'windings', foreignKey: 'revisionId' })
   Revision.hasMany(RouteStep, { as: 'steps', foreignKey: 'revisionId' })
   Revision.hasMany(BomLine, { as: 'bomLines', foreignKey: 'revisionId' })

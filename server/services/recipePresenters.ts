@@ -78,7 +78,7 @@ export function toRevisionDto(r: Revision): RevisionDto {
     notes: r.notes,
     fpyThresholdPercent: r.fpyThresholdPercent,
     releasedAt: r.releasedAt?.toISOString() ?? null,
-    releasedBy: r.releasedBy,
+    releasedBy: r.releaser?.name ?? null,
     createdAt: r.createdAt.toISOString(),
     windings: [...(r.windings ?? [])].sort((a, b) => a.position - b.position).map(toWindingDto),
     steps: [...(r.steps ?? [])].sort((a, b) => a.position - b.position).map((s) => toStepDto(s)),

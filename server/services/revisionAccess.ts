@@ -1,10 +1,11 @@
 import type { Transaction } from 'sequelize'
 import { AppError } from '../errors'
-import { BomLine, Check, Part, Product, Revision, RouteStep, Winding } from '../models'
+import { BomLine, Check, Part, Product, Revision, RouteStep, User, Winding } from '../models'
 
 /** The include that loads a revision with its whole recipe. */
 export const FULL_REVISION = [
   { model: Product, as: 'product' },
+  { model: User, as: 'releaser', attributes: ['name'] },
   { model: Winding, as: 'windings' },
   { model: RouteStep, as: 'steps', include: [{ model: Check, as: 'checks' }] },
   { model: BomLine, as: 'bomLines', include: [{ model: Part, as: 'part' }] },

@@ -26,16 +26,34 @@ const plans = new Map<string, StepPlan>()
 const MAX_PLANS = 5000
 
 /** The plan of a step, from memory when its revision is released. */
-export async function stepPlan(stepId: string, transaction?: Transaction): Promise<StepPlan | null> {
+export async function stepPlan(
+  stepId: string,
+  transaction?: Transaction,
+): Promise<StepPlan | null> {
   const known = plans.get(stepId)
   if (known) return known
-  const step = await RouteStep.findByPk(stepId, { include: [{ model: Check, as: 'checks' }], transaction })
+  const step = await RouteStep.findByPk(stepId, {
+    include: [{ model: Check, as: 'checks' }],
+    transaction,
+  })
   if (!step) return null
   const [revision, windings, bomLines, next] = await Promise.all([
     Revision.findByPk(step.revisionId, { attributes: ['status'], transaction }),
-    Winding.findAll({ where: { revisionId: step.revisionId }, order: [['position', 'ASC']], transaction }),
-    BomLine.findAll({ where: { fittedAtStepId: step.id }, include: [{ model: Part, as: 'part' }], order: [['position', 'ASC']], transaction }),
-    RouteStep.findOne({ where: { revisionId: step.revisionId, position: step.position + 1 }, transaction }),
+    Winding.findAll({
+      where: { revisionId: step.revisionId },
+      order: [['position', 'ASC']],
+      transaction,
+    }),
+    BomLine.findAll({
+      where: { fittedAtStepId: step.id },
+      include: [{ model: Part, as: 'part' }],
+      order: [['position', 'ASC']],
+      transaction,
+    }),
+    RouteStep.findOne({
+      where: { revisionId: step.revisionId, position: step.position + 1 },
+      transaction,
+    }),
   ])
   const plan: StepPlan = {
     id: step.id,
@@ -47,7 +65,9 @@ export async function stepPlan(stepId: string, transaction?: Transaction): Promi
     checks: [...(step.checks ?? [])].sort((a, b) => a.position - b.position).map(toCheckDto),
     windings: windings.map(toWindingDto),
     bomLines,
-    next: next ? { id: next.id, name: next.name, stationKind: next.stationKind, position: next.position } : null,
+    next: next
+      ? { id: next.id, name: next.name, stationKind: next.stationKind, position: next.position }
+      : null,
   }
   if (revision?.status !== 'draft') {
     if (plans.size >= MAX_PLANS) plans.clear()

@@ -17,7 +17,12 @@ import { moveUnitOn, unitSummary } from './unitMoves'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 
-const stepRef = (s: StepPlan) => ({ id: s.id, name: s.name, stationKind: s.stationKind, position: s.position })
+const stepRef = (s: StepPlan) => ({
+  id: s.id,
+  name: s.name,
+  stationKind: s.stationKind,
+  position: s.position,
+})
 
 /** Finds a unit by what was scanned; a mistyped serial (bad check character) is a 400. */
 export async function findUnitByScan(
@@ -77,7 +82,11 @@ function checkTypedValues(checks: CheckDto[], values: StepRunInput['values']): v
   if (first) throw AppError.badRequest(`${first[0]}: ${first[1]}`, fields)
 }
 
-function measurementRows(stepRunId: string, checks: CheckDto[], results: Record<string, CheckResult>) {
+function measurementRows(
+  stepRunId: string,
+  checks: CheckDto[],
+  results: Record<string, CheckResult>,
+) {
   return checks.map((c) => {
     const r = results[c.key]!
     return {

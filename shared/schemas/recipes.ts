@@ -208,6 +208,7 @@ export interface RevisionDto extends RevisionSummaryDto {
   notes: string
   fpyThresholdPercent: number
   releasedAt: string | null
+  /** Name of the person who released it. */
   releasedBy: string | null
   createdAt: string
   windings: WindingDto[]

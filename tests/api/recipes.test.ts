@@ -71,6 +71,7 @@ describe('recipes', () => {
     const released = await engineer.post(`/api/revisions/${revId}/release`).expect(200)
     expect(released.body.status).toBe('released')
     expect(released.body.releasedAt).not.toBeNull()
+    expect(released.body.releasedBy).toBe('Imogen Tarrant')
   })
 
   it('refuses every change to a released revision with 409 and leaves it as it was', async () => {
