@@ -37,24 +37,23 @@ export async function stepPlan(
     transaction,
   })
   if (!step) return null
-  const [revision, windings, bomLines, next] = await Promise.all([
-    Revision.findByPk(step.revisionId, { attributes: ['status'], transaction }),
-    Winding.findAll({
-      where: { revisionId: step.revisionId },
-      order: [['position', 'ASC']],
-      transaction,
-    }),
-    BomLine.findAll({
-      where: { fittedAtStepId: step.id },
-      include: [{ model: Part, as: 'part' }],
-      order: [['position', 'ASC']],
-      transaction,
-    }),
-    RouteStep.findOne({
-      where: { revisionId: step.revisionId, position: step.position + 1 },
-      transaction,
-    }),
-  ])
+  // One after another: queries of one transaction share its connection.
+  const revision = await Revision.findByPk(step.revisionId, { attributes: ['status'], transaction })
+  const windings = await Winding.findAll({
+    where: { revisionId: step.revisionId },
+    order: [['position', 'ASC']],
+    transaction,
+  })
+  const bomLines = await BomLine.findAll({
+    where: { fittedAtStepId: step.id },
+    include: [{ model: Part, as: 'part' }],
+    order: [['position', 'ASC']],
+    transaction,
+  })
+  const next = await RouteStep.findOne({
+    where: { revisionId: step.revisionId, position: step.position + 1 },
+    transaction,
+  })
   const plan: StepPlan = {
     id: step.id,
     revisionId: step.revisionId,

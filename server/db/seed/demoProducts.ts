@@ -100,7 +100,8 @@ export const DEMO_PRODUCTS: DemoProduct[] = [
       {
         letter: 'A',
         status: 'obsolete',
-        notes: 'First build; replaced by B (secondary re-wound in four layers).',
+        notes:
+          'First build; replaced by B (secondary re-wound in four layers). Demo data: every limit is invented.',
         windings: FP24_WINDINGS,
         steps: fp24Steps().slice(0, 1),
         bom: [],
@@ -108,7 +109,8 @@ export const DEMO_PRODUCTS: DemoProduct[] = [
       {
         letter: 'B',
         status: 'released',
-        notes: 'Secondary in four layers with interlayer tape.',
+        notes:
+          'Secondary in four layers with interlayer tape. Demo data: every limit is invented for this example shop, not taken from a datasheet or standard.',
         windings: FP24_WINDINGS,
         steps: fp24Steps(),
         bom: [
@@ -157,7 +159,7 @@ export const DEMO_PRODUCTS: DemoProduct[] = [
       {
         letter: 'A',
         status: 'released',
-        notes: 'First release.',
+        notes: 'First release. Demo data: every limit is invented for this example shop.',
         windings: [
           {
             name: 'primary A',
