@@ -24,6 +24,11 @@ export const FINISHED_UNIT_STATES: readonly UnitState[] = [
   'shipped',
   'returned',
 ]
+/**
+ * Finished states that count as passed; a returned unit passed its route before it left (the
+ * return is a field event, not a test result).
+ */
+export const PASSED_UNIT_STATES: readonly UnitState[] = ['passed', 'shipped', 'returned']
 
 export const UNIT_STATE_LABELS: Record<UnitState, string> = {
   queued: 'Queued',

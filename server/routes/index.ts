@@ -14,6 +14,7 @@ import { lotRoutes } from './lots'
 import { floorRoutes, stepRunRoutes } from './floor'
 import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
+import { yieldRoutes } from './yield'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -35,7 +36,7 @@ void [
   componentLotRoutes,
 ]
 
-void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes]
+void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

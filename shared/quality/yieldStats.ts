@@ -1,5 +1,5 @@
 // Per-lot yield figures (DESIGN.md §7) from a lot's step runs and its units' states.
-import { FINISHED_UNIT_STATES, type UnitState } from '../lots'
+import { FINISHED_UNIT_STATES, PASSED_UNIT_STATES, type UnitState } from '../lots'
 import { wilsonInterval, type ProportionInterval } from './proportion'
 
 /** One recorded run of a unit through a route step; `attempt` counts from 1. */
@@ -42,9 +42,6 @@ export interface LotYield {
   /** Units with at least one run. */
   started: number
 }
-
-// A returned unit passed its route before it left; the return is a field event, not a test result.
-const PASSED_STATES: readonly UnitState[] = ['passed', 'shipped', 'returned']
 
 function ratio(num: number, den: number): number | null {
   return den === 0 ? null : num / den
@@ -95,7 +92,7 @@ export function lotYield(input: LotYieldInput): LotYield {
   for (const [unitId, state] of states) {
     if (!FINISHED_UNIT_STATES.includes(state)) continue
     finished++
-    if (!PASSED_STATES.includes(state)) continue
+    if (!PASSED_UNIT_STATES.includes(state)) continue
     passed++
     if (isFirstPass(unitId)) firstPass++
   }

@@ -1,0 +1,16 @@
+import { IdParam } from '../../shared/schemas/common'
+import { YieldSummaryQuery } from '../../shared/schemas/yield'
+import { PERMISSIONS } from '../../shared/permissions'
+import { parse } from '../middleware/validate'
+import { getLotYield, summarizeYield } from '../services/yield'
+import { apiRoutes } from './registry'
+
+export const yieldRoutes = apiRoutes('/yield')
+const read = PERMISSIONS.readYield
+
+yieldRoutes.get('/summary', read, async (req, res) => {
+  res.json(await summarizeYield(parse(YieldSummaryQuery, req.query)))
+})
+yieldRoutes.get('/lots/:id', read, async (req, res) => {
+  res.json(await getLotYield(parse(IdParam, req.params.id)))
+})

@@ -1,0 +1,147 @@
+import { wilsonInterval } from '../../shared/quality/proportion'
+import type {
+  LotYieldDto,
+  RatioDto,
+  StepWipDto,
+  StepYieldDto,
+  YieldSummaryDto,
+  YieldSummaryQuery,
+} from '../../shared/schemas/yield'
+import { AppError } from '../errors'
+import { Lot } from '../models'
+import type { LotStepTotals, LotUnitTotals } from './yieldQueries'
+import { lotStepTotals, lotsRunInPeriod, lotUnitTotals } from './yieldQueries'
+
+const NO_UNITS: LotUnitTotals = {
+  started: 0,
+  finished: 0,
+  passed: 0,
+  scrapped: 0,
+  firstPass: 0,
+  defects: 0,
+}
+
+const perUnit = (num: number, den: number) => (den === 0 ? null : num / den)
+
+/** `num / den` with its Wilson interval; null value (never NaN) when `den` is 0. */
+function ratioOf(num: number, den: number): RatioDto {
+  return { value: perUnit(num, den), interval: wilsonInterval(num, den) }
+}
+
+/** Step FPYs of the steps, and their product over the steps with first attempts as RTY. */
+function stepYields(steps: readonly LotStepTotals[]): {
+  steps: StepYieldDto[]
+  rty: number | null
+} {
+  let rty: number | null = null
+  const out = steps.map((s) => {
+    const { value, interval } = ratioOf(s.passedFirst, s.firstAttempts)
+    if (value !== null) rty = (rty ?? 1) * value
+    return {
+      stepId: s.stepId,
+      name: s.name,
+      position: s.position,
+      firstAttempts: s.firstAttempts,
+      passedFirst: s.passedFirst,
+      fpy: value,
+      interval,
+    }
+  })
+  return { steps: out, rty }
+}
+
+/** Units at each step now, for the lot page's WIP strip. */
+function stepWip(steps: readonly LotStepTotals[]): StepWipDto[] {
+  return steps.map((s) => ({ stepName: s.name, stationKind: s.stationKind, units: s.wip }))
+}
+
+/** One lot's step FPYs, RTY, lot FPY, final yield, DPU, unit counts and WIP per step. */
+export async function getLotYield(lotId: string): Promise<LotYieldDto> {
+  const lot = await Lot.findByPk(lotId, { attributes: ['id'] })
+  if (!lot) throw AppError.notFound(`lot ${lotId}`)
+  const [units, steps] = await Promise.all([lotUnitTotals([lotId]), lotStepTotals([lotId])])
+  const u = units.get(lotId) ?? NO_UNITS
+  const lotSteps = steps.get(lotId) ?? []
+  return {
+    lotId,
+    ...stepYields(lotSteps),
+    lotFpy: ratioOf(u.firstPass, u.finished),
+    finalYield: ratioOf(u.passed, u.finished),
+    dpu: perUnit(u.defects, u.started),
+    started: u.started,
+    finished: u.finished,
+    passed: u.passed,
+    scrapped: u.scrapped,
+    wip: stepWip(lotSteps),
+  }
+}
+
+/**
+ * Period RTY: lots of different revisions run different routes, so first attempts are pooled per
+ * revision step, each revision's RTY is the product of its pooled step FPYs, and the period's is
+ * their mean weighted by units started. With one revision this is simply its pooled RTY.
+ */
+function periodRty(steps: Map<string, LotStepTotals[]>, started: Map<string, number>) {
+  const byRevision = new Map<string, { started: number; steps: Map<string, LotStepTotals> }>()
+  for (const [lotId, lotSteps] of steps) {
+    for (const s of lotSteps) {
+      const rev = byRevision.get(s.revisionId) ?? { started: 0, steps: new Map() }
+      byRevision.set(s.revisionId, rev)
+      const pooled = rev.steps.get(s.stepId)
+      if (pooled) {
+        pooled.firstAttempts += s.firstAttempts
+        pooled.passedFirst += s.passedFirst
+      } else rev.steps.set(s.stepId, { ...s })
+    }
+    const first = lotSteps[0]
+    if (first) byRevision.get(first.revisionId)!.started += started.get(lotId) ?? 0
+  }
+  let weighted = 0
+  let weight = 0
+  for (const rev of byRevision.values()) {
+    const { rty } = stepYields([...rev.steps.values()])
+    if (rty === null || rev.started === 0) continue
+    weighted += rty * rev.started
+    weight += rev.started
+  }
+  return weight === 0 ? null : weighted / weight
+}
+
+/**
+ * The Yield board: every lot with a step run in the period, each with its figures over its whole
+ * history, and the KPIs over all those lots' units.
+ */
+export async function summarizeYield(query: YieldSummaryQuery): Promise<YieldSummaryDto> {
+  const lots = await lotsRunInPeriod(query)
+  const ids = lots.map((l) => l.lotId)
+  const [units, steps] = await Promise.all([lotUnitTotals(ids), lotStepTotals(ids)])
+  const total = { ...NO_UNITS }
+  const rows = lots.map((lot) => {
+    const u = units.get(lot.lotId) ?? NO_UNITS
+    for (const k of Object.keys(total) as (keyof LotUnitTotals)[]) total[k] += u[k]
+    const lotSteps = steps.get(lot.lotId) ?? []
+    return {
+      ...lot,
+      started: u.started,
+      finished: u.finished,
+      lotFpy: perUnit(u.firstPass, u.finished),
+      finalYield: perUnit(u.passed, u.finished),
+      rty: stepYields(lotSteps).rty,
+      wip: lotSteps.reduce((n, s) => n + s.wip, 0),
+    }
+  })
+  const started = new Map(lots.map((l) => [l.lotId, units.get(l.lotId)?.started ?? 0]))
+  return {
+    from: query.from,
+    to: query.to,
+    lots: rows,
+    kpis: {
+      started: total.started,
+      finished: total.finished,
+      fpy: ratioOf(total.firstPass, total.finished),
+      finalYield: ratioOf(total.passed, total.finished),
+      rty: periodRty(steps, started),
+      dpu: perUnit(total.defects, total.started),
+    },
+  }
+}

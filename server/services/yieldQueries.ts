@@ -1,0 +1,183 @@
+import { QueryTypes } from 'sequelize'
+import { FINISHED_UNIT_STATES, OPEN_UNIT_STATES, PASSED_UNIT_STATES } from '../../shared/lots'
+import type { StationKind } from '../../shared/stations'
+import type { StepYieldDto } from '../../shared/schemas/yield'
+import { db } from '../models'
+
+// Yield figures (DESIGN.md §7) aggregated in SQL over step_runs and units: each query returns a
+// row per lot, or per lot and route step, never every step run. `yield.ts` assembles the DTOs.
+
+/** One lot's unit counts: the numerators and denominators of lot FPY, final yield and DPU. */
+export interface LotUnitTotals {
+  started: number
+  finished: number
+  passed: number
+  scrapped: number
+  /** Ended passed with one passing first attempt at every route step and no other run. */
+  firstPass: number
+  /** Failed step runs. */
+  defects: number
+}
+
+/** One route step of a lot: first attempts, first-attempt passes and units there now. */
+export interface LotStepTotals extends Omit<StepYieldDto, 'fpy' | 'interval'> {
+  revisionId: string
+  stationKind: StationKind
+  wip: number
+}
+
+const STATES = {
+  finished: FINISHED_UNIT_STATES,
+  passed: PASSED_UNIT_STATES,
+  open: [...OPEN_UNIT_STATES, 'on_hold'],
+}
+
+// Postgres returns bigint counts as strings.
+interface UnitTotalsRow {
+  lot_id: string
+  started: string
+  finished: string
+  passed: string
+  scrapped: string
+  first_pass: string
+  defects: string
+}
+
+/** Unit counts per lot, keyed by lot id; a lot without units gets no entry. */
+export async function lotUnitTotals(
+  lotIds: readonly string[],
+): Promise<Map<string, LotUnitTotals>> {
+  if (!lotIds.length) return new Map()
+  const rows = await db().query<UnitTotalsRow>(
+    `WITH per_unit AS (
+       SELECT u.lot_id, u.state,
+              count(sr.id) AS runs,
+              count(sr.id) FILTER (WHERE sr.result = 'fail') AS fails,
+              coalesce(bool_and(sr.attempt = 1 AND sr.result = 'pass'), false) AS is_clean,
+              count(DISTINCT sr.step_id) AS steps_run
+         FROM units u LEFT JOIN step_runs sr ON sr.unit_id = u.id
+        WHERE u.lot_id IN (:lotIds)
+        GROUP BY u.id
+     )
+     SELECT p.lot_id,
+            count(*) FILTER (WHERE p.runs > 0) AS started,
+            count(*) FILTER (WHERE p.state IN (:finished)) AS finished,
+            count(*) FILTER (WHERE p.state IN (:passed)) AS passed,
+            count(*) FILTER (WHERE p.state = 'scrapped') AS scrapped,
+            -- Clean runs at as many steps as the route has: one first-attempt pass at each.
+            count(*) FILTER (WHERE p.state IN (:passed) AND p.is_clean AND p.steps_run = rs.n)
+              AS first_pass,
+            coalesce(sum(p.fails), 0) AS defects
+       FROM per_unit p
+       JOIN lots l ON l.id = p.lot_id
+       JOIN LATERAL (SELECT count(*) AS n FROM route_steps WHERE revision_id = l.revision_id) rs
+         ON true
+      GROUP BY p.lot_id, rs.n`,
+    { replacements: { lotIds, ...STATES }, type: QueryTypes.SELECT },
+  )
+  return new Map(
+    rows.map((r) => [
+      r.lot_id,
+      {
+        started: Number(r.started),
+        finished: Number(r.finished),
+        passed: Number(r.passed),
+        scrapped: Number(r.scrapped),
+        firstPass: Number(r.first_pass),
+        defects: Number(r.defects),
+      },
+    ]),
+  )
+}
+
+interface StepRow {
+  lot_id: string
+  revision_id: string
+  step_id: string
+  name: string
+  position: number
+  station_kind: StationKind
+  first_attempts: string | null
+  passed_first: string | null
+  wip: string | null
+}
+
+/** Every route step of each lot, in route order, keyed by lot id. */
+export async function lotStepTotals(
+  lotIds: readonly string[],
+): Promise<Map<string, LotStepTotals[]>> {
+  const byLot = new Map<string, LotStepTotals[]>(lotIds.map((id) => [id, []]))
+  if (!lotIds.length) return byLot
+  const rows = await db().query<StepRow>(
+    `SELECT l.id AS lot_id, rs.revision_id, rs.id AS step_id, rs.name, rs.position, rs.station_kind,
+            a.first_attempts, a.passed_first, w.wip
+       FROM lots l
+       JOIN route_steps rs ON rs.revision_id = l.revision_id
+       LEFT JOIN (
+         SELECT u.lot_id, sr.step_id,
+                count(*) FILTER (WHERE sr.attempt = 1) AS first_attempts,
+                count(*) FILTER (WHERE sr.attempt = 1 AND sr.result = 'pass') AS passed_first
+           FROM units u JOIN step_runs sr ON sr.unit_id = u.id
+          WHERE u.lot_id IN (:lotIds)
+          GROUP BY u.lot_id, sr.step_id
+       ) a ON a.lot_id = l.id AND a.step_id = rs.id
+       LEFT JOIN (
+         SELECT lot_id, current_step_id, count(*) AS wip
+           FROM units
+          WHERE lot_id IN (:lotIds) AND state IN (:open) AND current_step_id IS NOT NULL
+          GROUP BY lot_id, current_step_id
+       ) w ON w.lot_id = l.id AND w.current_step_id = rs.id
+      WHERE l.id IN (:lotIds)
+      ORDER BY l.id, rs.position`,
+    { replacements: { lotIds, open: STATES.open }, type: QueryTypes.SELECT },
+  )
+  for (const r of rows) {
+    byLot.get(r.lot_id)?.push({
+      revisionId: r.revision_id,
+      stepId: r.step_id,
+      name: r.name,
+      position: r.position,
+      stationKind: r.station_kind,
+      firstAttempts: Number(r.first_attempts ?? 0),
+      passedFirst: Number(r.passed_first ?? 0),
+      wip: Number(r.wip ?? 0),
+    })
+  }
+  return byLot
+}
+
+/** A lot of the board's table, with the names its row shows. */
+export interface PeriodLot {
+  lotId: string
+  number: string
+  productCode: string
+  revisionLetter: string
+}
+
+/**
+ * Lots with at least one step run finished in the period (whole UTC days, `to` included), newest
+ * lot first, optionally of one product or revision.
+ */
+export async function lotsRunInPeriod(filter: {
+  from: string
+  to: string
+  productId?: string
+  revisionId?: string
+}): Promise<PeriodLot[]> {
+  const where = [
+    `l.id IN (SELECT DISTINCT u.lot_id FROM step_runs sr JOIN units u ON u.id = sr.unit_id
+               WHERE sr.finished_at >= CAST(:from AS date)
+                 AND sr.finished_at < CAST(:to AS date) + 1)`,
+  ]
+  if (filter.productId) where.push('r.product_id = :productId')
+  if (filter.revisionId) where.push('r.id = :revisionId')
+  return db().query<PeriodLot>(
+    `SELECT l.id AS "lotId", l.number, p.code AS "productCode", r.letter AS "revisionLetter"
+       FROM lots l
+       JOIN revisions r ON r.id = l.revision_id
+       JOIN products p ON p.id = r.product_id
+      WHERE ${where.join(' AND ')}
+      ORDER BY l.created_at DESC, l.number`,
+    { replacements: { ...filter }, type: QueryTypes.SELECT },
+  )
+}
