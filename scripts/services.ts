@@ -1,12 +1,13 @@
-// CLI for the local PostgreSQL, Redis and S3 fake: `tsx scripts/services.ts start|stop|status`.
+// CLI for the local PostgreSQL, Redis, S3 fake and SMTP fake: `tsx scripts/services.ts start|stop|status`.
 import { ServiceError } from './lib/proc'
 import { serviceConfig } from './lib/serviceConfig'
 import { servicesStatus, startServices, stopServices } from './lib/services'
 
 const HELP = `usage: npm run services -- <start|stop|status>
 
-  start   install missing Debian packages (as root), start PostgreSQL, Redis and the
-          S3 fake on 127.0.0.1, create roles, databases and buckets (idempotent)
+  start   install missing Debian packages (as root), start PostgreSQL, Redis, the S3
+          fake and the SMTP fake on 127.0.0.1, create roles, databases and buckets
+          (idempotent)
   stop    stop the servers started by 'start' (found by their pid files)
   status  one line per service; exit 0 when all run, 3 otherwise
 
@@ -16,6 +17,9 @@ environment (defaults):
   WAYMARK_REDIS_PORT  56379
   WAYMARK_S3_PORT     56569
   S3_ENDPOINT         unset: run the local fake; set: use that store instead
+  WAYMARK_SMTP_PORT   2526
+  SMTP_URL            unset: run the local SMTP fake, which files mail into the
+                      database WAYMARK_DB (waymark); set: the app sends there instead
 
 secrets: $WAYMARK_DATA_DIR/secrets/db.json and session-secret (mode 0600)`
 

@@ -37,6 +37,12 @@ const EnvSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   SESSION_SECRET: z.string().min(32).optional(),
+  SMTP_URL: z.string().url().optional(),
+  // 0: no shared fake; the tests start their own and call setSmtpPortForTests().
+  WAYMARK_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2526),
+  MAIL_FROM: z.string().min(3).default('Waymark <waymark@ferncastle.example>'),
+  WAYMARK_MAIL_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(5),
+  WAYMARK_MAIL_BACKOFF_MS: z.coerce.number().int().min(10).default(30_000),
   WAYMARK_WORKERS: z.enum(['on', 'off']).default('on'),
 })
 

@@ -6,6 +6,8 @@ import { closeSessionPool } from './middleware/session'
 import { closeDb } from './models'
 import { closeRedis } from './redis'
 import { closeDocumentsQueue } from './queues/documents'
+import { closeMailQueue } from './queues/mail'
+import { closeMail } from './mail'
 import { DEMO_PASSWORD, DEMO_USERS } from './db/seed/demoUsers'
 import { startWorkers } from '../workers'
 
@@ -36,7 +38,14 @@ async function main(): Promise<void> {
     server.close()
     server.closeAllConnections()
     await workers?.close()
-    await Promise.allSettled([closeDb(), closeSessionPool(), closeRedis(), closeDocumentsQueue()])
+    closeMail()
+    await Promise.allSettled([
+      closeDb(),
+      closeSessionPool(),
+      closeRedis(),
+      closeDocumentsQueue(),
+      closeMailQueue(),
+    ])
     process.exit(0)
   }
   process.on('SIGINT', () => void stop('SIGINT'))

@@ -20,6 +20,7 @@ export const PERMISSIONS = {
   recordStepRuns: ['operator', 'lead', 'engineer'],
   readNonconformances: ['lead', 'engineer', 'admin', 'service'],
   disposeNonconformances: ['lead', 'engineer'],
+  readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
 } as const satisfies Record<string, readonly Role[]>
 

@@ -2,8 +2,10 @@ import { fileURLToPath } from 'node:url'
 import type { Worker } from 'bullmq'
 import { logger } from '../server/logger'
 import { closeDocumentsQueue } from '../server/queues/documents'
+import { closeMailQueue } from '../server/queues/mail'
 import { newQueueConnection } from '../server/redis'
 import { startDocumentsWorker } from './documents'
+import { startMailWorker } from './mail'
 import { scheduleMaintenance, startMaintenanceWorker } from './maintenance'
 
 /** Starts every queue's worker on one fresh Redis connection; `close()` drains them. */
@@ -11,15 +13,18 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   const connection = newQueueConnection()
   await scheduleMaintenance(connection)
   const documents = startDocumentsWorker(connection)
-  const workers: Worker[] = [startMaintenanceWorker(connection), documents.worker]
+  const mail = startMailWorker(connection)
+  const workers: Worker[] = [startMaintenanceWorker(connection), documents.worker, mail.worker]
   for (const w of workers)
     w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
   logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
   return {
     close: async () => {
       documents.stop()
+      mail.stop()
       await Promise.all(workers.map((w) => w.close()))
       await closeDocumentsQueue()
+      await closeMailQueue()
       await connection.quit()
     },
   }

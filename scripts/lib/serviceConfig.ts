@@ -26,6 +26,12 @@ export interface ServiceConfig {
   s3Dir: string
   s3PidFile: string
   s3LogFile: string
+  smtpPort: number
+  smtpDir: string
+  smtpPidFile: string
+  smtpLogFile: string
+  /** SMTP_URL is set: mail goes to that server and no local fake is run. */
+  isSmtpExternal: boolean
   /** S3_ENDPOINT when set (then no local fake is run), else the local fake's URL. */
   s3Endpoint: string
   isS3External: boolean
@@ -99,6 +105,11 @@ export function serviceConfig(): ServiceConfig {
     s3Dir: join(dataDir, 's3'),
     s3PidFile: join(dataDir, 's3', 's3rver.pid'),
     s3LogFile: join(dataDir, 's3', 's3rver.log'),
+    smtpPort: portFromEnv('WAYMARK_SMTP_PORT', 2526),
+    smtpDir: join(dataDir, 'smtp'),
+    smtpPidFile: join(dataDir, 'smtp', 'smtp-fake.pid'),
+    smtpLogFile: join(dataDir, 'smtp', 'smtp-fake.log'),
+    isSmtpExternal: Boolean(process.env.SMTP_URL),
     s3Endpoint: externalS3 || `http://127.0.0.1:${s3Port}`,
     isS3External: Boolean(externalS3),
     secretsDir,
@@ -121,6 +132,7 @@ export function serviceEnv(config: ServiceConfig): Record<string, string> {
     WAYMARK_PG_PORT: String(config.pgPort),
     WAYMARK_REDIS_PORT: String(config.redisPort),
     WAYMARK_S3_PORT: String(config.s3Port),
+    WAYMARK_SMTP_PORT: String(config.smtpPort),
     S3_BUCKET: process.env.S3_BUCKET || 'waymark',
     // The pinned AWS SDK works on Node 20; its notice about later releases is noise here.
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED:

@@ -7,6 +7,7 @@ import { provisionPostgres } from './pgProvision'
 import { redisState, startRedis, stopRedis } from './redis'
 import { s3State, startS3, stopS3 } from './s3'
 import type { DbSecrets } from './secrets'
+import { smtpState, startSmtp, stopSmtp } from './smtp'
 import { ensureDbSecrets, ensureSessionSecret } from './secrets'
 
 export interface ServicesOptions {
@@ -21,8 +22,8 @@ export interface StartedServices {
 }
 
 /**
- * Installs missing Debian packages (as root), then starts PostgreSQL, Redis and the S3 fake
- * on loopback and provisions roles, databases and buckets. Idempotent: running services are
+ * Installs missing Debian packages (as root), then starts PostgreSQL, Redis, the S3 fake and
+ * the SMTP fake on loopback and provisions roles, databases and buckets. Idempotent: running services are
  * reused, never duplicated. Throws ServiceError with a readable message on failure.
  */
 export async function startServices(opts: ServicesOptions = {}): Promise<StartedServices> {
@@ -35,6 +36,7 @@ export async function startServices(opts: ServicesOptions = {}): Promise<Started
   await provisionPostgres(config, secrets, log)
   await startRedis(config, log)
   await startS3(config, log)
+  await startSmtp(config, log) // files mail in the database and the object store: start it last
   return { config, secrets }
 }
 
@@ -42,6 +44,7 @@ export async function startServices(opts: ServicesOptions = {}): Promise<Started
 export async function stopServices(opts: ServicesOptions = {}): Promise<void> {
   const log = opts.log ?? console.log
   const config = opts.config ?? serviceConfig()
+  await stopSmtp(config, log)
   await stopS3(config, log)
   await stopRedis(config, log)
   await stopPostgres(config, log)
@@ -49,5 +52,5 @@ export async function stopServices(opts: ServicesOptions = {}): Promise<void> {
 
 /** One state per service, read from pid files and liveness probes. */
 export function servicesStatus(config: ServiceConfig = serviceConfig()): ServiceState[] {
-  return [postgresState(config), redisState(config), s3State(config)]
+  return [postgresState(config), redisState(config), s3State(config), smtpState(config)]
 }

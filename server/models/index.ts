@@ -21,6 +21,7 @@ import { initMeasurement, Measurement } from './Measurement'
 import { Consumption, initConsumption } from './Consumption'
 import { initNonconformance, Nonconformance } from './Nonconformance'
 import { Document, initDocument } from './Document'
+import { Email, initEmail } from './Email'
 
 export {
   AuditEvent,
@@ -37,7 +38,7 @@ export {
   User,
   Winding,
 }
-export { Consumption, Document, Lot, Measurement, Nonconformance, StepRun, Unit }
+export { Consumption, Document, Email, Lot, Measurement, Nonconformance, StepRun, Unit }
 
 let instance: Sequelize | undefined
 
@@ -88,6 +89,7 @@ export function db(): Sequelize {
     initConsumption,
     initNonconformance,
     initDocument,
+    initEmail,
   ])
     init(instance)
   associate()

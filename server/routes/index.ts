@@ -10,6 +10,7 @@ import { apiRouters } from './registry'
 import { revisionRoutes } from './revisions'
 import { stationRoutes } from './stations'
 import { userRoutes } from './users'
+import { outboxRoutes } from './outbox'
 import { lotRoutes } from './lots'
 import { floorRoutes, stepRunRoutes } from './floor'
 import { nonconformanceRoutes } from './nonconformances'
@@ -37,6 +38,8 @@ void [
 ]
 
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
+
+void [outboxRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

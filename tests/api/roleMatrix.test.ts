@@ -89,6 +89,9 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/lots/:id/documents', who: ['lead'] },
   { method: 'get', path: '/api/documents/:id', who: ['lead', 'engineer', 'admin', 'service'] },
   { method: 'get', path: '/api/documents/:id/file', who: ['lead', 'engineer', 'admin', 'service'] },
+  { method: 'get', path: '/api/outbox', who: ['admin', 'service'] },
+  { method: 'get', path: '/api/outbox/:id', who: ['admin', 'service'] },
+  { method: 'get', path: '/api/outbox/:id/attachments/:index', who: ['admin', 'service'] },
   {
     method: 'get',
     path: '/api/floor/units/:serial',

@@ -1,0 +1,34 @@
+import { z } from 'zod'
+import { PERMISSIONS } from '../../shared/permissions'
+import { IdParam } from '../../shared/schemas/common'
+import { OutboxQuery } from '../../shared/schemas/outbox'
+import { parse } from '../middleware/validate'
+import { emailAttachment, getEmail, listEmails } from '../services/outbox'
+import { getFile } from '../storage'
+import { apiRoutes } from './registry'
+
+export const outboxRoutes = apiRoutes('/outbox')
+
+const AttachmentIndex = z.coerce.number().int().min(0).max(999)
+
+outboxRoutes.get('/', PERMISSIONS.readOutbox, async (req, res) => {
+  res.json(await listEmails(parse(OutboxQuery, req.query)))
+})
+outboxRoutes.get('/:id', PERMISSIONS.readOutbox, async (req, res) => {
+  res.json(await getEmail(parse(IdParam, req.params.id)))
+})
+outboxRoutes.get('/:id/attachments/:index', PERMISSIONS.readOutbox, async (req, res) => {
+  const a = await emailAttachment(
+    parse(IdParam, req.params.id),
+    parse(AttachmentIndex, req.params.index),
+  )
+  const file = await getFile(a.storageKey)
+  // Always a download: a received attachment is whatever a sender put in, HTML included.
+  res.type(a.contentType)
+  res.setHeader('X-Content-Type-Options', 'nosniff')
+  res.setHeader(
+    'Content-Disposition',
+    `attachment; filename="${a.filename.replace(/["\\\r\n]/g, '_')}"`,
+  )
+  res.send(file.body)
+})
