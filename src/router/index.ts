@@ -90,6 +90,12 @@ export const router = createRouter({
       component: () => import('@/views/Receiving/ReceivingView.vue'),
     },
     {
+      path: '/outbox',
+      name: 'outbox',
+      meta: { roles: rolesOf('outbox') },
+      component: () => import('@/views/Outbox/OutboxView.vue'),
+    },
+    {
       path: '/admin/stations',
       name: 'stations',
       meta: { roles: rolesOf('stations') },

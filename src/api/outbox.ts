@@ -1,0 +1,19 @@
+import type { EmailDto, OutboxPageDto, OutboxQuery } from '@shared/schemas/outbox'
+import { request } from './client'
+
+export const outboxApi = {
+  /** Admin and service: one page of e-mails, newest first; no status means every status. */
+  list: (query: OutboxQuery) => {
+    const params = new URLSearchParams({
+      page: String(query.page),
+      pageSize: String(query.pageSize),
+    })
+    if (query.status) params.set('status', query.status)
+    return request<OutboxPageDto>(`/outbox?${params}`)
+  },
+  /** One e-mail with its bodies and the list of its attachments. */
+  get: (id: string) => request<EmailDto>(`/outbox/${encodeURIComponent(id)}`),
+  /** Where the browser downloads an attachment; the server always sends it as a download. */
+  attachmentUrl: (id: string, index: number) =>
+    `/api/outbox/${encodeURIComponent(id)}/attachments/${index}`,
+}

@@ -1,0 +1,89 @@
+import { defineStore } from 'pinia'
+import { ref } from 'vue'
+import type { EmailDto, EmailStatus, EmailSummaryDto } from '@shared/schemas/outbox'
+import { outboxApi } from '@/api/outbox'
+
+export const useOutboxStore = defineStore('outbox', () => {
+  /** E-mails of the current page, newest first. */
+  const rows = ref<EmailSummaryDto[]>([])
+  /** E-mails matching the filter, over all pages. */
+  const total = ref(0)
+  const page = ref(1)
+  const pageSize = ref(50)
+  /** The status filter; an empty string means any status. */
+  const status = ref<EmailStatus | ''>('')
+  /** True while a page is being fetched. */
+  const isLoading = ref(false)
+  /** The id of the e-mail open in the detail panel, or null when it is closed. */
+  const openId = ref<string | null>(null)
+  /** The open e-mail once it has loaded. */
+  const current = ref<EmailDto | null>(null)
+  /** True while the open e-mail is being fetched. */
+  const isCurrentLoading = ref(false)
+
+  /** Fetches the current page with the current filter; throws ApiError. */
+  async function fetchPage() {
+    isLoading.value = true
+    try {
+      const result = await outboxApi.list({
+        page: page.value,
+        pageSize: pageSize.value,
+        status: status.value || undefined,
+      })
+      rows.value = result.rows
+      total.value = result.total
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Applies a changed filter from the first page. */
+  async function search() {
+    page.value = 1
+    await fetchPage()
+  }
+
+  /** Opens one e-mail in the detail panel; throws ApiError and closes the panel on failure. */
+  async function open(id: string) {
+    openId.value = id
+    current.value = null
+    isCurrentLoading.value = true
+    try {
+      const email = await outboxApi.get(id)
+      // Another row may have been clicked while this one loaded; the latest click wins.
+      if (openId.value === id) current.value = email
+    } catch (error) {
+      if (openId.value === id) openId.value = null
+      throw error
+    } finally {
+      if (openId.value === id || openId.value === null) isCurrentLoading.value = false
+    }
+  }
+
+  function close() {
+    openId.value = null
+    current.value = null
+  }
+
+  /** Download address of the open e-mail's attachment at `index`. */
+  function attachmentUrl(index: number): string {
+    return current.value ? outboxApi.attachmentUrl(current.value.id, index) : ''
+  }
+
+  return {
+    rows,
+    total,
+    page,
+    pageSize,
+    status,
+    isLoading,
+    openId,
+    current,
+    isCurrentLoading,
+    fetchPage,
+    search,
+    open,
+    close,
+    attachmentUrl,
+  }
+})
