@@ -6,7 +6,7 @@ import {
   StepOrderInput,
   WindingInput,
 } from '../../shared/schemas/recipes'
-import { PERMISSIONS } from '../../shared/permissions'
+import { can, PERMISSIONS } from '../../shared/permissions'
 import { AppError } from '../errors'
 import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
@@ -31,10 +31,7 @@ const id = (p: { id?: string }) => parse(IdParam, p.id)
 revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
   const rev = await getRevision(id(req.params))
   // Operators, stores and service see what is built: released (or retired) revisions only.
-  if (
-    rev.status === 'draft' &&
-    !PERMISSIONS.readReleaseCheck.includes(signedInUser(req).role as never)
-  )
+  if (rev.status === 'draft' && !can(signedInUser(req).role, 'readReleaseCheck'))
     throw AppError.notFound(`revision ${rev.id}`)
   res.json(rev)
 })

@@ -2,23 +2,12 @@ import { QueryTypes } from 'sequelize'
 import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../shared/schemas/lots'
 import { codeFromScan } from '../../shared/links'
 import { AppError } from '../errors'
-import {
-  BomLine,
-  Check,
-  ComponentLot,
-  db,
-  Lot,
-  Part,
-  Product,
-  Revision,
-  RouteStep,
-  Station,
-  Winding,
-} from '../models'
+import { BomLine, ComponentLot, db, Lot, Part, Product, Revision, Station } from '../models'
 import { todayIso } from './componentLots'
 import { componentLotRefusal } from './consumptions'
 import { unitRefusal } from './floorRules'
-import { toBomLineDto, toStepDto, toWindingDto } from './recipePresenters'
+import { toBomLineDto } from './recipePresenters'
+import { stepPlan, toStepDtoOf } from './stepPlans'
 import { findUnitByScan } from './stepRuns'
 import { unitSummary } from './unitMoves'
 
@@ -35,9 +24,7 @@ export async function floorUnit(scanned: string, stationCode: string): Promise<F
   const lot = (await Lot.findByPk(unit.lotId, {
     include: [{ model: Revision, as: 'revision', include: [{ model: Product, as: 'product' }] }],
   }))!
-  const step = unit.currentStepId
-    ? await RouteStep.findByPk(unit.currentStepId, { include: [{ model: Check, as: 'checks' }] })
-    : null
+  const step = unit.currentStepId ? await stepPlan(unit.currentStepId) : null
   const refusal = unitRefusal(unit, lot, step, station)
   const summary = await unitSummary(unit)
   const header = {
@@ -50,21 +37,9 @@ export async function floorUnit(scanned: string, stationCode: string): Promise<F
   }
   if (refusal || !step)
     return { unit: header, refusal: refusal?.message ?? null, step: null, bom: [], windings: [] }
-  const [bom, windings] = await Promise.all([
-    BomLine.findAll({
-      where: { fittedAtStepId: step.id },
-      include: [{ model: Part, as: 'part' }],
-      order: [['position', 'ASC']],
-    }),
-    Winding.findAll({ where: { revisionId: lot.revisionId }, order: [['position', 'ASC']] }),
-  ])
-  return {
-    unit: header,
-    refusal: null,
-    step: toStepDto(step),
-    bom: bom.map(toBomLineDto),
-    windings: windings.map(toWindingDto),
-  }
+  const { windings, bomLines } = step
+  const stepDto = toStepDtoOf(step)
+  return { unit: header, refusal: null, step: stepDto, bom: bomLines.map(toBomLineDto), windings }
 }
 
 /** A scanned component lot as the Floor checks it against a bill-of-materials line. */

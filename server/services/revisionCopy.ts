@@ -2,10 +2,12 @@ import { randomUUID } from 'node:crypto'
 import type { Transaction } from 'sequelize'
 import { BomLine, Check, RouteStep, Winding } from '../models'
 import type { Revision } from '../models'
+import { toCheckDto, toStepDto, toWindingDto } from './recipePresenters'
 
 /**
  * Copies windings, steps, checks and bill-of-materials lines of `source` under `targetId` with
  * new ids, remapping every reference (derived-formula windings, fitted-at steps) to the copies.
+ * The presenters list the copied fields, so a field added to a recipe record is copied too.
  */
 export async function copyRecipe(
   source: Revision,
@@ -20,30 +22,18 @@ export async function copyRecipe(
     return id
   }
   await Winding.bulkCreate(
-    (source.windings ?? []).map((w) => ({
-      id: newId(windingIds, w.id),
-      revisionId: targetId,
-      position: w.position,
-      name: w.name,
-      nominalTurns: w.nominalTurns,
-      alNanoHenry: w.alNanoHenry,
-      alTolerancePercent: w.alTolerancePercent,
-      coreAreaMm2: w.coreAreaMm2,
-    })),
+    (source.windings ?? []).map((w) => {
+      const { id, ...fields } = toWindingDto(w)
+      return { ...fields, id: newId(windingIds, id), revisionId: targetId }
+    }),
     { transaction },
   )
   const steps = source.steps ?? []
   await RouteStep.bulkCreate(
-    steps.map((s) => ({
-      id: newId(stepIds, s.id),
-      revisionId: targetId,
-      position: s.position,
-      name: s.name,
-      stationKind: s.stationKind,
-      instructions: s.instructions,
-      safetyNote: s.safetyNote,
-      requiresSignoff: s.requiresSignoff,
-    })),
+    steps.map((s) => {
+      const { id, checks: _checks, ...fields } = toStepDto(s, [])
+      return { ...fields, id: newId(stepIds, id), revisionId: targetId }
+    }),
     { transaction },
   )
   const remapInputs = (inputs: Record<string, string> | null) =>
@@ -51,22 +41,15 @@ export async function copyRecipe(
     Object.fromEntries(Object.entries(inputs).map(([k, v]) => [k, windingIds.get(v) ?? v]))
   await Check.bulkCreate(
     steps.flatMap((s) =>
-      (s.checks ?? []).map((c) => ({
-        revisionId: targetId,
-        stepId: stepIds.get(s.id)!,
-        position: c.position,
-        key: c.key,
-        label: c.label,
-        kind: c.kind,
-        unit: c.unit,
-        nominal: c.nominal,
-        lower: c.lower,
-        upper: c.upper,
-        decimals: c.decimals,
-        choices: c.choices,
-        derived: c.derived,
-        derivedInputs: remapInputs(c.derivedInputs),
-      })),
+      (s.checks ?? []).map((c) => {
+        const { id: _id, stepId, derivedInputs, ...fields } = toCheckDto(c)
+        return {
+          ...fields,
+          revisionId: targetId,
+          stepId: stepIds.get(stepId)!,
+          derivedInputs: remapInputs(derivedInputs),
+        }
+      }),
     ),
     { transaction },
   )

@@ -1,19 +1,12 @@
 import type { Transaction } from 'sequelize'
 import type { StepRefDto } from '../../shared/schemas/lots'
-import type { CheckDto, WindingDto } from '../../shared/schemas/recipes'
-import type { StationKind } from '../../shared/stations'
+import type { StepDto, WindingDto } from '../../shared/schemas/recipes'
 import { BomLine, Check, Part, Revision, RouteStep, Winding } from '../models'
-import { toCheckDto, toWindingDto } from './recipePresenters'
+import { toStepDto, toWindingDto } from './recipePresenters'
 
 /** Everything the Floor needs to know about one step of a released route. */
-export interface StepPlan {
-  id: string
+export interface StepPlan extends StepDto {
   revisionId: string
-  name: string
-  stationKind: StationKind
-  position: number
-  requiresSignoff: boolean
-  checks: CheckDto[]
   windings: WindingDto[]
   bomLines: BomLine[]
   next: StepRefDto | null
@@ -55,13 +48,8 @@ export async function stepPlan(
     transaction,
   })
   const plan: StepPlan = {
-    id: step.id,
+    ...toStepDto(step),
     revisionId: step.revisionId,
-    name: step.name,
-    stationKind: step.stationKind,
-    position: step.position,
-    requiresSignoff: step.requiresSignoff,
-    checks: [...(step.checks ?? [])].sort((a, b) => a.position - b.position).map(toCheckDto),
     windings: windings.map(toWindingDto),
     bomLines,
     next: next
@@ -73,4 +61,11 @@ export async function stepPlan(
     plans.set(stepId, plan)
   }
   return plan
+}
+
+/** The StepDto part of a plan, for the Floor's preview (the plan carries more). */
+export function toStepDtoOf(plan: StepPlan): StepDto {
+  const { id, position, name, stationKind, instructions, safetyNote, requiresSignoff, checks } =
+    plan
+  return { id, position, name, stationKind, instructions, safetyNote, requiresSignoff, checks }
 }

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto'
 import { PDFParse } from 'pdf-parse'
+import type { Response } from 'superagent'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { isValidMod3736 } from '../../shared/checkCharacter'
 import type { ComponentLotDto } from '../../shared/schemas/receiving'
@@ -15,6 +16,14 @@ const PNG = Buffer.from(
   '89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d49444154789c6360000002000154a24f5d0000000049454e44ae426082',
   'hex',
 )
+
+/** Collects a response body as raw bytes (superagent would try to parse a PDF as text). */
+function asBytes(res: Response, done: (err: Error | null, body: unknown) => void): void {
+  const chunks: Buffer[] = []
+  const stream = res as unknown as NodeJS.ReadableStream
+  stream.on('data', (c: Buffer) => chunks.push(c))
+  stream.on('end', () => done(null, Buffer.concat(chunks)))
+}
 
 describe('receiving', () => {
   let stores: TestClient
@@ -137,11 +146,7 @@ describe('receiving', () => {
     const file = await service
       .get(`/api/component-lots/${lot.id}/certificate`)
       .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = []
-        r.on('data', (c: Buffer) => chunks.push(c))
-        r.on('end', () => cb(null, Buffer.concat(chunks)))
-      })
+      .parse(asBytes)
     expect(file.status).toBe(200)
     expect(Buffer.compare(file.body as Buffer, PDF)).toBe(0)
     const png = await stores
@@ -171,11 +176,7 @@ describe('receiving', () => {
     const res = await stores
       .get(`/api/component-lots/${lot.id}/label.pdf`)
       .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = []
-        r.on('data', (c: Buffer) => chunks.push(c))
-        r.on('end', () => cb(null, Buffer.concat(chunks)))
-      })
+      .parse(asBytes)
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toMatch(/application\/pdf/)
     const parser = new PDFParse({ data: res.body as Buffer })
