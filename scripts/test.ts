@@ -2,7 +2,7 @@
 // The last line printed is always `tests: N passed, M failed`.
 import { ensurePackages } from './lib/debian'
 import { ServiceError } from './lib/proc'
-import { serviceEnv } from './lib/serviceConfig'
+import { serviceEnv, testNames } from './lib/serviceConfig'
 import type { ServiceConfig } from './lib/serviceConfig'
 import { startServices } from './lib/services'
 import { bin, flagValue, prepareDatabase, runStep } from './lib/steps'
@@ -11,7 +11,8 @@ import { PHASES, runVitestPhase } from './lib/vitestRun'
 
 const HELP = `usage: npm test [-- --only unit|api|e2e[,…]] [-- --skip-checks]
 
-Starts the services, resets and seeds the "waymark_test" database, runs typecheck and lint,
+Starts the services, resets and seeds the "waymark_test" database (waymark_laneN_test with
+WAYMARK_TEST_LANE=N, for a second checkout testing at the same time), runs typecheck and lint,
 builds the client (the e2e tests serve dist/), then vitest's unit, api and e2e projects.
 Exits non-zero when any test or step fails or no test ran.
 
@@ -48,12 +49,13 @@ async function run(
     steps.push({ name: 'services', exitCode: 1 })
     return { passed, failed: failed + 1, steps }
   }
+  const names = testNames()
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     ...serviceEnv(config),
-    WAYMARK_DB: 'waymark_test',
-    WAYMARK_REDIS_PREFIX: 'waymark-test',
-    S3_BUCKET: 'waymark-test',
+    WAYMARK_DB: names.db,
+    WAYMARK_REDIS_PREFIX: names.redisPrefix,
+    S3_BUCKET: names.bucket,
     NODE_ENV: 'test',
     WAYMARK_SMTP_PORT: '0',
     // Anything that listens picks a free port: never the 4870 of a running `npm start`.

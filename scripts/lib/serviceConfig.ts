@@ -45,6 +45,29 @@ export interface ServiceConfig {
 export const DATABASES = ['waymark', 'waymark_test', 'waymark_bench_test'] as const
 export const BUCKETS = ['waymark', 'waymark-test'] as const
 
+/**
+ * WAYMARK_TEST_LANE=1…9 gives `npm test` its own database, Redis prefix and bucket
+ * (waymark_lane1_test, waymark-lane1-test), so two checkouts on one machine can test at once.
+ */
+export function testLane(): string | null {
+  const raw = process.env.WAYMARK_TEST_LANE
+  if (raw === undefined || raw === '') return null
+  if (!/^[1-9]$/.test(raw)) throw new Error(`WAYMARK_TEST_LANE must be 1-9, got "${raw}"`)
+  return raw
+}
+
+/** Database, Redis prefix and bucket names of the test run (lane-suffixed when set). */
+export function testNames(): { db: string; redisPrefix: string; bucket: string } {
+  const lane = testLane()
+  return lane
+    ? {
+        db: `waymark_lane${lane}_test`,
+        redisPrefix: `waymark-lane${lane}-test`,
+        bucket: `waymark-lane${lane}-test`,
+      }
+    : { db: 'waymark_test', redisPrefix: 'waymark-test', bucket: 'waymark-test' }
+}
+
 function portFromEnv(name: string, fallback: number): number {
   const raw = process.env[name]
   if (raw === undefined || raw === '') return fallback
@@ -115,8 +138,8 @@ export function serviceConfig(): ServiceConfig {
     secretsDir,
     dbSecretsFile: join(secretsDir, 'db.json'),
     sessionSecretFile: join(secretsDir, 'session-secret'),
-    databases: DATABASES,
-    buckets: BUCKETS,
+    databases: testLane() ? [...DATABASES, testNames().db] : DATABASES,
+    buckets: testLane() ? [...BUCKETS, testNames().bucket] : BUCKETS,
   }
 }
 

@@ -17,6 +17,7 @@ export class Lot extends Model<InferAttributes<Lot>, InferCreationAttributes<Lot
   declare quantity: number
   declare orderRef: string
   declare customerName: string
+  declare customerId: CreationOptional<string | null>
   declare dueDate: string | null
   declare status: CreationOptional<LotStatus>
   declare isOnHold: CreationOptional<boolean>
@@ -38,6 +39,7 @@ export function initLot(sequelize: Sequelize): void {
       revisionId: { type: DataTypes.UUID, allowNull: false },
       quantity: { type: DataTypes.INTEGER, allowNull: false },
       orderRef: { type: DataTypes.STRING(80), allowNull: false, defaultValue: '' },
+      customerId: { type: DataTypes.UUID, allowNull: true },
       customerName: { type: DataTypes.STRING(120), allowNull: false, defaultValue: '' },
       dueDate: { type: DataTypes.DATEONLY, allowNull: true },
       status: { type: DataTypes.ENUM(...LOT_STATUSES), allowNull: false, defaultValue: 'planned' },

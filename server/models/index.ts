@@ -22,6 +22,9 @@ import { Consumption, initConsumption } from './Consumption'
 import { initNonconformance, Nonconformance } from './Nonconformance'
 import { Document, initDocument } from './Document'
 import { Email, initEmail } from './Email'
+import { Customer, initCustomer } from './Customer'
+import { initShipment, initShipmentUnit, Shipment, ShipmentUnit } from './Shipment'
+import { initServiceCase, ServiceCase } from './ServiceCase'
 
 export {
   AuditEvent,
@@ -39,6 +42,7 @@ export {
   Winding,
 }
 export { Consumption, Document, Email, Lot, Measurement, Nonconformance, StepRun, Unit }
+export { Customer, ServiceCase, Shipment, ShipmentUnit }
 
 let instance: Sequelize | undefined
 
@@ -57,6 +61,11 @@ function associate(): void {
   Lot.belongsTo(Revision, { as: 'revision', foreignKey: 'revisionId' })
   Unit.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' })
   Unit.belongsTo(RouteStep, { as: 'currentStep', foreignKey: 'currentStepId' })
+  Lot.belongsTo(Customer, { as: 'customer', foreignKey: 'customerId' })
+  Shipment.belongsTo(Customer, { as: 'customer', foreignKey: 'customerId' })
+  Shipment.hasMany(ShipmentUnit, { as: 'units', foreignKey: 'shipmentId' })
+  ServiceCase.belongsTo(Unit, { as: 'unit', foreignKey: 'unitId' })
+  ServiceCase.belongsTo(Customer, { as: 'customer', foreignKey: 'customerId' })
 }
 
 /** The app's Sequelize instance (connected as the app's own, non-owner role), made on first use. */
@@ -90,6 +99,10 @@ export function db(): Sequelize {
     initNonconformance,
     initDocument,
     initEmail,
+    initCustomer,
+    initShipment,
+    initShipmentUnit,
+    initServiceCase,
   ])
     init(instance)
   associate()

@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { PageQuery } from './common'
 
 /** Where an e-mail row stands: waiting for the worker, delivered, given up, or caught by the fake. */
-export const EMAIL_STATUSES = ['queued', 'sent', 'failed', 'received'] as const
+export const EMAIL_STATUSES = ['draft', 'queued', 'sent', 'failed', 'received'] as const
 export type EmailStatus = (typeof EMAIL_STATUSES)[number]
 
 /** Mail the app sends; incoming mail would add a direction. */
