@@ -54,8 +54,27 @@ export const GRID_CELLS = [
 ] as const
 export type GridCell = (typeof GRID_CELLS)[number]
 
-export const DOCUMENT_KINDS = ['travelers', 'labels'] as const
+/**
+ * Kinds of generated PDF. Lot documents (travelers, labels, lot report) carry a lot id; a
+ * certificate or packing slip carries a shipment id or a unit id; a unit history a unit id.
+ */
+export const DOCUMENT_KINDS = [
+  'travelers',
+  'labels',
+  'lot_report',
+  'certificate',
+  'packing_slip',
+  'unit_history',
+] as const
 export type DocumentKind = (typeof DOCUMENT_KINDS)[number]
+export const DOCUMENT_KIND_LABELS: Record<DocumentKind, string> = {
+  travelers: 'Travelers',
+  labels: 'Serial labels',
+  lot_report: 'Lot report',
+  certificate: 'Certificate of conformance',
+  packing_slip: 'Packing slip',
+  unit_history: 'Unit history record',
+}
 export const DOCUMENT_STATUSES = ['queued', 'running', 'done', 'failed'] as const
 export type DocumentStatus = (typeof DOCUMENT_STATUSES)[number]
 

@@ -13,6 +13,7 @@ export class Document extends Model<InferAttributes<Document>, InferCreationAttr
   declare kind: DocumentKind
   declare lotId: string | null
   declare unitId: string | null
+  declare shipmentId: CreationOptional<string | null>
   declare layout: string | null
   declare status: CreationOptional<DocumentStatus>
   declare progress: CreationOptional<number>
@@ -34,6 +35,7 @@ export function initDocument(sequelize: Sequelize): void {
       kind: { type: DataTypes.STRING(20), allowNull: false },
       lotId: { type: DataTypes.UUID, allowNull: true },
       unitId: { type: DataTypes.UUID, allowNull: true },
+      shipmentId: { type: DataTypes.UUID, allowNull: true },
       layout: { type: DataTypes.STRING(20), allowNull: true },
       status: {
         type: DataTypes.ENUM(...DOCUMENT_STATUSES),

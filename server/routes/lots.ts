@@ -11,7 +11,12 @@ import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { db } from '../models'
-import { listLotDocuments, requestDocument, toDocumentDto } from '../services/documents'
+import {
+  listLotDocuments,
+  lotPrintFilename,
+  requestDocument,
+  toDocumentDto,
+} from '../services/documents'
 import { lotGrid, listLotUnits } from '../services/lotGrid'
 import {
   closeLot,
@@ -68,7 +73,12 @@ lotRoutes.post('/:id/documents', edit, async (req, res) => {
   const lot = await getLot(id(req.params))
   const doc = await db().transaction((t) =>
     requestDocument(
-      { kind: input.kind, lotId: lot.id, lotNumber: lot.number, layout: input.layout },
+      {
+        kind: input.kind,
+        lotId: lot.id,
+        layout: input.layout,
+        filename: lotPrintFilename(lot.number, input.kind, input.layout),
+      },
       actorOf(req),
       t,
     ),

@@ -1,13 +1,8 @@
 import { Op } from 'sequelize'
-import { labelSheetPdf } from '../documents/labelSheet'
-import type { LabelLayout } from '../documents/labelSheet'
-import { travelersPdf } from '../documents/travelers'
-import { env } from '../env'
+import { RENDERERS } from '../documents/renderers'
 import { logger } from '../logger'
-import { Document, Lot, Unit } from '../models'
+import { Document } from '../models'
 import { putFile } from '../storage'
-import { loadRevision } from './revisionAccess'
-import { toRevisionDto } from './recipePresenters'
 
 /**
  * Makes one document's PDF and stores it. Safe to run twice: a finished document is left as
@@ -21,15 +16,9 @@ export async function renderDocument(
   const doc = await Document.findByPk(id)
   if (!doc) throw new Error(`document ${id} does not exist`)
   if (doc.status === 'done') return
+  const render = RENDERERS[doc.kind]
+  if (!render) throw new Error(`no renderer for documents of kind ${doc.kind}`)
   await doc.update({ status: 'running', progress: 0, error: null })
-  const lot = (await Lot.findByPk(doc.lotId!))!
-  const rev = toRevisionDto(await loadRevision(lot.revisionId))
-  const units = await Unit.findAll({
-    where: { lotId: lot.id },
-    attributes: ['serial'],
-    order: [['serial', 'ASC']],
-  })
-  const issuedAt = lot.releasedAt ?? lot.createdAt
   let last = -1
   const progress = async (fraction: number) => {
     const percent = Math.min(99, Math.floor(fraction * 100))
@@ -38,36 +27,7 @@ export async function renderDocument(
     await doc.update({ progress: percent })
     await onProgress(percent)
   }
-  const pdf =
-    doc.kind === 'travelers'
-      ? await travelersPdf(
-          {
-            product: { code: rev.productCode, name: rev.productName },
-            revision: { letter: rev.letter },
-            lot: {
-              number: lot.number,
-              orderRef: lot.orderRef,
-              customerName: lot.customerName,
-              dueDate: lot.dueDate,
-            },
-            steps: rev.steps,
-            units: units.map((u) => ({ serial: u.serial })),
-            baseUrl: env.publicBaseUrl,
-            issuedAt,
-          },
-          progress,
-        )
-      : await labelSheetPdf(
-          {
-            productCode: rev.productCode,
-            lotNumber: lot.number,
-            serials: units.map((u) => u.serial),
-            baseUrl: env.publicBaseUrl,
-            layout: (doc.layout ?? 'a4_3x8') as LabelLayout,
-            issuedAt,
-          },
-          progress,
-        )
+  const pdf = await render(doc, progress)
   const stored = await putFile('documents', pdf, 'application/pdf')
   await doc.update({
     status: 'done',

@@ -22,23 +22,42 @@ export function toDocumentDto(d: Document): DocumentDto {
   }
 }
 
+/** What a document is of: a lot's prints, or a shipment's or unit's papers. */
+export interface DocumentSpec {
+  kind: DocumentKind
+  filename: string
+  lotId?: string
+  unitId?: string
+  shipmentId?: string
+  layout?: LabelLayoutKey
+}
+
+/** The file name of a lot's travelers or label sheet, e.g. `L-0042-labels-a4_3x8.pdf`. */
+export function lotPrintFilename(
+  lotNumber: string,
+  kind: 'travelers' | 'labels',
+  layout?: LabelLayoutKey,
+): string {
+  return `${lotNumber}-${kind === 'labels' ? `labels-${layout ?? 'a4_3x8'}` : kind}.pdf`
+}
+
 /**
  * Writes a `queued` document row in the caller's transaction and enqueues its job once that
  * transaction commits, so the worker never looks for a row that is not there yet.
  */
 export async function requestDocument(
-  spec: { kind: DocumentKind; lotId: string; lotNumber: string; layout?: LabelLayoutKey },
+  spec: DocumentSpec,
   actor: Actor,
   transaction: Transaction,
 ): Promise<Document> {
-  const suffix = spec.kind === 'labels' ? `labels-${spec.layout}` : spec.kind
   const doc = await Document.create(
     {
       kind: spec.kind,
-      lotId: spec.lotId,
-      unitId: null,
+      lotId: spec.lotId ?? null,
+      unitId: spec.unitId ?? null,
+      shipmentId: spec.shipmentId ?? null,
       layout: spec.kind === 'labels' ? (spec.layout ?? 'a4_3x8') : null,
-      filename: `${spec.lotNumber}-${suffix}.pdf`,
+      filename: spec.filename,
       storageKey: null,
       sha256: null,
       size: null,
@@ -54,7 +73,13 @@ export async function requestDocument(
       action: 'document.request',
       entity: 'document',
       entityId: doc.id,
-      after: { kind: spec.kind, lotId: spec.lotId, layout: doc.layout },
+      after: {
+        kind: spec.kind,
+        lotId: doc.lotId,
+        unitId: doc.unitId,
+        shipmentId: doc.shipmentId,
+        layout: doc.layout,
+      },
     },
     transaction,
   )

@@ -7,7 +7,7 @@ import { AppError } from '../errors'
 import { db, Lot, Product, Revision, RouteStep, Unit } from '../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
-import { requestDocument } from './documents'
+import { lotPrintFilename, requestDocument } from './documents'
 import { allocateSerials } from './serialAllocation'
 
 const WITH_PRODUCT = [
@@ -195,12 +195,17 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       transaction,
     )
     await requestDocument(
-      { kind: 'travelers', lotId: id, lotNumber: lot.number },
+      { kind: 'travelers', lotId: id, filename: lotPrintFilename(lot.number, 'travelers') },
       actor,
       transaction,
     )
     await requestDocument(
-      { kind: 'labels', lotId: id, lotNumber: lot.number, layout: 'a4_3x8' },
+      {
+        kind: 'labels',
+        lotId: id,
+        layout: 'a4_3x8',
+        filename: lotPrintFilename(lot.number, 'labels', 'a4_3x8'),
+      },
       actor,
       transaction,
     )
