@@ -32,12 +32,16 @@ export interface DocumentSpec {
   layout?: LabelLayoutKey
 }
 
-/** The file name of a lot's travelers or label sheet, e.g. `L-0042-labels-a4_3x8.pdf`. */
+/**
+ * The file name of a lot's travelers, label sheet or report, e.g. `L-0042-labels-a4_3x8.pdf`
+ * or `L-0042-lot-report.pdf`.
+ */
 export function lotPrintFilename(
   lotNumber: string,
-  kind: 'travelers' | 'labels',
+  kind: 'travelers' | 'labels' | 'lot_report',
   layout?: LabelLayoutKey,
 ): string {
+  if (kind === 'lot_report') return `${lotNumber}-lot-report.pdf`
   return `${lotNumber}-${kind === 'labels' ? `labels-${layout ?? 'a4_3x8'}` : kind}.pdf`
 }
 

@@ -78,7 +78,7 @@ const LANCZOS = [
 ]
 
 /** ln Γ(x) for x > 0 (Lanczos, g = 7). */
-function lnGamma(x: number): number {
+export function lnGamma(x: number): number {
   if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - lnGamma(1 - x)
   const y = x - 1
   let sum = LANCZOS[0]

@@ -41,7 +41,9 @@ export const ReasonInput = z.object({
 })
 
 export const DocumentRequestInput = z.object({
-  kind: z.enum(['travelers', 'labels']),
+  kind: z.enum(['travelers', 'labels', 'lot_report'], {
+    error: 'choose travelers, labels or lot_report',
+  }),
   layout: z.enum(LABEL_LAYOUT_KEYS).default('a4_3x8'),
 })
 

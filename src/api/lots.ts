@@ -12,7 +12,14 @@ import { json, request } from './client'
 const lotPath = (id: string, rest = '') => `/lots/${encodeURIComponent(id)}${rest}`
 
 /** What a lead asks the document workers to make for a lot. */
-export type DocumentRequest = { kind: 'labels'; layout: LabelLayoutKey } | { kind: 'travelers' }
+export type DocumentRequest =
+  { kind: 'labels'; layout: LabelLayoutKey } | { kind: 'travelers' } | { kind: 'lot_report' }
+
+/** Who a finished document is e-mailed to, and an optional note above it. */
+export interface DocumentEmailRequest {
+  to: string[]
+  note?: string
+}
 
 export const lotsApi = {
   /** Every lot, newest first, with its unit counts per state. */
@@ -38,6 +45,9 @@ export const lotsApi = {
   /** Queues a PDF; answers 201 with the document in `queued`. */
   requestDocument: (id: string, input: DocumentRequest) =>
     request<DocumentDto>(lotPath(id, '/documents'), json('POST', input)),
+  /** E-mails a finished document (the mail queue sends it; the Outbox shows it). */
+  emailDocument: (documentId: string, input: DocumentEmailRequest) =>
+    request<unknown>(`/documents/${encodeURIComponent(documentId)}/email`, json('POST', input)),
   /** Where the browser downloads a finished document. */
   documentFileUrl: (documentId: string) => `/api/documents/${encodeURIComponent(documentId)}/file`,
 }

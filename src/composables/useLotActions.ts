@@ -100,6 +100,10 @@ export function useLotActions() {
     await run(() => store.requestDocument({ kind: 'travelers' }), 'Travelers are being made')
   }
 
+  async function makeLotReport() {
+    await run(() => store.requestDocument({ kind: 'lot_report' }), 'The lot report is being made')
+  }
+
   /** Scrap is final and rework sends the unit back, so both are confirmed first. */
   async function dispose(nc: NonconformanceDto, input: DispositionInput): Promise<boolean> {
     if (input.disposition === 'scrap') {
@@ -131,5 +135,16 @@ export function useLotActions() {
     )
   }
 
-  return { isBusy, disposal, release, hold, unhold, close, printLabels, reprintTravelers, dispose }
+  return {
+    isBusy,
+    disposal,
+    release,
+    hold,
+    unhold,
+    close,
+    printLabels,
+    reprintTravelers,
+    makeLotReport,
+    dispose,
+  }
 }

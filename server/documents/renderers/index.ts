@@ -1,5 +1,6 @@
 import type { DocumentKind } from '../../../shared/lots'
 import { renderLabels, renderTravelers } from './lotPrints'
+import { renderLotReport } from './lotReport'
 import type { DocumentRenderer } from './types'
 
 /**
@@ -9,4 +10,5 @@ import type { DocumentRenderer } from './types'
 export const RENDERERS: Partial<Record<DocumentKind, DocumentRenderer>> = {
   travelers: renderTravelers,
   labels: renderLabels,
+  lot_report: renderLotReport,
 }
