@@ -91,13 +91,13 @@ describe('lot report and exports', () => {
 
     connection = newQueueConnection()
     documents = startDocumentsWorker(connection)
-  })
+  }, 120_000) // eleven scans and two dispositions; slow when the machine is shared
 
   afterAll(async () => {
-    documents.stop()
-    await documents.worker.close()
+    documents?.stop()
+    await documents?.worker.close()
     await closeDocumentsQueue()
-    await connection.quit()
+    await connection?.quit()
   })
 
   describe('lot report PDF', () => {

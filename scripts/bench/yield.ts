@@ -1,0 +1,144 @@
+// Benchmark of the Yield board's endpoints: `npx tsx scripts/bench/yield.ts [--lots 200]
+// [--units-per-lot 500] [--requests 40]`. Run it after `npm test` has started the services.
+import type { Server } from 'node:http'
+import type { AddressInfo } from 'node:net'
+import { performance } from 'node:perf_hooks'
+import { parseArgs } from 'node:util'
+import pg from 'pg'
+
+process.env.WAYMARK_DB ??= 'waymark_bench_test'
+process.env.NODE_ENV ??= 'test'
+process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
+process.env.WAYMARK_WORKERS ??= 'off'
+process.env.LOG_LEVEL ??= 'error'
+
+const { values: args } = parseArgs({
+  options: {
+    lots: { type: 'string', default: '200' },
+    'units-per-lot': { type: 'string', default: '500' },
+    days: { type: 'string', default: '365' },
+    requests: { type: 'string', default: '40' },
+    help: { type: 'boolean' },
+  },
+})
+if (args.help) {
+  console.log(`Usage: tsx scripts/bench/yield.ts [--lots N] [--units-per-lot N] [--days N] [--requests N]
+
+Resets its own database (WAYMARK_DB, default waymark_bench_test), seeds N lots of units with
+their step runs and measurements in bulk (200 × 500 = 100 000 units, about 1 000 000 step runs),
+then calls the Yield board's endpoints through the real Express app over loopback, one request at
+a time, and runs the same SQL straight through pg. Prints p50/p95 of both.`)
+  process.exit(0)
+}
+const REQUESTS = Number(args.requests)
+
+const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+const { env } = await import('../../server/env')
+const owner = ownerConnection()
+await resetTestSchema(owner)
+await migrator(owner).up()
+await owner.close()
+
+const { loadDemo } = await import('../../server/db/seed/demo')
+const { buildApp } = await import('../../server/app')
+const { db } = await import('../../server/models')
+const { seedYieldBench } = await import('./yieldSeed')
+await loadDemo({ onlyIfEmpty: false })
+const seedStart = performance.now()
+const seed = await seedYieldBench({
+  lots: Number(args.lots),
+  unitsPerLot: Number(args['units-per-lot']),
+  days: Number(args.days),
+})
+// As autovacuum would leave a settled database: statistics and the visibility map (which
+// index-only scans rely on) up to date. Only the owner role may vacuum.
+const vacuum = ownerConnection()
+for (const table of ['lots', 'units', 'step_runs', 'measurements'])
+  await vacuum.query(`VACUUM (ANALYZE) ${table}`)
+await vacuum.close()
+console.log(
+  `seeded ${seed.lots} lots, ${seed.units} units, ${seed.stepRuns} step runs, ${seed.measurements} measurements in ${((performance.now() - seedStart) / 1000).toFixed(0)} s`,
+)
+
+const app = buildApp()
+const server = await new Promise<Server>((resolve) => {
+  const s = app.listen(0, '127.0.0.1', () => resolve(s))
+})
+const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+const csrf = await fetch(`${base}/api/auth/csrf`)
+let cookie = csrf.headers.get('set-cookie')!.split(';')[0]!
+const login = await fetch(`${base}/api/auth/login`, {
+  method: 'POST',
+  headers: {
+    'content-type': 'application/json',
+    cookie,
+    'x-csrf-token': ((await csrf.json()) as { csrfToken: string }).csrfToken,
+  },
+  body: JSON.stringify({ email: 'lead@ferncastle.example', password: 'waymark-demo' }),
+})
+if (login.status !== 200) throw new Error(`sign-in failed: ${login.status}`)
+cookie = login.headers.get('set-cookie')!.split(';')[0]!
+
+// The SQL each endpoint runs, captured from Sequelize's log during one call (with the
+// replacements already inlined), so the raw run below executes exactly the same statements.
+const captured: string[] = []
+;(db() as unknown as { options: { logging: (sql: string) => void } }).options.logging = (sql) => {
+  captured.push(sql.replace(/^Executing \([^)]*\): /, ''))
+}
+// Everything the endpoint itself runs; the session and user look-ups of the guard are left out.
+const isYieldSql = (sql: string) => !/\b(sessions|users)\b/.test(sql)
+
+async function call(path: string): Promise<number> {
+  const t = performance.now()
+  const res = await fetch(`${base}${path}`, { headers: { cookie } })
+  await res.arrayBuffer()
+  if (res.status !== 200) throw new Error(`${path}: ${res.status}`)
+  return performance.now() - t
+}
+
+const pool = new pg.Pool({ connectionString: env.databaseUrl, max: 4 })
+async function raw(statements: readonly string[]): Promise<number> {
+  const t = performance.now()
+  for (const sql of statements) await pool.query(sql)
+  return performance.now() - t
+}
+
+function percentile(sorted: number[], p: number): number {
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
+}
+async function timed(run: () => Promise<number>): Promise<{ p50: number; p95: number }> {
+  for (let i = 0; i < 3; i++) await run() // warm caches and plans
+  const times: number[] = []
+  for (let i = 0; i < REQUESTS; i++) times.push(await run())
+  times.sort((a, b) => a - b)
+  return { p50: percentile(times, 50), p95: percentile(times, 95) }
+}
+
+const year = new Date(Date.now() - 366 * 86_400_000).toISOString().slice(0, 10)
+const endpoints: [string, string][] = [
+  ['summary, last 30 days', `/api/yield/summary?from=${seed.from}&to=${seed.to}`],
+  ['summary, whole year', `/api/yield/summary?from=${year}&to=${seed.to}`],
+  ['one lot', `/api/yield/lots/${seed.sampleLotId}`],
+  ['lots export CSV, 30 d', `/api/exports/lots?format=csv&from=${seed.from}&to=${seed.to}`],
+  ['lots export XLSX, 30 d', `/api/exports/lots?format=xlsx&from=${seed.from}&to=${seed.to}`],
+]
+const rows: string[] = []
+for (const [name, path] of endpoints) {
+  captured.length = 0
+  await call(path)
+  const statements = captured.filter(isYieldSql)
+  const api = await timed(() => call(path))
+  const sql = await timed(() => raw(statements))
+  const ratio = api.p50 / sql.p50
+  rows.push(
+    `${name.padEnd(24)} API p50 ${api.p50.toFixed(1).padStart(7)} ms  p95 ${api.p95.toFixed(1).padStart(7)} ms   SQL (${statements.length} statements) p50 ${sql.p50.toFixed(1).padStart(7)} ms  p95 ${sql.p95.toFixed(1).padStart(7)} ms   API/SQL ${ratio.toFixed(2)}`,
+  )
+  console.log(rows.at(-1))
+}
+console.log(
+  `\n${REQUESTS} sequential requests each after 3 warm-up calls, loopback; SQL run one statement after another through pg`,
+)
+console.log('targets: API p95 ≤ 150 ms and API ≤ 2 × the raw SQL')
+server.close()
+await pool.end()
+process.exit(0)
