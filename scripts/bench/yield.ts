@@ -18,6 +18,8 @@ const { values: args } = parseArgs({
     'units-per-lot': { type: 'string', default: '500' },
     days: { type: 'string', default: '365' },
     requests: { type: 'string', default: '40' },
+    // Keeps the seeded database of an earlier run: migrates it (new indexes) and measures again.
+    keep: { type: 'boolean', default: false },
     help: { type: 'boolean' },
   },
 })
@@ -35,21 +37,23 @@ const REQUESTS = Number(args.requests)
 const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
 const { env } = await import('../../server/env')
 const owner = ownerConnection()
-await resetTestSchema(owner)
+if (!args.keep) await resetTestSchema(owner)
 await migrator(owner).up()
 await owner.close()
 
 const { loadDemo } = await import('../../server/db/seed/demo')
 const { buildApp } = await import('../../server/app')
 const { db } = await import('../../server/models')
-const { seedYieldBench } = await import('./yieldSeed')
-await loadDemo({ onlyIfEmpty: false })
+const { seedYieldBench, seededBench } = await import('./yieldSeed')
 const seedStart = performance.now()
-const seed = await seedYieldBench({
-  lots: Number(args.lots),
-  unitsPerLot: Number(args['units-per-lot']),
-  days: Number(args.days),
-})
+if (!args.keep) await loadDemo({ onlyIfEmpty: false })
+const seed = args.keep
+  ? await seededBench(Number(args.lots))
+  : await seedYieldBench({
+      lots: Number(args.lots),
+      unitsPerLot: Number(args['units-per-lot']),
+      days: Number(args.days),
+    })
 // As autovacuum would leave a settled database: statistics and the visibility map (which
 // index-only scans rely on) up to date. Only the owner role may vacuum.
 const vacuum = ownerConnection()
@@ -57,7 +61,7 @@ for (const table of ['lots', 'units', 'step_runs', 'measurements'])
   await vacuum.query(`VACUUM (ANALYZE) ${table}`)
 await vacuum.close()
 console.log(
-  `seeded ${seed.lots} lots, ${seed.units} units, ${seed.stepRuns} step runs, ${seed.measurements} measurements in ${((performance.now() - seedStart) / 1000).toFixed(0)} s`,
+  `${args.keep ? 'kept' : 'seeded'} ${seed.lots} lots, ${seed.units} units, ${seed.stepRuns} step runs, ${seed.measurements} measurements in ${((performance.now() - seedStart) / 1000).toFixed(0)} s`,
 )
 
 const app = buildApp()

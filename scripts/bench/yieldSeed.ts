@@ -1,3 +1,4 @@
+import type { Transaction } from 'sequelize'
 import { SEED_ACTOR } from '../../server/db/seed/demo'
 import { db } from '../../server/models'
 import { createCheck } from '../../server/services/checks'
@@ -250,27 +251,34 @@ export async function seedYieldBench(opts: {
                 ELSE c.lower + (c.upper - c.lower) * (0.3 + random() * 0.4) END,
            NOT (r.result = 'fail' AND c.position = 1)
       FROM bench_runs r JOIN checks c ON c.step_id = r.step_id`)
-    const [[counts]] = (await q(
-      `SELECT
+    return seededBench(opts.lots, transaction)
+  })
+}
+
+/** The figures of a seeded bench database (also of one kept from an earlier run). */
+export async function seededBench(lots: number, transaction?: Transaction): Promise<BenchSeed> {
+  const q = (sql: string, replacements: Record<string, unknown> = {}) =>
+    db().query(sql, { replacements, raw: true, transaction })
+  const [[counts]] = (await q(
+    `SELECT
       (SELECT count(*) FROM lots WHERE number LIKE 'B-%') AS lots,
       (SELECT count(*) FROM units) AS units,
       (SELECT count(*) FROM step_runs) AS step_runs,
       (SELECT count(*) FROM measurements) AS measurements,
       (SELECT id FROM lots WHERE number = 'B-' || lpad((:lots / 2)::text, 5, '0')) AS sample`,
-      { lots: opts.lots },
-    )) as unknown as [
-      [{ lots: string; units: string; step_runs: string; measurements: string; sample: string }],
-    ]
-    const day = (offset: number) =>
-      new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10)
-    return {
-      lots: Number(counts.lots),
-      units: Number(counts.units),
-      stepRuns: Number(counts.step_runs),
-      measurements: Number(counts.measurements),
-      sampleLotId: counts.sample,
-      from: day(-30),
-      to: day(0),
-    }
-  })
+    { lots },
+  )) as unknown as [
+    [{ lots: string; units: string; step_runs: string; measurements: string; sample: string }],
+  ]
+  const day = (offset: number) =>
+    new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10)
+  return {
+    lots: Number(counts.lots),
+    units: Number(counts.units),
+    stepRuns: Number(counts.step_runs),
+    measurements: Number(counts.measurements),
+    sampleLotId: counts.sample,
+    from: day(-30),
+    to: day(0),
+  }
 }
