@@ -1,13 +1,13 @@
 import type { Transaction } from 'sequelize'
-import type { StepRefDto, StepRunInput, UnitSummaryDto } from '../../shared/schemas/lots'
-import type { Lot, RouteStep, StepRun, Unit } from '../models'
+import type { UnitState } from '../../shared/lots'
+import type { StepRefDto, UnitSummaryDto } from '../../shared/schemas/lots'
+import type { RouteStep, Unit } from '../models'
 import type { StepPlan } from './stepPlans'
-import { Nonconformance, RouteStep as RouteStepModel } from '../models'
-import type { Actor } from './audit'
+import { RouteStep as RouteStepModel } from '../models'
 
 /** The summary of a unit the Floor and the lot page show. */
 export async function unitSummary(
-  unit: Unit,
+  unit: Pick<Unit, 'serial' | 'state' | 'reworkCount' | 'currentStepId'>,
   transaction?: Transaction,
   /** The unit's current step when the caller has it already, saving a query. */
   known?: StepRefDto | null,
@@ -37,67 +37,66 @@ export async function stepAfter(
   return RouteStepModel.findOne({ where: { revisionId, position: position + 1 }, transaction })
 }
 
+/** The fields of a unit that a step run decides. */
+export interface UnitMove {
+  state: UnitState
+  currentStepId: string | null
+  reworkUntilPosition: number | null
+  finishedAt: Date | null
+  holdKind: Unit['holdKind']
+  heldFromState: UnitState | null
+  holdReason: string
+}
+
 /**
- * Moves a unit after a step run. A pass goes to the next step (or ends the route as passed)
- * and ends a rework once the failed step is passed again; a fail opens a nonconformance and
- * holds the unit for the lead. The first run of a lot marks the lot in progress.
+ * Where a unit goes after a step run. A pass goes to the next step (or ends the route as
+ * passed) and ends a rework once the failed step is passed again; a fail holds the unit for
+ * the lead, who disposes the nonconformance it opens.
  */
-export async function moveUnitOn(
-  unit: Unit,
-  lot: Lot,
-  step: StepPlan,
-  run: StepRun,
-  failedKeys: string[],
-  input: StepRunInput,
-  actor: Actor,
-  transaction: Transaction,
-): Promise<Nonconformance | null> {
-  if (lot.status === 'released') await lot.update({ status: 'in_progress' }, { transaction })
-  if (run.result === 'fail') {
-    const nc = await Nonconformance.create(
-      {
-        unitId: unit.id,
-        stepRunId: run.id,
-        defectCodeId: input.defectCodeId,
-        description: input.note,
-        failedChecks: failedKeys,
-        disposition: null,
-        reworkToStepId: null,
-        openedBy: actor.id,
-        decidedBy: null,
-        countersignedBy: null,
-        openedAt: run.finishedAt,
-        closedAt: null,
-      },
-      { transaction },
-    )
-    await unit.update(
-      {
-        state: 'on_hold',
-        holdKind: 'nonconformance',
-        heldFromState: unit.state,
-        holdReason: `failed ${step.name} (${failedKeys.join(', ')})`,
-      },
-      { transaction },
-    )
-    return nc
+export function unitAfterRun(
+  unit: Pick<
+    Unit,
+    | 'state'
+    | 'currentStepId'
+    | 'reworkUntilPosition'
+    | 'finishedAt'
+    | 'holdKind'
+    | 'heldFromState'
+    | 'holdReason'
+  >,
+  step: Pick<StepPlan, 'name' | 'position' | 'next'>,
+  failedKeys: readonly string[],
+  at: Date,
+): UnitMove {
+  const kept = {
+    currentStepId: unit.currentStepId,
+    reworkUntilPosition: unit.reworkUntilPosition,
+    finishedAt: unit.finishedAt,
+    holdKind: unit.holdKind,
+    heldFromState: unit.heldFromState,
+    holdReason: unit.holdReason,
   }
+  if (failedKeys.length > 0)
+    return {
+      ...kept,
+      state: 'on_hold',
+      holdKind: 'nonconformance',
+      heldFromState: unit.state,
+      holdReason: `failed ${step.name} (${failedKeys.join(', ')})`,
+    }
   const next = step.next
   const isReworkDone =
     unit.state === 'in_rework' && (unit.reworkUntilPosition ?? 0) <= step.position
-  const state = !next
+  const state: UnitState = !next
     ? 'passed'
     : unit.state === 'in_rework' && !isReworkDone
       ? 'in_rework'
       : 'in_progress'
-  await unit.update(
-    {
-      state,
-      currentStepId: next?.id ?? null,
-      reworkUntilPosition: state === 'in_rework' ? unit.reworkUntilPosition : null,
-      finishedAt: next ? null : run.finishedAt,
-    },
-    { transaction },
-  )
-  return null
+  return {
+    ...kept,
+    state,
+    currentStepId: next?.id ?? null,
+    reworkUntilPosition: state === 'in_rework' ? unit.reworkUntilPosition : null,
+    finishedAt: next ? null : at,
+  }
 }
