@@ -180,6 +180,8 @@ export interface NonconformanceDto {
   defectDescription: string | null
   description: string
   failedChecks: string[]
+  /** The failed checks' labels, in route order, for people to read. */
+  failedCheckLabels: string[]
   status: 'open' | 'closed'
   disposition: Disposition | null
   reworkToStepName: string | null
