@@ -136,12 +136,25 @@ export function runRuleName(rule: 1 | 2 | 3 | 4): AlertRule {
   return `run_rule_${rule}`
 }
 
+const RULE_LABELS: Record<AlertRule, string> = {
+  fpy_below_threshold: 'Low FPY',
+  run_rule_1: 'Run rule 1',
+  run_rule_2: 'Run rule 2',
+  run_rule_3: 'Run rule 3',
+  run_rule_4: 'Run rule 4',
+}
+
 const RULE_WORDS: Record<AlertRule, string> = {
-  fpy_below_threshold: 'first-pass yield below the threshold',
-  run_rule_1: 'run rule 1: a point more than 3σ from the centre',
-  run_rule_2: 'run rule 2: 2 of 3 points beyond 2σ on one side',
-  run_rule_3: 'run rule 3: 4 of 5 points beyond 1σ on one side',
-  run_rule_4: 'run rule 4: 8 points in a row on one side of the centre',
+  fpy_below_threshold: "first-pass yield below the revision's threshold",
+  run_rule_1: 'a point more than 3σ from the centre',
+  run_rule_2: '2 of 3 points in a row beyond 2σ on one side',
+  run_rule_3: '4 of 5 points in a row beyond 1σ on one side',
+  run_rule_4: '8 points in a row on one side of the centre',
+}
+
+/** A rule's short name, e.g. "Run rule 2". */
+export function ruleLabel(rule: AlertRule): string {
+  return RULE_LABELS[rule]
 }
 
 /** What a rule means, in words for the lead. */
@@ -173,7 +186,7 @@ export function alertHeadline(a: AlertSubject): string {
   if (d.kind === 'fpy')
     return `First-pass yield ${percent(d.fpy)} is below ${formatFigure(d.thresholdPercent)} % (${d.passedFirst} of ${d.firstAttempts} first attempts passed)`
   const unit = a.checkUnit ? ` ${a.checkUnit}` : ''
-  return `${a.checkLabel ?? 'Check'}: run rule ${d.rule} at unit ${d.serial} (${formatFigure(d.value)}${unit}, point ${d.index + 1} of ${d.points})`
+  return `${a.checkLabel ?? 'Check'} broke run rule ${d.rule} at unit ${d.serial}: ${formatFigure(d.value)}${unit}, point ${d.index + 1} of ${d.points} in build order`
 }
 
 /** The e-mail subject: lot, step and rule. */
@@ -198,7 +211,11 @@ export function chartBasis(d: RunRuleAlertDetails, unit: string | null): string 
 /** The plain-text body of the alert e-mail: the figures that tripped it and a link to the lot. */
 export function alertEmailText(a: AlertSubject, lotUrl: string): string {
   const d = a.details
-  const lines = [`Lot ${a.lotNumber}, step ${a.stepName}: ${ruleWords(a.rule)}.`, '']
+  const what =
+    d.kind === 'fpy'
+      ? ruleWords(a.rule)
+      : `${ruleLabel(a.rule).toLowerCase()} (${ruleWords(a.rule)})`
+  const lines = [`Lot ${a.lotNumber}, step ${a.stepName}: ${what}.`, '']
   if (d.kind === 'fpy') {
     lines.push(
       `First-pass yield at this step: ${percent(d.fpy)} (${d.passedFirst} of ${d.firstAttempts} units passed at their first attempt).`,
@@ -208,7 +225,7 @@ export function alertEmailText(a: AlertSubject, lotUrl: string): string {
   } else {
     const u = a.checkUnit ? ` ${a.checkUnit}` : ''
     lines.push(
-      `Check: ${a.checkLabel ?? '?'}. ${alertHeadline(a)}.`,
+      `${alertHeadline(a)}.`,
       `Chart: ${chartBasis(d, a.checkUnit)}.`,
       `Points in the rule's window, in build order: ${d.window.map((p) => `${p.serial} ${formatFigure(p.value)}${u}`).join('; ')}.`,
     )

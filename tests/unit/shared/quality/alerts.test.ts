@@ -157,7 +157,13 @@ describe('alert wording', () => {
     expect(chart).toContain('/ 1.128')
     expect(chart).toContain('U09 11 mH')
     expect(alertHeadline(run)).toBe(
-      'Secondary inductance: run rule 1 at unit U09 (11 mH, point 9 of 9)',
+      'Secondary inductance broke run rule 1 at unit U09: 11 mH, point 9 of 9 in build order',
+    )
+    expect(chart).toContain(
+      'Lot L-0042, step Winding: run rule 1 (a point more than 3σ from the centre).',
+    )
+    expect(text).toContain(
+      "Lot L-0042, step Load test: first-pass yield below the revision's threshold.",
     )
   })
 })
