@@ -4,8 +4,8 @@ import type { AlertDetails, AlertRule, AlertStatus } from '../quality/alerts'
 
 /** Query of `GET /api/alerts`: one lot's, or every lot's, optionally of one status. */
 export const AlertQuery = z.object({
-  lotId: z.string().uuid('lotId: not a valid id').optional(),
-  status: z.enum(ALERT_STATUSES, 'status: open or acknowledged').optional(),
+  lotId: z.string().uuid('not a valid id').optional(),
+  status: z.enum(ALERT_STATUSES, 'open or acknowledged').optional(),
 })
 export type AlertQuery = z.infer<typeof AlertQuery>
 
