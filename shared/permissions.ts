@@ -22,6 +22,8 @@ export const PERMISSIONS = {
   disposeNonconformances: ['lead', 'engineer'],
   readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
+  readAlerts: ['lead', 'engineer', 'admin'],
+  acknowledgeAlerts: ['lead'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

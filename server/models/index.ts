@@ -25,6 +25,7 @@ import { Email, initEmail } from './Email'
 import { Customer, initCustomer } from './Customer'
 import { initShipment, initShipmentUnit, Shipment, ShipmentUnit } from './Shipment'
 import { initServiceCase, ServiceCase } from './ServiceCase'
+import { Alert, initAlert } from './Alert'
 
 export {
   AuditEvent,
@@ -43,6 +44,7 @@ export {
 }
 export { Consumption, Document, Email, Lot, Measurement, Nonconformance, StepRun, Unit }
 export { Customer, ServiceCase, Shipment, ShipmentUnit }
+export { Alert }
 
 let instance: Sequelize | undefined
 
@@ -103,6 +105,7 @@ export function db(): Sequelize {
     initShipment,
     initShipmentUnit,
     initServiceCase,
+    initAlert,
   ])
     init(instance)
   associate()

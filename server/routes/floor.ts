@@ -3,6 +3,7 @@ import { StepRunInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
+import { scheduleAlertCheck } from '../services/alerts'
 import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
 import { recordStepRun } from '../services/stepRuns'
 import { apiRoutes } from './registry'
@@ -28,4 +29,6 @@ export const stepRunRoutes = apiRoutes('/step-runs')
 stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, async (req, res) => {
   const { isRepeat, body } = await recordStepRun(parse(StepRunInput, req.body), actorOf(req))
   res.status(isRepeat ? 200 : 201).json(body)
+  // After the answer, so the operator never waits on Redis; a repeat changed nothing to judge.
+  if (!isRepeat) void scheduleAlertCheck(body.stepRun.id)
 })

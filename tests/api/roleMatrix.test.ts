@@ -112,6 +112,8 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
   { method: 'get', path: '/api/yield/summary', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/alerts', who: ['lead', 'engineer', 'admin'] },
+  { method: 'post', path: '/api/alerts/:id/acknowledge', who: ['lead'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
