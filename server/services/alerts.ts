@@ -20,8 +20,7 @@ import type { AlertDto, AlertQuery } from '../../shared/schemas/alerts'
 import { env } from '../env'
 import { AppError } from '../errors'
 import { logger } from '../logger'
-import { Alert, Check, db, Lot, Revision, RouteStep, StepRun, Unit, User } from '../models'
-import { enqueueAlertCheck } from '../queues/alerts'
+import { Alert, Check, db, Lot, Revision, RouteStep, User } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { queueEmail } from './outbox'
@@ -199,20 +198,6 @@ export async function evaluateLotStep(lotId: string, stepId: string): Promise<nu
     if (await db().transaction((t) => raise(lot, step, c, t))) raised++
   if (raised) logger.info({ lot: lot.number, step: step.name, raised }, 'quality alerts raised')
   return raised
-}
-
-/**
- * After a new step run: queues the re-evaluation of its lot's step. Never throws, so the Floor's
- * answer never depends on it; a failure is logged and the worker's sweep catches up.
- */
-export async function scheduleAlertCheck(stepRunId: string): Promise<void> {
-  try {
-    const run = await StepRun.findByPk(stepRunId, { attributes: ['unitId', 'stepId'] })
-    const unit = run && (await Unit.findByPk(run.unitId, { attributes: ['lotId'] }))
-    if (run && unit) await enqueueAlertCheck(unit.lotId, run.stepId)
-  } catch (err) {
-    logger.warn({ err, stepRunId }, 'could not schedule the alert check of a step run')
-  }
 }
 
 /** Lots and steps with a step run finished since `since`: what the worker's sweep re-checks. */

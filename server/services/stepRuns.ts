@@ -198,7 +198,7 @@ async function record(
   input: StepRunInput,
   actor: Actor,
   transaction: Transaction,
-): Promise<StepRunResultDto | { repeat: StepRun }> {
+): Promise<{ body: StepRunResultDto; lotId: string; stepId: string } | { repeat: StepRun }> {
   // The row lock on the unit serialises every submission for it: a second station waits here,
   // then finds the unit moved on; a retried submission finds its own step run.
   const serial = codeFromScan(input.serial)
@@ -309,7 +309,7 @@ async function record(
     ...(ncId ? [ncId, input.defectCodeId, JSON.stringify(failedKeys)] : []),
   ])
   if (planned.length > 0) await applyConsumptions(planned, unit.id, runId, transaction)
-  return {
+  const body: StepRunResultDto = {
     stepRun: { id: runId, result, attempt },
     unit: {
       serial: unit.serial,
@@ -319,21 +319,24 @@ async function record(
     },
     nonconformanceId: ncId,
   }
+  return { body, lotId: unit.lotId, stepId: step.id }
 }
+
+/** The answer to a submission, and for a new run the lot and step it was recorded at. */
+export type RecordedStepRun =
+  | { isRepeat: true; body: StepRunResultDto }
+  | { isRepeat: false; body: StepRunResultDto; lotId: string; stepId: string }
 
 /**
  * Records one step run from the Floor: recomputes every verdict and derived value from the
  * values, checks the route rules and component lots, stores the run with its measurements and
  * consumptions and moves the unit on, exactly once per `clientEventId`.
  */
-export async function recordStepRun(
-  input: StepRunInput,
-  actor: Actor,
-): Promise<{ isRepeat: boolean; body: StepRunResultDto }> {
+export async function recordStepRun(input: StepRunInput, actor: Actor): Promise<RecordedStepRun> {
   try {
     const out = await db().transaction((t) => record(input, actor, t))
     if ('repeat' in out) return { isRepeat: true, body: await resultOf(out.repeat, input) }
-    return { isRepeat: false, body: out }
+    return { isRepeat: false, body: out.body, lotId: out.lotId, stepId: out.stepId }
   } catch (err) {
     // Two submissions of one event for two different serials can both pass the look-up; the
     // unique constraint lets one in, and the other gets the first one's answer.
