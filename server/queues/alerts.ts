@@ -15,8 +15,9 @@ let connection: ReturnType<typeof newQueueConnection> | undefined
 
 /** The producer side of the alerts queue, made on first use. */
 export function alertsQueue(): Queue<AlertJob> {
+  if (queue) return queue
   connection ??= newQueueConnection()
-  queue ??= new Queue<AlertJob>(ALERTS_QUEUE, {
+  queue = new Queue<AlertJob>(ALERTS_QUEUE, {
     connection,
     prefix: redisPrefix,
     defaultJobOptions: {
@@ -26,6 +27,9 @@ export function alertsQueue(): Queue<AlertJob> {
       removeOnFail: 500,
     },
   })
+  // Without a listener BullMQ prints every reconnect failure; the connection already logs each
+  // outage once (server/redis.ts).
+  queue.on('error', () => undefined)
   return queue
 }
 

@@ -296,6 +296,12 @@ describe('quality alerts', () => {
     expect(alert).toBeDefined()
 
     await engineer.get(`/api/alerts?lotId=${t.lot.id}`).expect(200)
+    // Without a lot: every lot's alerts, the open ones first.
+    const everyLot = (await lead.get('/api/alerts').expect(200)).body as AlertDto[]
+    expect(everyLot.map((a) => a.id)).toContain(alert!.id)
+    const firstDone = everyLot.findIndex((a) => a.status === 'acknowledged')
+    if (firstDone >= 0)
+      expect(everyLot.slice(firstDone).every((a) => a.status !== 'open')).toBe(true)
     await engineer.post(`/api/alerts/${alert!.id}/acknowledge`).expect(403)
     await operator.get(`/api/alerts?lotId=${t.lot.id}`).expect(403)
 
