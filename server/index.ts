@@ -7,6 +7,7 @@ import { closeDb } from './models'
 import { closeRedis } from './redis'
 import { closeDocumentsQueue } from './queues/documents'
 import { closeMailQueue } from './queues/mail'
+import { closeImportsQueue } from './queues/imports'
 import { closeMail } from './mail'
 import { DEMO_PASSWORD, DEMO_USERS } from './db/seed/demoUsers'
 import { startWorkers } from '../workers'
@@ -45,6 +46,7 @@ async function main(): Promise<void> {
       closeRedis(),
       closeDocumentsQueue(),
       closeMailQueue(),
+      closeImportsQueue(),
     ])
     process.exit(0)
   }

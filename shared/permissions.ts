@@ -22,6 +22,7 @@ export const PERMISSIONS = {
   disposeNonconformances: ['lead', 'engineer'],
   readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
+  importBenchData: ['lead', 'engineer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

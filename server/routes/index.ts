@@ -16,6 +16,7 @@ import { floorRoutes, stepRunRoutes } from './floor'
 import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
+import { importMappingRoutes, importRoutes } from './imports'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -40,6 +41,8 @@ void [
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
 void [outboxRoutes]
+
+void [importRoutes, importMappingRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

@@ -112,6 +112,14 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
   { method: 'get', path: '/api/yield/summary', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id/rows', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/dry-run', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/run', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
+  { method: 'put', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
