@@ -17,7 +17,9 @@ import type {
   ImportRowsQuery,
   ImportRunInput,
 } from '../../shared/schemas/imports'
+import { UNIT_STATE_LABELS } from '../../shared/lots'
 import { StepRunInput } from '../../shared/schemas/lots'
+import type { StepRunResultDto } from '../../shared/schemas/lots'
 import type { CheckDto } from '../../shared/schemas/recipes'
 import { AppError } from '../errors'
 import { logger } from '../logger'
@@ -632,6 +634,17 @@ function stepRunNote(imp: Import, row: ImportRow): string {
   return parts.join('; ').slice(0, 2000)
 }
 
+/** What a recorded row did to its unit, in the words of the lot page. */
+function recordedWords(body: StepRunResultDto): string {
+  const { stepRun, unit } = body
+  const where =
+    stepRun.result === 'pass' && unit.currentStep
+      ? `now waits for ${unit.currentStep.name}`
+      : `is now ${UNIT_STATE_LABELS[unit.state].toLowerCase()}`
+  const nc = body.nonconformanceId ? '; a nonconformance was opened' : ''
+  return `${stepRun.result} (attempt ${stepRun.attempt}); ${unit.serial} ${where}${nc}`
+}
+
 async function refreshCounts(imp: Import): Promise<void> {
   const rows = await db().query<{ outcome: string; n: string }>(
     `SELECT outcome, count(*) AS n FROM import_rows WHERE import_id = :id AND outcome IS NOT NULL GROUP BY outcome`,
@@ -698,7 +711,7 @@ export async function processImport(
           outcome: isRepeat ? 'repeat' : 'recorded',
           outcomeMessage: isRepeat
             ? 'already recorded; nothing new was written'
-            : `${body.stepRun.result} (attempt ${body.stepRun.attempt}); ${body.unit.serial} is now ${body.unit.currentStep ? `at ${body.unit.currentStep.name}` : body.unit.state.replace('_', ' ')}`,
+            : recordedWords(body),
           stepRunId: body.stepRun.id,
         })
       } catch (err) {

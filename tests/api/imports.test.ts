@@ -217,7 +217,10 @@ describe('bench data import', () => {
     expect(done.counts).toMatchObject({ recorded: 2, skipped: 0, refused: 0 })
     const rows = await rowsOf(first.id)
     expect(rows.map((r) => r.outcome)).toEqual(['recorded', 'recorded', null])
-    expect(rows[1]!.outcomeMessage).toMatch(/^fail \(attempt 1\)/)
+    expect(rows[0]!.outcomeMessage).toBe(`pass (attempt 1); ${a} is now passed`)
+    expect(rows[1]!.outcomeMessage).toBe(
+      `fail (attempt 1); ${b} is now on hold; a nonconformance was opened`,
+    )
     const note = await db().query<{ note: string; operator_id: string }>(
       `SELECT r.note FROM step_runs r JOIN units u ON u.id = r.unit_id WHERE u.serial = :a`,
       { replacements: { a }, type: QueryTypes.SELECT },
