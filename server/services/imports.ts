@@ -1,7 +1,7 @@
 import { Op, QueryTypes } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import { cellBoolean, cellNumber, IMPORT_MAX_BYTES, proposeMapping } from '../../shared/imports'
-import type { ImportMapping } from '../../shared/imports'
+import type { ImportMapping, ImportRowOutcome } from '../../shared/imports'
 import { codeFromScan } from '../../shared/links'
 import { can } from '../../shared/permissions'
 import { evaluateChecks } from '../../shared/recipes/evaluate'
@@ -645,6 +645,38 @@ function recordedWords(body: StepRunResultDto): string {
   return `${stepRun.result} (attempt ${stepRun.attempt}); ${unit.serial} ${where}${nc}`
 }
 
+interface Outcome {
+  rowNumber: number
+  outcome: ImportRowOutcome
+  message: string
+  stepRunId: string | null
+}
+
+async function writeOutcomes(importId: string, outcomes: Outcome[]): Promise<void> {
+  if (!outcomes.length) return
+  await db().query(
+    `UPDATE import_rows r
+        SET outcome = v.outcome::import_row_outcome, outcome_message = v.message,
+            step_run_id = v.step_run_id
+       FROM jsonb_to_recordset(:outcomes::jsonb)
+            AS v(row_number integer, outcome text, message text, step_run_id uuid)
+      WHERE r.import_id = :importId AND r.row_number = v.row_number`,
+    {
+      replacements: {
+        importId,
+        outcomes: JSON.stringify(
+          outcomes.map((o) => ({
+            row_number: o.rowNumber,
+            outcome: o.outcome,
+            message: o.message,
+            step_run_id: o.stepRunId,
+          })),
+        ),
+      },
+    },
+  )
+}
+
 async function refreshCounts(imp: Import): Promise<void> {
   const rows = await db().query<{ outcome: string; n: string }>(
     `SELECT outcome, count(*) AS n FROM import_rows WHERE import_id = :id AND outcome IS NOT NULL GROUP BY outcome`,
@@ -689,6 +721,13 @@ export async function processImport(
     await imp.update({ progress: percent })
     await onProgress(percent)
   }
+  // Outcomes are written 50 at a time, in one statement: a crash loses at most the last few
+  // rows' words, and the retry finds those step runs by event id and calls them repeats.
+  let pending: Outcome[] = []
+  const flush = async () => {
+    await writeOutcomes(id, pending)
+    pending = []
+  }
   for (;;) {
     const batch = await ImportRow.findAll({
       where: { ...readyWhere(id), outcome: null } as WhereOptions<ImportRow>,
@@ -696,30 +735,39 @@ export async function processImport(
       limit: 200,
     })
     if (!batch.length) break
-    for (const row of batch) {
-      const input = StepRunInput.parse({
-        clientEventId: row.clientEventId,
-        serial: row.serial,
-        stationCode: station.code,
-        values: row.values,
-        defectCodeId: row.result === 'fail' ? imp.defectCodeId : null,
-        note: stepRunNote(imp, row),
-      })
-      try {
-        const { isRepeat, body } = await recordStepRun(input, actor)
-        await row.update({
-          outcome: isRepeat ? 'repeat' : 'recorded',
-          outcomeMessage: isRepeat
-            ? 'already recorded; nothing new was written'
-            : recordedWords(body),
-          stepRunId: body.stepRun.id,
+    try {
+      for (const row of batch) {
+        const input = StepRunInput.parse({
+          clientEventId: row.clientEventId,
+          serial: row.serial,
+          stationCode: station.code,
+          values: row.values,
+          defectCodeId: row.result === 'fail' ? imp.defectCodeId : null,
+          note: stepRunNote(imp, row),
         })
-      } catch (err) {
-        if (!(err instanceof AppError) || err.status >= 500) throw err
-        await row.update({ outcome: 'refused', outcomeMessage: err.message })
+        try {
+          const { isRepeat, body } = await recordStepRun(input, actor)
+          pending.push({
+            rowNumber: row.rowNumber,
+            outcome: isRepeat ? 'repeat' : 'recorded',
+            message: isRepeat ? 'already recorded; nothing new was written' : recordedWords(body),
+            stepRunId: body.stepRun.id,
+          })
+        } catch (err) {
+          if (!(err instanceof AppError) || err.status >= 500) throw err
+          pending.push({
+            rowNumber: row.rowNumber,
+            outcome: 'refused',
+            message: err.message,
+            stepRunId: null,
+          })
+        }
+        done++
+        if (pending.length >= 50) await flush()
+        await progress()
       }
-      done++
-      await progress()
+    } finally {
+      await flush()
     }
   }
   await refreshCounts(imp)
