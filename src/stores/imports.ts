@@ -11,6 +11,19 @@ import { importsApi } from '@/api/imports'
 
 const POLL_MS = 1000
 
+/** A mapping with every choice of a column this file lacks cleared, for the person to redo. */
+function inFile(mapping: ImportMapping, columns: readonly string[]): ImportMapping {
+  const has = (c: string | null) => (c !== null && columns.includes(c) ? c : null)
+  return {
+    serialColumn: has(mapping.serialColumn) ?? '',
+    timeColumn: has(mapping.timeColumn),
+    operatorColumn: has(mapping.operatorColumn),
+    checkColumns: Object.fromEntries(
+      Object.entries(mapping.checkColumns).filter(([, c]) => columns.includes(c)),
+    ),
+  }
+}
+
 /** One bench file on its way through the Bench import screen, and the latest imports. */
 export const useImportsStore = defineStore('imports', () => {
   const recent = ref<ImportDto[]>([])
@@ -50,7 +63,7 @@ export const useImportsStore = defineStore('imports', () => {
   async function show_(imp: ImportDto) {
     current.value = imp
     mappingInfo.value = await importsApi.mapping(imp.stationCode)
-    draft.value = structuredClone(imp.mapping ?? imp.proposedMapping)
+    draft.value = inFile(imp.mapping ?? imp.proposedMapping, imp.columns)
     page.value = 1
     await fetchRows()
     watchProgress()
