@@ -74,7 +74,7 @@ describe('bench data import', () => {
     defectId = (await operator.get('/api/defect-codes')).body.find(
       (d: { code: string }) => d.code === 'L-VOUT',
     ).id
-  })
+  }, 60_000) // five sign-ins hash five passwords: slow on a busy machine
 
   afterAll(async () => {
     await closeImportsQueue()
