@@ -8,6 +8,7 @@ import { closeRedis } from './redis'
 import { closeDocumentsQueue } from './queues/documents'
 import { closeMailQueue } from './queues/mail'
 import { closeAlertsQueue } from './queues/alerts'
+import { closeImportsQueue } from './queues/imports'
 import { closeMail } from './mail'
 import { DEMO_PASSWORD, DEMO_USERS } from './db/seed/demoUsers'
 import { startWorkers } from '../workers'
@@ -47,6 +48,7 @@ async function main(): Promise<void> {
       closeDocumentsQueue(),
       closeMailQueue(),
       closeAlertsQueue(),
+      closeImportsQueue(),
     ])
     process.exit(0)
   }

@@ -33,6 +33,7 @@ export const AREAS: readonly AreaDefinition[] = [
     path: '/admin/stations',
     roles: ['admin', 'lead', 'engineer'],
   },
+  { key: 'import', label: 'Bench import', path: '/import', roles: ['lead', 'engineer'] },
   { key: 'outbox', label: 'Outbox', path: '/outbox', roles: ['admin', 'service'] },
   { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },
   { key: 'audit', label: 'Audit log', path: '/admin/audit', roles: ['admin'] },

@@ -24,6 +24,7 @@ export const PERMISSIONS = {
   readYield: ['lead', 'engineer', 'admin'],
   readAlerts: ['lead', 'engineer', 'admin'],
   acknowledgeAlerts: ['lead'],
+  importBenchData: ['lead', 'engineer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

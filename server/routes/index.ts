@@ -17,6 +17,7 @@ import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
 import { alertRoutes } from './alerts'
+import { importMappingRoutes, importRoutes } from './imports'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -43,6 +44,7 @@ void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoute
 void [outboxRoutes]
 
 void [alertRoutes]
+void [importRoutes, importMappingRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

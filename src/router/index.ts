@@ -90,6 +90,12 @@ export const router = createRouter({
       component: () => import('@/views/Receiving/ReceivingView.vue'),
     },
     {
+      path: '/import',
+      name: 'import',
+      meta: { roles: rolesOf('import') },
+      component: () => import('@/views/Import/ImportView.vue'),
+    },
+    {
       path: '/outbox',
       name: 'outbox',
       meta: { roles: rolesOf('outbox') },

@@ -114,6 +114,14 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/alerts', who: ['lead', 'engineer', 'admin'] },
   { method: 'post', path: '/api/alerts/:id/acknowledge', who: ['lead'] },
+  { method: 'get', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id/rows', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/dry-run', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/run', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
+  { method: 'put', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
