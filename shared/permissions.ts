@@ -22,6 +22,16 @@ export const PERMISSIONS = {
   disposeNonconformances: ['lead', 'engineer'],
   readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
+  readCustomers: ['lead', 'service', 'admin', 'engineer'],
+  editCustomers: ['lead', 'service', 'admin'],
+  readShipments: ['lead', 'service', 'admin', 'engineer'],
+  createShipments: ['lead', 'service'],
+  /** Make a certificate of conformance or a packing slip, and e-mail one to a customer. */
+  issueCustomerDocuments: ['service', 'lead', 'admin'],
+  /** E-mail a lot report. */
+  emailLotReports: ['lead', 'engineer', 'admin'],
+  readServiceCases: ['service', 'lead', 'engineer', 'admin'],
+  editServiceCases: ['service', 'lead'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

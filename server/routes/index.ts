@@ -16,6 +16,9 @@ import { floorRoutes, stepRunRoutes } from './floor'
 import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
+import { customerRoutes } from './customers'
+import { shipmentRoutes, unitDocumentRoutes } from './shipments'
+import { serviceCaseRoutes } from './serviceCases'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -40,6 +43,8 @@ void [
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
 void [outboxRoutes]
+
+void [customerRoutes, shipmentRoutes, unitDocumentRoutes, serviceCaseRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {
