@@ -14,6 +14,12 @@ import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { queueEmail } from './outbox'
 
+/** "Certificate of conformance S-0007 from Ferncastle Power": what the paper is, and whose. */
+function subjectOf(doc: Document): string {
+  const stem = doc.filename.replace(/\.pdf$/, '').replace(/-(certificate|packing-slip)$/, '')
+  return `${DOCUMENT_KIND_LABELS[doc.kind]} ${stem} from ${env.WAYMARK_SHOP_NAME}`
+}
+
 /**
  * Who may e-mail each kind of document. Customer papers go out from service, the lead or an
  * admin; a lot report from the people who read yields. Travelers and labels stay in the shop.
@@ -99,7 +105,7 @@ export async function documentEmailDraft(id: string, role: Role): Promise<Docume
   const customer = await documentCustomer(doc)
   return {
     to: customer?.contact_email ? [customer.contact_email] : [],
-    subject: `${DOCUMENT_KIND_LABELS[doc.kind]}: ${doc.filename.replace(/\.pdf$/, '')}`,
+    subject: subjectOf(doc),
     text: draftText(doc, customer, ''),
     customerName: customer?.name ?? null,
   }
@@ -127,7 +133,7 @@ export async function emailDocument(
     const email = await queueEmail(
       {
         to,
-        subject: `${DOCUMENT_KIND_LABELS[doc.kind]}: ${doc.filename.replace(/\.pdf$/, '')}`,
+        subject: subjectOf(doc),
         text: draftText(doc, customer, input.note),
         attachments: [
           {
