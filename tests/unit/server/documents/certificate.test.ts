@@ -8,6 +8,7 @@ import {
 import type {
   CertificateCheck,
   CertificateData,
+  CertificateRun,
   CertificateValue,
 } from '../../../../server/documents/certificate'
 import { packingSlipPdf } from '../../../../server/documents/packingSlip'
@@ -91,7 +92,7 @@ const data: CertificateData = {
         serial: r.serial,
         lotNumber: 'L-0001',
         passedOn: '2026-11-20',
-        runs: [
+        runs: <CertificateRun[]>[
           {
             stepId: 'h',
             attempt: i === 1 ? 2 : 1,
