@@ -57,7 +57,7 @@ describe('Shipping screen', () => {
     await page.goto(`${app.baseUrl}/shipping`)
     await signInThroughForm(page, 'service@ferncastle.example', 'waymark-demo')
     await page.waitForURL((u) => u.pathname === '/shipping')
-    const scanBox = page.locator('[data-test="ship-scan"] input')
+    const scanBox = page.locator('[data-test="ship-scan"]')
     await scanBox.waitFor()
     // The scan box has the focus on arrival, so a wedge scanner types straight into it.
     await page.waitForFunction(() => document.activeElement?.id === 'ship-scan')
