@@ -132,7 +132,11 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
     path: '/api/documents/:id/email-draft',
     who: ['service', 'lead', 'admin', 'engineer'],
   },
-  { method: 'post', path: '/api/documents/:id/email', who: ['service', 'lead', 'admin', 'engineer'] },
+  {
+    method: 'post',
+    path: '/api/documents/:id/email',
+    who: ['service', 'lead', 'admin', 'engineer'],
+  },
   { method: 'get', path: '/api/service-cases', who: ['service', 'lead', 'engineer', 'admin'] },
   { method: 'post', path: '/api/service-cases', who: ['service', 'lead'] },
   { method: 'get', path: '/api/service-cases/:id', who: ['service', 'lead', 'engineer', 'admin'] },
