@@ -114,7 +114,8 @@ const data: CertificateData = {
   ],
 }
 
-describe('certificatePdf', () => {
+// Rendering embeds fonts and takes seconds on a shared, busy machine.
+describe('certificatePdf', { timeout: 30_000 }, () => {
   let pdf: Buffer
   let text: string
   const fractions: number[] = []
@@ -122,7 +123,7 @@ describe('certificatePdf', () => {
   beforeAll(async () => {
     pdf = await certificatePdf(data, (f) => void fractions.push(f))
     text = (await pdfText(pdf)).text
-  })
+  }, 30_000)
 
   it('names product, revision, lot, customer, order, date and the issuing person', () => {
     for (const words of [
@@ -193,7 +194,7 @@ describe('certificatePdf', () => {
   })
 })
 
-describe('packingSlipPdf', () => {
+describe('packingSlipPdf', { timeout: 30_000 }, () => {
   it('lists ship-to, order, carrier, tracking and every serial with a count', async () => {
     const serials = Array.from(
       { length: 40 },
