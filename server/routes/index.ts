@@ -18,6 +18,9 @@ import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
 import { alertRoutes } from './alerts'
 import { importMappingRoutes, importRoutes } from './imports'
+import { customerRoutes } from './customers'
+import { shipmentRoutes, unitDocumentRoutes } from './shipments'
+import { serviceCaseRoutes } from './serviceCases'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -45,6 +48,7 @@ void [outboxRoutes]
 
 void [alertRoutes]
 void [importRoutes, importMappingRoutes]
+void [customerRoutes, shipmentRoutes, unitDocumentRoutes, serviceCaseRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

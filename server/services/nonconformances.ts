@@ -5,7 +5,7 @@ import { db, Lot, Nonconformance, RouteStep, StepRun, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { verifyCountersign } from './countersign'
-import { stepAfter } from './unitMoves'
+import { reworkTarget, sendToRework, stepAfter } from './unitMoves'
 
 interface NcRow {
   id: string
@@ -120,30 +120,14 @@ export async function disposeNonconformance(
     const failedStep = (await RouteStep.findByPk(run.stepId, { transaction }))!
     let countersignedBy: string | null = null
     if (input.disposition === 'rework') {
-      const target = input.reworkToStepId
-        ? await RouteStep.findByPk(input.reworkToStepId, { transaction })
-        : null
-      if (
-        !target ||
-        target.revisionId !== failedStep.revisionId ||
-        target.position > failedStep.position
+      const target = await reworkTarget(
+        input.reworkToStepId,
+        failedStep.revisionId,
+        failedStep.position,
+        transaction,
+        'choose a step of this route at or before the failed one',
       )
-        throw AppError.badRequest(
-          'reworkToStepId: choose a step of this route at or before the failed one',
-          { reworkToStepId: 'choose a step at or before the failed one' },
-        )
-      await unit.update(
-        {
-          state: 'in_rework',
-          currentStepId: target.id,
-          reworkCount: unit.reworkCount + 1,
-          reworkUntilPosition: failedStep.position,
-          holdKind: null,
-          heldFromState: null,
-          holdReason: '',
-        },
-        { transaction },
-      )
+      await sendToRework(unit, target, failedStep.position, transaction)
     } else if (input.disposition === 'scrap') {
       await unit.update(
         {

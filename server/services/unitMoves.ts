@@ -1,6 +1,7 @@
 import type { Transaction } from 'sequelize'
 import type { UnitState } from '../../shared/lots'
 import type { StepRefDto, UnitSummaryDto } from '../../shared/schemas/lots'
+import { AppError } from '../errors'
 import type { RouteStep, Unit } from '../models'
 import type { StepPlan } from './stepPlans'
 import { RouteStep as RouteStepModel } from '../models'
@@ -46,6 +47,49 @@ export interface UnitMove {
   holdKind: Unit['holdKind']
   heldFromState: UnitState | null
   holdReason: string
+}
+
+/**
+ * The step a rework starts at: one of the revision's route at or before `maxPosition`, or a 400
+ * naming `reworkToStepId`.
+ */
+export async function reworkTarget(
+  stepId: string | null,
+  revisionId: string,
+  maxPosition: number,
+  transaction: Transaction,
+  message = 'choose a step at or before the failed one',
+): Promise<RouteStep> {
+  const target = stepId ? await RouteStepModel.findByPk(stepId, { transaction }) : null
+  if (!target || target.revisionId !== revisionId || target.position > maxPosition)
+    throw AppError.badRequest(`reworkToStepId: ${message}`, { reworkToStepId: message })
+  return target
+}
+
+/**
+ * Sends a unit back to `target` to be built and tested again: it is `in_rework` until it passes
+ * the step at `untilPosition` again, its rework count goes up, and any hold ends. Used by a
+ * nonconformance's rework disposition and by a service case's repair.
+ */
+export async function sendToRework(
+  unit: Unit,
+  target: RouteStep,
+  untilPosition: number,
+  transaction: Transaction,
+): Promise<void> {
+  await unit.update(
+    {
+      state: 'in_rework',
+      currentStepId: target.id,
+      reworkCount: unit.reworkCount + 1,
+      reworkUntilPosition: untilPosition,
+      finishedAt: null,
+      holdKind: null,
+      heldFromState: null,
+      holdReason: '',
+    },
+    { transaction },
+  )
 }
 
 /**

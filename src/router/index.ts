@@ -96,6 +96,24 @@ export const router = createRouter({
       component: () => import('@/views/Import/ImportView.vue'),
     },
     {
+      path: '/shipping',
+      name: 'shipping',
+      meta: { roles: rolesOf('shipping') },
+      component: () => import('@/views/Shipping/ShippingView.vue'),
+    },
+    {
+      path: '/service',
+      name: 'service',
+      meta: { roles: rolesOf('service') },
+      component: () => import('@/views/Service/ServiceView.vue'),
+    },
+    {
+      path: '/customers',
+      name: 'customers',
+      meta: { roles: rolesOf('customers') },
+      component: () => import('@/views/Customers/CustomersView.vue'),
+    },
+    {
       path: '/outbox',
       name: 'outbox',
       meta: { roles: rolesOf('outbox') },

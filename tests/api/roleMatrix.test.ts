@@ -122,6 +122,36 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/imports/:id/run', who: ['lead', 'engineer'] },
   { method: 'get', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
   { method: 'put', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/customers', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/customers', who: ['lead', 'service', 'admin'] },
+  { method: 'get', path: '/api/customers/:id', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'patch', path: '/api/customers/:id', who: ['lead', 'service', 'admin'] },
+  { method: 'get', path: '/api/shipments', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/shipments', who: ['lead', 'service'] },
+  { method: 'get', path: '/api/shipments/units/:serial', who: ['lead', 'service'] },
+  { method: 'get', path: '/api/shipments/:id', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/shipments/:id/certificate', who: ['service', 'lead', 'admin'] },
+  { method: 'post', path: '/api/units/:serial/certificate', who: ['service', 'lead', 'admin'] },
+  {
+    method: 'get',
+    path: '/api/units/:serial/documents',
+    who: ['lead', 'service', 'admin', 'engineer'],
+  },
+  {
+    method: 'get',
+    path: '/api/documents/:id/email-draft',
+    who: ['service', 'lead', 'admin', 'engineer'],
+  },
+  {
+    method: 'post',
+    path: '/api/documents/:id/email',
+    who: ['service', 'lead', 'admin', 'engineer'],
+  },
+  { method: 'get', path: '/api/service-cases', who: ['service', 'lead', 'engineer', 'admin'] },
+  { method: 'post', path: '/api/service-cases', who: ['service', 'lead'] },
+  { method: 'get', path: '/api/service-cases/:id', who: ['service', 'lead', 'engineer', 'admin'] },
+  { method: 'patch', path: '/api/service-cases/:id', who: ['service', 'lead'] },
+  { method: 'post', path: '/api/service-cases/:id/close', who: ['service', 'lead'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
@@ -161,7 +191,7 @@ describe('role matrix', () => {
 
   it(
     'answers every route × role with the status its rule implies',
-    { timeout: 90_000 },
+    { timeout: 240_000 },
     async () => {
       const clients = new Map<Role, TestClient>()
       for (const role of ROLES) clients.set(role, await signedInAs(role))

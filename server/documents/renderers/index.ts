@@ -1,4 +1,5 @@
 import type { DocumentKind } from '../../../shared/lots'
+import { renderCertificate, renderPackingSlip } from './customerPapers'
 import { renderLabels, renderTravelers } from './lotPrints'
 import type { DocumentRenderer } from './types'
 
@@ -9,4 +10,6 @@ import type { DocumentRenderer } from './types'
 export const RENDERERS: Partial<Record<DocumentKind, DocumentRenderer>> = {
   travelers: renderTravelers,
   labels: renderLabels,
+  certificate: renderCertificate,
+  packing_slip: renderPackingSlip,
 }
