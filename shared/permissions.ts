@@ -22,6 +22,9 @@ export const PERMISSIONS = {
   disposeNonconformances: ['lead', 'engineer'],
   readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
+  traceUnits: ['service', 'lead', 'engineer', 'admin'],
+  containComponentLots: ['lead'],
+  sendDraftEmails: ['service', 'admin'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

@@ -16,6 +16,7 @@ import { floorRoutes, stepRunRoutes } from './floor'
 import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
+import { traceRoutes } from './trace'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -39,7 +40,7 @@ void [
 
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
-void [outboxRoutes]
+void [outboxRoutes, traceRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {
