@@ -178,6 +178,7 @@ export async function seedTraceHistory(
      SELECT gen_random_uuid(), k, l.id, 'done', 100, l.number || '-' || k || '.pdf', now(), now()
      FROM lots l CROSS JOIN (VALUES ('travelers'), ('labels')) AS v(k) WHERE l.number LIKE 'BL-%'`,
   )
-  await q('ANALYZE')
+  // As autovacuum would by now: statistics, and the visibility map index-only scans need.
+  await q('VACUUM ANALYZE')
   return { serials, hotLotCode: clCodes[0]!, unitsInHotLot: Math.min(opts.perLot, total) }
 }

@@ -102,8 +102,8 @@ WHERE u.serial = $1`
 
 /**
  * Every unit holding a component lot (by its internal code), with its lot, shipment and
- * customer: consumptions_lot_idx finds the units, the rest are primary-key joins. A unit that
- * took two pieces of the lot is one row with the summed quantity.
+ * customer: consumptions_lot_units_idx finds the units from the index alone, the rest are joins
+ * on primary keys. A unit that took two pieces of the lot is one row with the summed quantity.
  */
 export const RECALL_SCOPE_SQL = `
 SELECT u.id AS unit_id, u.serial, u.state, u.held_from_state, l.number AS lot_number,

@@ -115,4 +115,33 @@ describe('Trace for customer service', { timeout: 120_000 }, () => {
     await expect.poll(() => page.locator('[data-test=trace-serial]').textContent()).toBe(serial)
     await page.close()
   })
+
+  it('offers a lead the Contain action with a reason, and cancels without changing anything', async () => {
+    const [row] = await db().query<{ code: string }>(
+      `SELECT cl.internal_code AS code FROM component_lots cl
+       JOIN consumptions co ON co.component_lot_id = cl.id
+       GROUP BY cl.internal_code ORDER BY count(*) DESC LIMIT 1`,
+      { type: QueryTypes.SELECT },
+    )
+    const page = await browser.newPage()
+    screenshotOnFailure(page, 'trace-contain')
+    await page.goto(`${app.baseUrl}/signin`)
+    await signInByApi(page, 'lead@ferncastle.example')
+    await page.goto(`${app.baseUrl}/trace?lot=${row!.code}`)
+    await page.locator('[data-test=recall-code]').waitFor()
+    await page.locator('[data-test=contain]').click()
+    const confirm = page.locator('[data-test=contain-confirm]')
+    await confirm.waitFor()
+    expect(await confirm.isDisabled()).toBe(true) // no reason yet
+    await page.locator('#contain-reason').fill('supplier reports cracked cores in this batch')
+    expect(await confirm.isDisabled()).toBe(false)
+    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'trace-contain-dialog.png') })
+    await page.getByRole('button', { name: 'Cancel' }).click()
+    const [still] = await db().query<{ status: string }>(
+      'SELECT status FROM component_lots WHERE internal_code = :code',
+      { replacements: row, type: QueryTypes.SELECT },
+    )
+    expect(still!.status).toBe('available')
+    await page.close()
+  })
 })
