@@ -19,6 +19,7 @@ export const AREAS: readonly AreaDefinition[] = [
     path: '/floor',
     roles: ['operator', 'lead', 'engineer', 'admin'],
   },
+  { key: 'trace', label: 'Trace', path: '/trace', roles: ['service', 'lead', 'engineer', 'admin'] },
   { key: 'lots', label: 'Lots', path: '/lots', roles: ['lead', 'engineer', 'admin', 'service'] },
   { key: 'recipes', label: 'Recipes', path: '/recipes', roles: ['engineer', 'lead', 'admin'] },
   {

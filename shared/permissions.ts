@@ -35,6 +35,9 @@ export const PERMISSIONS = {
   emailLotReports: ['lead', 'engineer', 'admin'],
   readServiceCases: ['service', 'lead', 'engineer', 'admin'],
   editServiceCases: ['service', 'lead'],
+  traceUnits: ['service', 'lead', 'engineer', 'admin'],
+  containComponentLots: ['lead'],
+  sendDraftEmails: ['service', 'admin'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

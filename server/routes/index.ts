@@ -21,6 +21,7 @@ import { importMappingRoutes, importRoutes } from './imports'
 import { customerRoutes } from './customers'
 import { shipmentRoutes, unitDocumentRoutes } from './shipments'
 import { serviceCaseRoutes } from './serviceCases'
+import { traceRoutes } from './trace'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -44,7 +45,7 @@ void [
 
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
-void [outboxRoutes]
+void [outboxRoutes, traceRoutes]
 
 void [alertRoutes]
 void [importRoutes, importMappingRoutes]

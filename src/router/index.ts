@@ -120,6 +120,20 @@ export const router = createRouter({
       component: () => import('@/views/Outbox/OutboxView.vue'),
     },
     {
+      path: '/trace',
+      name: 'trace',
+      meta: { roles: rolesOf('trace') },
+      component: () => import('@/views/Trace/TraceView.vue'),
+    },
+    {
+      // What a traveler's QR holds (shared/links.ts unitUrl).
+      path: '/u/:serial',
+      name: 'unit-link',
+      props: true,
+      meta: { roles: [...new Set([...rolesOf('trace'), ...rolesOf('floor')])] },
+      component: () => import('@/views/Trace/UnitLinkView.vue'),
+    },
+    {
       path: '/admin/stations',
       name: 'stations',
       meta: { roles: rolesOf('stations') },

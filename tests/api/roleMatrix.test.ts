@@ -7,6 +7,8 @@ import { resetSignInLimits, signedInAs, TestClient, testApp } from './support/cl
 
 type Who = 'public' | 'signed_in' | readonly Role[]
 
+const TRACE: Who = ['service', 'lead', 'engineer', 'admin']
+
 /**
  * Who may call each route, written out by hand. Adding a route to the server without adding it
  * here fails the first test; a route whose guard differs from this table fails the second.
@@ -152,6 +154,13 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/service-cases/:id', who: ['service', 'lead', 'engineer', 'admin'] },
   { method: 'patch', path: '/api/service-cases/:id', who: ['service', 'lead'] },
   { method: 'post', path: '/api/service-cases/:id/close', who: ['service', 'lead'] },
+  { method: 'patch', path: '/api/outbox/:id', who: ['service', 'admin'] },
+  { method: 'post', path: '/api/outbox/:id/send', who: ['service', 'admin'] },
+  { method: 'get', path: '/api/trace/units/:serial', who: TRACE },
+  { method: 'get', path: '/api/trace/units/:serial/history.json', who: TRACE },
+  { method: 'get', path: '/api/trace/units/:serial/history.pdf', who: TRACE },
+  { method: 'get', path: '/api/trace/component-lots/:code', who: TRACE },
+  { method: 'post', path: '/api/trace/component-lots/:code/contain', who: ['lead'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
