@@ -105,6 +105,7 @@ async function record(
   input: StepRunInput,
   actor: Actor,
   transaction: Transaction,
+  at: Date,
 ): Promise<StepRunResultDto | { repeat: StepRun }> {
   // The row lock on the unit serialises every submission for it: a second station waits here,
   // then finds the unit moved on; a retried submission finds its own step run.
@@ -150,7 +151,7 @@ async function record(
     : null
   const attempt =
     (await StepRun.count({ where: { unitId: unit.id, stepId: step.id }, transaction })) + 1
-  const now = new Date()
+  const now = at
   const run = await StepRun.create(
     {
       unitId: unit.id,
@@ -212,11 +213,13 @@ async function record(
 export async function recordStepRun(
   input: StepRunInput,
   actor: Actor,
+  /** When the run happened; the demo seed spreads its lots over past days. */
+  at: Date = new Date(),
 ): Promise<{ isRepeat: boolean; body: StepRunResultDto }> {
   const known = await StepRun.findOne({ where: { clientEventId: input.clientEventId } })
   if (known) return { isRepeat: true, body: await resultOf(known, input) }
   try {
-    const out = await db().transaction((t) => record(input, actor, t))
+    const out = await db().transaction((t) => record(input, actor, t, at))
     if ('repeat' in out) return { isRepeat: true, body: await resultOf(out.repeat, input) }
     return { isRepeat: false, body: out }
   } catch (err) {

@@ -112,6 +112,8 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
   { method: 'get', path: '/api/yield/summary', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/lots/:id/detail', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/lots/:id/turns', who: ['lead', 'engineer', 'admin'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
