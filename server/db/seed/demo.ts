@@ -5,6 +5,7 @@ import { hashPassword } from '../../services/passwords'
 import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
 import { loadDemoLots } from './demoLots'
+import { loadMiscountLot } from './demoMiscountLot'
 import { loadDemoRecipes } from './loadRecipes'
 
 /** The actor the audit log names for demo rows. */
@@ -53,5 +54,6 @@ export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promi
   await loadPeopleAndFloor()
   await loadDemoRecipes(SEED_ACTOR)
   await loadDemoLots()
+  await loadMiscountLot()
   return true
 }
