@@ -15,8 +15,8 @@ import { demoReadings, seededRandom } from './demoReadings'
 // (its turn counter skipped); the operator typed the 92 the counter showed, so only the ratio
 // test caught them. This lot's cores read about 6 % above the nominal AL (well inside the ±25 %
 // tolerance), so the inductance alone would flag every unit against the nominal; against the
-// lot's own median only the six stand out. The six are rewound at WND-1 on day 4. The first
-// day's six units have finished; the rest are spread along the route (the lot is in progress),
+// lot's own median only the six stand out. The six are rewound at WND-1 on day 4. Three units
+// have finished; the rest are spread along the route (the lot is in progress),
 // which also keeps the seed quick: each hipot run needs a countersign, a bcrypt check.
 
 /** The order reference that marks this lot, so loading the demo twice adds it once. */
@@ -39,8 +39,8 @@ async function actor(email: string): Promise<Actor & { role: string }> {
   return { id: u.id, email: u.email, role: u.role, ip: null, requestId: 'demo-seed' }
 }
 
-/** Route steps unit `i` has done (before any rework): day 1 finished, the rest under way. */
-const REACH = (i: number) => (i < 6 ? 6 : i < 18 ? 2 : 1)
+/** Route steps unit `i` has done (before any rework): three finished, the rest under way. */
+const REACH = (i: number) => (i < 3 ? 6 : i < 18 ? 2 : 1)
 
 /** When unit `i` does route step `position` (1-based): six units a day, eight minutes apart. */
 function timeOf(i: number, position: number, day = Math.floor(i / 6)): Date {
