@@ -1,3 +1,4 @@
+import { PERMISSIONS } from './permissions'
 import type { Role } from './roles'
 
 /** The product areas of DESIGN.md §2, each with the roles that may open it. */
@@ -21,6 +22,7 @@ export const AREAS: readonly AreaDefinition[] = [
   },
   { key: 'trace', label: 'Trace', path: '/trace', roles: ['service', 'lead', 'engineer', 'admin'] },
   { key: 'lots', label: 'Lots', path: '/lots', roles: ['lead', 'engineer', 'admin', 'service'] },
+  { key: 'yield', label: 'Yield', path: '/yield', roles: PERMISSIONS.readYield },
   { key: 'recipes', label: 'Recipes', path: '/recipes', roles: ['engineer', 'lead', 'admin'] },
   {
     key: 'receiving',

@@ -198,6 +198,7 @@ async function record(
   input: StepRunInput,
   actor: Actor,
   transaction: Transaction,
+  at: Date,
 ): Promise<{ body: StepRunResultDto; lotId: string; stepId: string } | { repeat: StepRun }> {
   // The row lock on the unit serialises every submission for it: a second station waits here,
   // then finds the unit moved on; a retried submission finds its own step run.
@@ -261,7 +262,7 @@ async function record(
       )
     : null
   const attempt = ctx!.runsAtStep + 1
-  const now = new Date()
+  const now = at
   const runId = randomUUID()
   const failedKeys = failed.map((c) => c.key)
   const move = unitAfterRun(unit, step, failedKeys, now)
@@ -332,9 +333,14 @@ export type RecordedStepRun =
  * values, checks the route rules and component lots, stores the run with its measurements and
  * consumptions and moves the unit on, exactly once per `clientEventId`.
  */
-export async function recordStepRun(input: StepRunInput, actor: Actor): Promise<RecordedStepRun> {
+export async function recordStepRun(
+  input: StepRunInput,
+  actor: Actor,
+  /** When the run happened; the demo seed spreads its lots over past days. */
+  at: Date = new Date(),
+): Promise<RecordedStepRun> {
   try {
-    const out = await db().transaction((t) => record(input, actor, t))
+    const out = await db().transaction((t) => record(input, actor, t, at))
     if ('repeat' in out) return { isRepeat: true, body: await resultOf(out.repeat, input) }
     return { isRepeat: false, body: out.body, lotId: out.lotId, stepId: out.stepId }
   } catch (err) {

@@ -59,6 +59,12 @@ export const router = createRouter({
       component: () => import('@/views/Lots/LotView.vue'),
     },
     {
+      path: '/yield',
+      name: 'yield',
+      meta: { roles: rolesOf('yield') },
+      component: () => import('@/views/Yield/YieldView.vue'),
+    },
+    {
       path: '/recipes',
       name: 'recipes',
       meta: { roles: rolesOf('recipes') },

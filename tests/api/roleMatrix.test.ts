@@ -161,6 +161,8 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/trace/units/:serial/history.pdf', who: TRACE },
   { method: 'get', path: '/api/trace/component-lots/:code', who: TRACE },
   { method: 'post', path: '/api/trace/component-lots/:code/contain', who: ['lead'] },
+  { method: 'get', path: '/api/yield/lots/:id/detail', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/lots/:id/turns', who: ['lead', 'engineer', 'admin'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`

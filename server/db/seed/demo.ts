@@ -6,6 +6,7 @@ import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
 import { loadDemoLots } from './demoLots'
 import { loadDemoCustomers, loadDemoShipping } from './demoShipping'
+import { loadMiscountLot } from './demoMiscountLot'
 import { loadDemoRecipes } from './loadRecipes'
 
 /** The actor the audit log names for demo rows. */
@@ -56,5 +57,6 @@ export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promi
   await loadDemoCustomers()
   await loadDemoLots()
   await loadDemoShipping()
+  await loadMiscountLot()
   return true
 }
