@@ -3,6 +3,7 @@ import { loadDemo } from '../server/db/seed/demo'
 import { env } from '../server/env'
 import { closeDb } from '../server/models'
 import { closeDocumentsQueue } from '../server/queues/documents'
+import { closeMailQueue } from '../server/queues/mail'
 
 const HELP = `Usage: tsx scripts/seed.ts [--if-empty]
 
@@ -23,7 +24,7 @@ try {
     `seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`,
   )
 } finally {
-  await Promise.all([closeDb(), closeDocumentsQueue()])
+  await Promise.all([closeDb(), closeDocumentsQueue(), closeMailQueue()])
 }
 // Nothing else should be left open, but a seed must never hang the start or test run.
 process.exit(0)

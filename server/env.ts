@@ -41,6 +41,8 @@ const EnvSchema = z.object({
   // 0: no shared fake; the tests start their own and call setSmtpPortForTests().
   WAYMARK_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2526),
   MAIL_FROM: z.string().min(3).default('Waymark <waymark@ferncastle.example>'),
+  // The maker's name on certificates, packing slips and e-mails to customers.
+  WAYMARK_SHOP_NAME: z.string().min(1).max(120).default('Ferncastle Power'),
   WAYMARK_MAIL_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(5),
   WAYMARK_MAIL_BACKOFF_MS: z.coerce.number().int().min(10).default(30_000),
   WAYMARK_WORKERS: z.enum(['on', 'off']).default('on'),

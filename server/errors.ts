@@ -5,8 +5,11 @@ export class AppError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
-    /** A list of problems, e.g. everything that stops a revision from being released. */
-    readonly details?: string[],
+    /**
+     * A list of problems (e.g. everything that stops a revision from being released), or named
+     * extra data such as the serials offered for a mistyped one.
+     */
+    readonly details?: string[] | Record<string, unknown>,
   ) {
     super(message)
     this.name = 'AppError'

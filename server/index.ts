@@ -7,6 +7,8 @@ import { closeDb } from './models'
 import { closeRedis } from './redis'
 import { closeDocumentsQueue } from './queues/documents'
 import { closeMailQueue } from './queues/mail'
+import { closeAlertsQueue } from './queues/alerts'
+import { closeImportsQueue } from './queues/imports'
 import { closeMail } from './mail'
 import { DEMO_PASSWORD, DEMO_USERS } from './db/seed/demoUsers'
 import { startWorkers } from '../workers'
@@ -45,6 +47,8 @@ async function main(): Promise<void> {
       closeRedis(),
       closeDocumentsQueue(),
       closeMailQueue(),
+      closeAlertsQueue(),
+      closeImportsQueue(),
     ])
     process.exit(0)
   }

@@ -1,3 +1,4 @@
+import { PERMISSIONS } from './permissions'
 import type { Role } from './roles'
 
 /** The product areas of DESIGN.md §2, each with the roles that may open it. */
@@ -19,7 +20,9 @@ export const AREAS: readonly AreaDefinition[] = [
     path: '/floor',
     roles: ['operator', 'lead', 'engineer', 'admin'],
   },
+  { key: 'trace', label: 'Trace', path: '/trace', roles: ['service', 'lead', 'engineer', 'admin'] },
   { key: 'lots', label: 'Lots', path: '/lots', roles: ['lead', 'engineer', 'admin', 'service'] },
+  { key: 'yield', label: 'Yield', path: '/yield', roles: PERMISSIONS.readYield },
   { key: 'recipes', label: 'Recipes', path: '/recipes', roles: ['engineer', 'lead', 'admin'] },
   {
     key: 'receiving',
@@ -32,6 +35,25 @@ export const AREAS: readonly AreaDefinition[] = [
     label: 'Stations',
     path: '/admin/stations',
     roles: ['admin', 'lead', 'engineer'],
+  },
+  { key: 'import', label: 'Bench import', path: '/import', roles: ['lead', 'engineer'] },
+  {
+    key: 'shipping',
+    label: 'Shipping',
+    path: '/shipping',
+    roles: ['lead', 'service', 'admin', 'engineer'],
+  },
+  {
+    key: 'service',
+    label: 'Service',
+    path: '/service',
+    roles: ['service', 'lead', 'engineer', 'admin'],
+  },
+  {
+    key: 'customers',
+    label: 'Customers',
+    path: '/customers',
+    roles: ['lead', 'service', 'admin', 'engineer'],
   },
   { key: 'outbox', label: 'Outbox', path: '/outbox', roles: ['admin', 'service'] },
   { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },

@@ -5,6 +5,7 @@ export interface ApiErrorBody {
   message: string
   /** Field name to message, for validation errors. */
   fields?: Record<string, string>
-  /** A list of problems, e.g. what stops a revision from being released. */
-  details?: string[]
+  /** A list of problems (what stops a revision from being released), or named extra data
+   * such as `{ suggestions }` for a mistyped serial. */
+  details?: string[] | Record<string, unknown>
 }

@@ -22,6 +22,22 @@ export const PERMISSIONS = {
   disposeNonconformances: ['lead', 'engineer'],
   readOutbox: ['admin', 'service'],
   readYield: ['lead', 'engineer', 'admin'],
+  readAlerts: ['lead', 'engineer', 'admin'],
+  acknowledgeAlerts: ['lead'],
+  importBenchData: ['lead', 'engineer'],
+  readCustomers: ['lead', 'service', 'admin', 'engineer'],
+  editCustomers: ['lead', 'service', 'admin'],
+  readShipments: ['lead', 'service', 'admin', 'engineer'],
+  createShipments: ['lead', 'service'],
+  /** Make a certificate of conformance or a packing slip, and e-mail one to a customer. */
+  issueCustomerDocuments: ['service', 'lead', 'admin'],
+  /** E-mail a lot report. */
+  emailLotReports: ['lead', 'engineer', 'admin'],
+  readServiceCases: ['service', 'lead', 'engineer', 'admin'],
+  editServiceCases: ['service', 'lead'],
+  traceUnits: ['service', 'lead', 'engineer', 'admin'],
+  containComponentLots: ['lead'],
+  sendDraftEmails: ['service', 'admin'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

@@ -2,9 +2,13 @@ import { fileURLToPath } from 'node:url'
 import type { Worker } from 'bullmq'
 import { logger } from '../server/logger'
 import { closeDocumentsQueue } from '../server/queues/documents'
+import { closeImportsQueue } from '../server/queues/imports'
 import { closeMailQueue } from '../server/queues/mail'
+import { closeAlertsQueue } from '../server/queues/alerts'
 import { newQueueConnection } from '../server/redis'
+import { startAlertsWorker } from './alerts'
 import { startDocumentsWorker } from './documents'
+import { startImportsWorker } from './imports'
 import { startMailWorker } from './mail'
 import { scheduleMaintenance, startMaintenanceWorker } from './maintenance'
 
@@ -14,7 +18,15 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   await scheduleMaintenance(connection)
   const documents = startDocumentsWorker(connection)
   const mail = startMailWorker(connection)
-  const workers: Worker[] = [startMaintenanceWorker(connection), documents.worker, mail.worker]
+  const alerts = startAlertsWorker(connection)
+  const imports = startImportsWorker(connection)
+  const workers: Worker[] = [
+    startMaintenanceWorker(connection),
+    documents.worker,
+    mail.worker,
+    alerts.worker,
+    imports.worker,
+  ]
   for (const w of workers)
     w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
   logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
@@ -22,9 +34,13 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
     close: async () => {
       documents.stop()
       mail.stop()
+      alerts.stop()
+      imports.stop()
       await Promise.all(workers.map((w) => w.close()))
       await closeDocumentsQueue()
       await closeMailQueue()
+      await closeAlertsQueue()
+      await closeImportsQueue()
       await connection.quit()
     },
   }

@@ -1,6 +1,8 @@
 // Benchmark of the scan route: `npx tsx scripts/bench/scan.ts [--units 2000] [--connections 32]`.
 // Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench).
 import { randomUUID } from 'node:crypto'
+import { writeFileSync } from 'node:fs'
+import inspector from 'node:inspector/promises'
 import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { parseArgs } from 'node:util'
@@ -17,15 +19,17 @@ const { values: args } = parseArgs({
   options: {
     units: { type: 'string', default: '2000' },
     connections: { type: 'string', default: '32' },
+    profile: { type: 'string' },
     help: { type: 'boolean' },
   },
 })
 if (args.help) {
-  console.log(`Usage: tsx scripts/bench/scan.ts [--units N] [--connections N]
+  console.log(`Usage: tsx scripts/bench/scan.ts [--units N] [--connections N] [--profile file]
 
 Resets its own database (WAYMARK_DB, default waymark_bench_test), releases one lot of N units of a
 one-step recipe, then drives POST /api/step-runs with autocannon over loopback, next to a
-baseline: a bare Express route doing one INSERT through pg. Prints p50/p95/p99 and throughput.`)
+baseline: a bare Express route doing one INSERT through pg. Prints p50/p95/p99 and throughput.
+--profile writes a V8 CPU profile of the scan phase alone (open it in Chromium's DevTools).`)
   process.exit(0)
 }
 const UNITS = Number(args.units)
@@ -114,6 +118,12 @@ const token = (
     csrfToken: string
   }
 ).csrfToken
+const profiler = args.profile ? new inspector.Session() : null
+if (profiler) {
+  profiler.connect()
+  await profiler.post('Profiler.enable')
+  await profiler.post('Profiler.start')
+}
 let next = 0
 const scan = await run(
   `${base}/api/step-runs`,
@@ -126,6 +136,12 @@ const scan = await run(
     }),
   { cookie, 'x-csrf-token': token },
 )
+
+if (profiler) {
+  const { profile } = await profiler.post('Profiler.stop')
+  writeFileSync(args.profile!, JSON.stringify(profile))
+  profiler.disconnect()
+}
 
 function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN

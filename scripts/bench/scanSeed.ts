@@ -9,11 +9,11 @@ import { createStep } from '../../server/services/routeSteps'
 
 /**
  * A one-step winding recipe with two checks, released, and a released lot of `units` of it.
- * Returns the serials, queued at the winding step.
+ * Returns the serials, queued at the winding step. The product code must be new to the database.
  */
-export async function seedBenchLot(units: number): Promise<string[]> {
+export async function seedBenchLot(units: number, productCode = 'BN01'): Promise<string[]> {
   const product = await createProduct(
-    { code: 'BN01', name: 'Benchmark unit', description: 'made by scripts/bench' },
+    { code: productCode, name: 'Benchmark unit', description: 'made by scripts/bench' },
     SEED_ACTOR,
   )
   const revId = product.revisions[0]!.id

@@ -22,6 +22,7 @@ export class ServiceCase extends Model<
   declare defectCodeId: string | null
   declare resolution: ServiceCaseResolution | null
   declare replacementUnitId: string | null
+  declare reworkToStepId: CreationOptional<string | null>
   declare status: CreationOptional<ServiceCaseStatus>
   declare openedBy: string | null
   declare closedBy: string | null
@@ -43,6 +44,7 @@ export function initServiceCase(sequelize: Sequelize): void {
       defectCodeId: { type: DataTypes.UUID, allowNull: true },
       resolution: { type: DataTypes.ENUM(...SERVICE_CASE_RESOLUTIONS), allowNull: true },
       replacementUnitId: { type: DataTypes.UUID, allowNull: true },
+      reworkToStepId: { type: DataTypes.UUID, allowNull: true },
       status: {
         type: DataTypes.ENUM(...SERVICE_CASE_STATUSES),
         allowNull: false,

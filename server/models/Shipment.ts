@@ -41,7 +41,10 @@ export function initShipment(sequelize: Sequelize): void {
   )
 }
 
-/** One unit in one shipment; a unit ships once (the unit id is the key). */
+/**
+ * One unit in one shipment. A repaired return ships again, so a unit may be in several
+ * shipments; the latest is where it is now.
+ */
 export class ShipmentUnit extends Model<
   InferAttributes<ShipmentUnit>,
   InferCreationAttributes<ShipmentUnit>
@@ -55,7 +58,7 @@ export function initShipmentUnit(sequelize: Sequelize): void {
   ShipmentUnit.init(
     {
       unitId: { type: DataTypes.UUID, primaryKey: true },
-      shipmentId: { type: DataTypes.UUID, allowNull: false },
+      shipmentId: { type: DataTypes.UUID, primaryKey: true },
       createdAt: DataTypes.DATE,
     },
     { sequelize, tableName: 'shipment_units', underscored: true, updatedAt: false },

@@ -25,6 +25,10 @@ import { Email, initEmail } from './Email'
 import { Customer, initCustomer } from './Customer'
 import { initShipment, initShipmentUnit, Shipment, ShipmentUnit } from './Shipment'
 import { initServiceCase, ServiceCase } from './ServiceCase'
+import { Alert, initAlert } from './Alert'
+import { Import, initImport } from './Import'
+import { ImportMapping, initImportMapping } from './ImportMapping'
+import { ImportRow, initImportRow } from './ImportRow'
 
 export {
   AuditEvent,
@@ -43,6 +47,8 @@ export {
 }
 export { Consumption, Document, Email, Lot, Measurement, Nonconformance, StepRun, Unit }
 export { Customer, ServiceCase, Shipment, ShipmentUnit }
+export { Alert }
+export { Import, ImportMapping, ImportRow }
 
 let instance: Sequelize | undefined
 
@@ -66,6 +72,8 @@ function associate(): void {
   Shipment.hasMany(ShipmentUnit, { as: 'units', foreignKey: 'shipmentId' })
   ServiceCase.belongsTo(Unit, { as: 'unit', foreignKey: 'unitId' })
   ServiceCase.belongsTo(Customer, { as: 'customer', foreignKey: 'customerId' })
+  Import.belongsTo(Station, { as: 'station', foreignKey: 'stationId' })
+  Import.belongsTo(Upload, { as: 'upload', foreignKey: 'uploadId' })
 }
 
 /** The app's Sequelize instance (connected as the app's own, non-owner role), made on first use. */
@@ -103,6 +111,10 @@ export function db(): Sequelize {
     initShipment,
     initShipmentUnit,
     initServiceCase,
+    initAlert,
+    initImport,
+    initImportMapping,
+    initImportRow,
   ])
     init(instance)
   associate()

@@ -1,6 +1,9 @@
 import { IdParam } from '../../shared/schemas/common'
 import { PERMISSIONS } from '../../shared/permissions'
+import { DocumentEmailInput } from '../../shared/schemas/shipping'
+import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
+import { documentEmailDraft, emailDocument } from '../services/documentEmail'
 import { documentFile, getDocument } from '../services/documents'
 import { getFile } from '../storage'
 import { apiRoutes } from './registry'
@@ -19,4 +22,25 @@ documentRoutes.get('/:id/file', PERMISSIONS.readLots, async (req, res) => {
     `inline; filename="${doc.filename.replace(/["\\\r\n]/g, '_')}"`,
   )
   res.send(file.body)
+})
+
+// Who may e-mail depends on the kind (documentEmail.ts); the route lets in every role that may
+// e-mail some kind, and the service decides for this document.
+const mailers = [
+  ...new Set([...PERMISSIONS.issueCustomerDocuments, ...PERMISSIONS.emailLotReports]),
+] as const
+documentRoutes.get('/:id/email-draft', mailers, async (req, res) => {
+  res.json(await documentEmailDraft(parse(IdParam, req.params.id), signedInUser(req).role))
+})
+documentRoutes.post('/:id/email', mailers, async (req, res) => {
+  const actor = { ...actorOf(req), role: signedInUser(req).role }
+  res
+    .status(202)
+    .json(
+      await emailDocument(
+        parse(IdParam, req.params.id),
+        parse(DocumentEmailInput, req.body),
+        actor,
+      ),
+    )
 })

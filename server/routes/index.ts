@@ -17,6 +17,12 @@ import { nonconformanceRoutes } from './nonconformances'
 import { documentRoutes } from './documents'
 import { yieldRoutes } from './yield'
 import { exportRoutes } from './exports'
+import { alertRoutes } from './alerts'
+import { importMappingRoutes, importRoutes } from './imports'
+import { customerRoutes } from './customers'
+import { shipmentRoutes, unitDocumentRoutes } from './shipments'
+import { serviceCaseRoutes } from './serviceCases'
+import { traceRoutes } from './trace'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -40,7 +46,11 @@ void [
 
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]
 
-void [outboxRoutes, exportRoutes]
+void [outboxRoutes, exportRoutes, traceRoutes]
+
+void [alertRoutes]
+void [importRoutes, importMappingRoutes]
+void [customerRoutes, shipmentRoutes, unitDocumentRoutes, serviceCaseRoutes]
 
 /** The /api router: every router made with `apiRoutes`, at its base path. */
 export function apiRouter(): Router {

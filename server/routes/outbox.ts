@@ -2,8 +2,10 @@ import { z } from 'zod'
 import { PERMISSIONS } from '../../shared/permissions'
 import { IdParam } from '../../shared/schemas/common'
 import { OutboxQuery } from '../../shared/schemas/outbox'
+import { DraftUpdateInput } from '../../shared/schemas/trace'
+import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { emailAttachment, getEmail, listEmails } from '../services/outbox'
+import { emailAttachment, getEmail, listEmails, sendDraft, updateDraft } from '../services/outbox'
 import { getFile } from '../storage'
 import { apiRoutes } from './registry'
 
@@ -31,4 +33,18 @@ outboxRoutes.get('/:id/attachments/:index', PERMISSIONS.readOutbox, async (req, 
     `attachment; filename="${a.filename.replace(/["\\\r\n]/g, '_')}"`,
   )
   res.send(file.body)
+})
+
+// Drafts (recall letters) wait for a person: edit them, then send.
+outboxRoutes.patch('/:id', PERMISSIONS.sendDraftEmails, async (req, res) => {
+  res.json(
+    await updateDraft(
+      parse(IdParam, req.params.id),
+      parse(DraftUpdateInput, req.body),
+      actorOf(req),
+    ),
+  )
+})
+outboxRoutes.post('/:id/send', PERMISSIONS.sendDraftEmails, async (req, res) => {
+  res.json(await sendDraft(parse(IdParam, req.params.id), actorOf(req)))
 })

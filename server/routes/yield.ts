@@ -2,7 +2,9 @@ import { IdParam } from '../../shared/schemas/common'
 import { YieldSummaryQuery } from '../../shared/schemas/yield'
 import { PERMISSIONS } from '../../shared/permissions'
 import { parse } from '../middleware/validate'
+import { lotTurnDeviation } from '../services/turnDeviation'
 import { getLotYield, summarizeYield } from '../services/yield'
+import { getLotYieldDetail } from '../services/yieldDetail'
 import { apiRoutes } from './registry'
 
 export const yieldRoutes = apiRoutes('/yield')
@@ -13,4 +15,10 @@ yieldRoutes.get('/summary', read, async (req, res) => {
 })
 yieldRoutes.get('/lots/:id', read, async (req, res) => {
   res.json(await getLotYield(parse(IdParam, req.params.id)))
+})
+yieldRoutes.get('/lots/:id/detail', read, async (req, res) => {
+  res.json(await getLotYieldDetail(parse(IdParam, req.params.id)))
+})
+yieldRoutes.get('/lots/:id/turns', read, async (req, res) => {
+  res.json(await lotTurnDeviation(parse(IdParam, req.params.id)))
 })

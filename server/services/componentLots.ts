@@ -186,31 +186,42 @@ export async function setComponentLotStatus(
   input: ComponentLotStatusInput,
   actor: Actor,
 ): Promise<ComponentLotDto> {
-  return db().transaction(async (transaction) => {
-    const lot = await loadLot(id, transaction, true)
-    const from: ComponentLotStatus = lot.status
-    if (!LOT_STATUS_MOVES[from].includes(input.status))
-      throw AppError.conflict(
-        'status_move_refused',
-        `a ${from.replace('_', ' ')} lot cannot become ${input.status.replace('_', ' ')}`,
-        {
-          status: `not allowed from ${from}`,
-        },
-      )
-    await lot.update({ status: input.status }, { transaction })
-    await recordAudit(
-      actor,
+  return db().transaction((transaction) => moveComponentLotStatus(id, input, actor, transaction))
+}
+
+/**
+ * The status move inside the caller's transaction (a containment quarantines the lot together
+ * with holding its units): locks the lot, refuses a move LOT_STATUS_MOVES does not allow, audits.
+ */
+export async function moveComponentLotStatus(
+  id: string,
+  input: ComponentLotStatusInput,
+  actor: Actor,
+  transaction: Transaction,
+): Promise<ComponentLotDto> {
+  const lot = await loadLot(id, transaction, true)
+  const from: ComponentLotStatus = lot.status
+  if (!LOT_STATUS_MOVES[from].includes(input.status))
+    throw AppError.conflict(
+      'status_move_refused',
+      `a ${from.replace('_', ' ')} lot cannot become ${input.status.replace('_', ' ')}`,
       {
-        action: 'component_lot.status',
-        entity: 'component_lot',
-        entityId: id,
-        before: { status: from },
-        after: { status: input.status, reason: input.reason },
+        status: `not allowed from ${from}`,
       },
-      transaction,
     )
-    return toComponentLotDto(lot)
-  })
+  await lot.update({ status: input.status }, { transaction })
+  await recordAudit(
+    actor,
+    {
+      action: 'component_lot.status',
+      entity: 'component_lot',
+      entityId: id,
+      before: { status: from },
+      after: { status: input.status, reason: input.reason },
+    },
+    transaction,
+  )
+  return toComponentLotDto(lot)
 }
 
 /** Stores a supplier certificate (PDF, PNG or JPEG, checked by content) and attaches it. */

@@ -13,10 +13,10 @@ export interface Refusal {
  * and the step-run recording use this one function.
  */
 export function unitRefusal(
-  unit: Unit,
-  lot: Lot,
+  unit: Pick<Unit, 'serial' | 'state' | 'holdReason'>,
+  lot: Pick<Lot, 'number' | 'status' | 'isOnHold' | 'holdReason'>,
   step: Pick<RouteStep, 'name' | 'stationKind'> | null,
-  station: Station,
+  station: Pick<Station, 'code' | 'name' | 'kind' | 'isActive'>,
 ): Refusal | null {
   const s = unit.serial
   if (!station.isActive)

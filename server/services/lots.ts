@@ -8,6 +8,7 @@ import { db, Lot, Product, Revision, RouteStep, Unit } from '../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
 import { lotPrintFilename, requestDocument } from './documents'
+import { customerForLot } from './customers'
 import { allocateSerials } from './serialAllocation'
 
 const WITH_PRODUCT = [
@@ -40,6 +41,7 @@ function toLotDto(lot: Lot, counts: Partial<Record<UnitState, number>> = {}): Lo
     quantity: lot.quantity,
     orderRef: lot.orderRef,
     customerName: lot.customerName,
+    customerId: lot.customerId ?? null,
     dueDate: lot.dueDate,
     status: lot.status,
     isOnHold: lot.isOnHold,
@@ -77,7 +79,10 @@ async function lockLot(id: string, transaction: Transaction): Promise<Lot> {
 }
 
 /** Plans a lot of a released revision; the number is generated unless typed. */
-export async function createLot(input: LotCreateInput, actor: Actor): Promise<LotDto> {
+export async function createLot(
+  input: Omit<LotCreateInput, 'customerId'> & { customerId?: string | null },
+  actor: Actor,
+): Promise<LotDto> {
   try {
     return await db().transaction(async (transaction) => {
       const rev = await Revision.findByPk(input.revisionId, { transaction })
@@ -97,8 +102,20 @@ export async function createLot(input: LotCreateInput, actor: Actor): Promise<Lo
         transaction,
       })
       const number = input.number ?? `L-${String(seq!.n).padStart(4, '0')}`
+      // A linked customer's name wins over typed text, so the two never disagree.
+      const customerName = input.customerId
+        ? (await customerForLot(input.customerId, transaction)).name
+        : input.customerName
       const lot = await Lot.create(
-        { ...input, number, releasedAt: null, closedAt: null, createdBy: actor.id },
+        {
+          ...input,
+          customerId: input.customerId ?? null,
+          customerName,
+          number,
+          releasedAt: null,
+          closedAt: null,
+          createdBy: actor.id,
+        },
         { transaction },
       )
       const dto = await getLot(lot.id, transaction)
@@ -135,7 +152,10 @@ export async function updateLot(id: string, input: LotUpdateInput, actor: Actor)
         })
     }
     const before = await getLot(id, transaction)
-    await lot.update(input, { transaction })
+    const change = { ...input }
+    if (input.customerId)
+      change.customerName = (await customerForLot(input.customerId, transaction)).name
+    await lot.update(change, { transaction })
     const after = await getLot(id, transaction)
     await recordAudit(
       actor,

@@ -13,7 +13,8 @@ import { getFile } from '../storage'
 export async function sendEmail(id: string): Promise<void> {
   const email = await Email.findByPk(id)
   if (!email) throw new Error(`e-mail ${id} does not exist`)
-  if (email.status === 'sent' || email.status === 'received') return
+  // A draft waits for a person to send it; a stray job for one sends nothing.
+  if (email.status === 'sent' || email.status === 'received' || email.status === 'draft') return
   await email.increment('attempts')
   const attachments = []
   for (const a of email.attachments) {

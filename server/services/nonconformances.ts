@@ -5,7 +5,7 @@ import { db, Lot, Nonconformance, RouteStep, StepRun, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { verifyCountersign } from './countersign'
-import { stepAfter } from './unitMoves'
+import { reworkTarget, sendToRework, stepAfter } from './unitMoves'
 
 interface NcRow {
   id: string
@@ -18,6 +18,7 @@ interface NcRow {
   description: string
   failed_checks: string[]
   disposition: NonconformanceDto['disposition']
+  failed_labels: string[]
   rework_step_name: string | null
   reason: string
   opened_by: string | null
@@ -30,6 +31,10 @@ interface NcRow {
 const SELECT_NC = `
   SELECT nc.id, u.serial, l.number AS lot_number, s.name AS step_name, s.position AS step_position,
          dc.code, dc.description AS code_description, nc.description, nc.failed_checks, nc.disposition,
+         ARRAY(SELECT c.label FROM checks c
+                WHERE c.step_id = sr.step_id
+                  AND c.key IN (SELECT jsonb_array_elements_text(nc.failed_checks))
+                ORDER BY c.position) AS failed_labels,
          rs.name AS rework_step_name, nc.reason, ob.name AS opened_by, db.name AS decided_by,
          cb.name AS countersigned_by, nc.opened_at, nc.closed_at
     FROM nonconformances nc
@@ -54,6 +59,7 @@ function toDto(r: NcRow): NonconformanceDto {
     defectDescription: r.code_description,
     description: r.description,
     failedChecks: r.failed_checks,
+    failedCheckLabels: r.failed_labels,
     status: r.closed_at ? 'closed' : 'open',
     disposition: r.disposition,
     reworkToStepName: r.rework_step_name,
@@ -114,30 +120,14 @@ export async function disposeNonconformance(
     const failedStep = (await RouteStep.findByPk(run.stepId, { transaction }))!
     let countersignedBy: string | null = null
     if (input.disposition === 'rework') {
-      const target = input.reworkToStepId
-        ? await RouteStep.findByPk(input.reworkToStepId, { transaction })
-        : null
-      if (
-        !target ||
-        target.revisionId !== failedStep.revisionId ||
-        target.position > failedStep.position
+      const target = await reworkTarget(
+        input.reworkToStepId,
+        failedStep.revisionId,
+        failedStep.position,
+        transaction,
+        'choose a step of this route at or before the failed one',
       )
-        throw AppError.badRequest(
-          'reworkToStepId: choose a step of this route at or before the failed one',
-          { reworkToStepId: 'choose a step at or before the failed one' },
-        )
-      await unit.update(
-        {
-          state: 'in_rework',
-          currentStepId: target.id,
-          reworkCount: unit.reworkCount + 1,
-          reworkUntilPosition: failedStep.position,
-          holdKind: null,
-          heldFromState: null,
-          holdReason: '',
-        },
-        { transaction },
-      )
+      await sendToRework(unit, target, failedStep.position, transaction)
     } else if (input.disposition === 'scrap') {
       await unit.update(
         {

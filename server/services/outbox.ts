@@ -8,10 +8,10 @@ import type {
 } from '../../shared/schemas/outbox'
 import { env } from '../env'
 import { AppError } from '../errors'
-import { Email } from '../models'
+import { db, Email } from '../models'
 import { enqueueMail } from '../queues/mail'
 import { putFile } from '../storage'
-import { recordAudit } from './audit'
+import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
 
 /** An attachment to send: new bytes, or a file already in the object store (a document). */
@@ -162,4 +162,104 @@ export async function emailAttachment(id: string, index: number): Promise<EmailA
   const attachment = email.attachments[index]
   if (!attachment) throw AppError.notFound(`attachment ${index} of e-mail ${id}`)
   return attachment
+}
+
+/**
+ * Writes a `draft` e-mail in the caller's transaction: prepared for a person to review, never
+ * sent until someone sends it (`sendDraft`). No attachments, no job.
+ */
+export async function draftEmail(
+  mail: Omit<OutgoingEmail, 'attachments' | 'html'>,
+  actor: Actor,
+  transaction: Transaction,
+): Promise<EmailDto> {
+  const to = Array.isArray(mail.to) ? mail.to : [mail.to]
+  if (to.length === 0) throw AppError.badRequest('an e-mail needs at least one recipient')
+  const email = await Email.create(
+    {
+      status: 'draft',
+      toAddresses: to,
+      fromAddress: env.MAIL_FROM,
+      subject: mail.subject,
+      textBody: mail.text,
+      htmlBody: null,
+      messageId: null,
+      error: null,
+      relatedEntity: mail.related?.entity ?? null,
+      relatedId: mail.related?.id ?? null,
+      createdBy: actor.id,
+      sentAt: null,
+    },
+    { transaction },
+  )
+  await recordAudit(
+    actor,
+    {
+      action: 'email.draft',
+      entity: 'email',
+      entityId: email.id,
+      after: { to, subject: mail.subject, related: mail.related ?? null },
+    },
+    transaction,
+  )
+  return toEmailDto(email)
+}
+
+async function lockDraft(id: string, transaction: Transaction): Promise<Email> {
+  const email = await Email.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+  if (!email) throw AppError.notFound(`e-mail ${id}`)
+  if (email.status !== 'draft')
+    throw AppError.conflict(
+      'email_not_draft',
+      `this e-mail is ${email.status}, not a draft: only drafts can be edited or sent from here`,
+    )
+  return email
+}
+
+/** Edits the subject or text of a draft before it is sent. */
+export async function updateDraft(
+  id: string,
+  input: { subject?: string; text?: string },
+  actor: Actor,
+): Promise<EmailDto> {
+  return db().transaction(async (transaction) => {
+    const email = await lockDraft(id, transaction)
+    const before = { subject: email.subject, text: email.textBody }
+    await email.update(
+      { subject: input.subject ?? email.subject, textBody: input.text ?? email.textBody },
+      { transaction },
+    )
+    await recordAudit(
+      actor,
+      {
+        action: 'email.edit_draft',
+        entity: 'email',
+        entityId: id,
+        ...changedFields(before, { subject: email.subject, text: email.textBody }),
+      },
+      transaction,
+    )
+    return toEmailDto(email)
+  })
+}
+
+/** Sends a reviewed draft: it becomes `queued` and its job is enqueued once that commits. */
+export async function sendDraft(id: string, actor: Actor): Promise<EmailDto> {
+  return db().transaction(async (transaction) => {
+    const email = await lockDraft(id, transaction)
+    await email.update({ status: 'queued' }, { transaction })
+    await recordAudit(
+      actor,
+      {
+        action: 'email.send_draft',
+        entity: 'email',
+        entityId: id,
+        before: { status: 'draft' },
+        after: { status: 'queued', to: email.toAddresses, subject: email.subject },
+      },
+      transaction,
+    )
+    transaction.afterCommit(() => void enqueueMail(email.id))
+    return toEmailDto(email)
+  })
 }

@@ -32,12 +32,6 @@ export async function listUsers(): Promise<UserAdminDto[]> {
   return users.map(toAdminDto)
 }
 
-/** The active user with this id, or null; used on every request to rebuild the session's user. */
-export async function findActiveUser(id: string): Promise<UserDto | null> {
-  const user = await User.findOne({ where: { id, isActive: true } })
-  return user ? toUserDto(user) : null
-}
-
 /** Creates a user; a taken e-mail is a 409 naming the field. */
 export async function createUser(input: UserCreateInput, actor: Actor): Promise<UserAdminDto> {
   const passwordHash = await hashPassword(input.password)

@@ -4,13 +4,14 @@ import type {
   RatioDto,
   StepWipDto,
   StepYieldDto,
+  YieldLotRowDto,
   YieldSummaryDto,
   YieldSummaryQuery,
 } from '../../shared/schemas/yield'
 import { AppError } from '../errors'
 import { Lot } from '../models'
 import type { LotStepTotals, LotUnitTotals } from './yieldQueries'
-import { lotStepTotals, lotsRunInPeriod, lotUnitTotals } from './yieldQueries'
+import { lotFieldReturns, lotStepTotals, lotsRunInPeriod, lotUnitTotals } from './yieldQueries'
 
 const NO_UNITS: LotUnitTotals = {
   started: 0,
@@ -108,13 +109,37 @@ function periodRty(steps: Map<string, LotStepTotals[]>, started: Map<string, num
 }
 
 /**
+ * The lots table in the asked order (one row per lot, so sorting here is cheap); a lot without
+ * the figure yet sorts last either way, and ties keep the newest-first order.
+ */
+function sortLots(rows: YieldLotRowDto[], query: YieldSummaryQuery): YieldLotRowDto[] {
+  const key = query.sort
+  if (!key) return rows
+  const sign = query.dir === 'asc' ? 1 : -1
+  return rows
+    .map((row, i) => ({ row, i }))
+    .sort((a, b) => {
+      const x = a.row[key]
+      const y = b.row[key]
+      if (x === null || y === null) return x === y ? a.i - b.i : x === null ? 1 : -1
+      const diff = typeof x === 'string' ? x.localeCompare(y as string) : x - (y as number)
+      return diff === 0 ? a.i - b.i : sign * diff
+    })
+    .map((s) => s.row)
+}
+
+/**
  * The Yield board: every lot with a step run in the period, each with its figures over its whole
  * history, and the KPIs over all those lots' units.
  */
 export async function summarizeYield(query: YieldSummaryQuery): Promise<YieldSummaryDto> {
   const lots = await lotsRunInPeriod(query)
   const ids = lots.map((l) => l.lotId)
-  const [units, steps] = await Promise.all([lotUnitTotals(ids), lotStepTotals(ids)])
+  const [units, steps, returns] = await Promise.all([
+    lotUnitTotals(ids),
+    lotStepTotals(ids),
+    lotFieldReturns(ids),
+  ])
   const total = { ...NO_UNITS }
   const rows = lots.map((lot) => {
     const u = units.get(lot.lotId) ?? NO_UNITS
@@ -128,13 +153,14 @@ export async function summarizeYield(query: YieldSummaryQuery): Promise<YieldSum
       finalYield: perUnit(u.passed, u.finished),
       rty: stepYields(lotSteps).rty,
       wip: lotSteps.reduce((n, s) => n + s.wip, 0),
+      fieldReturns: returns.get(lot.lotId) ?? 0,
     }
   })
   const started = new Map(lots.map((l) => [l.lotId, units.get(l.lotId)?.started ?? 0]))
   return {
     from: query.from,
     to: query.to,
-    lots: rows,
+    lots: sortLots(rows, query),
     kpis: {
       started: total.started,
       finished: total.finished,

@@ -181,3 +181,17 @@ export async function lotsRunInPeriod(filter: {
     { replacements: { ...filter }, type: QueryTypes.SELECT },
   )
 }
+
+/** Service cases (field returns) logged against each lot's units, keyed by lot id. */
+export async function lotFieldReturns(lotIds: readonly string[]): Promise<Map<string, number>> {
+  if (!lotIds.length) return new Map()
+  // service_cases_unit_idx and units_lot_idx serve the join; one row per lot comes back.
+  const rows = await db().query<{ lot_id: string; n: string }>(
+    `SELECT u.lot_id, count(*) AS n
+       FROM service_cases sc JOIN units u ON u.id = sc.unit_id
+      WHERE u.lot_id IN (:lotIds)
+      GROUP BY u.lot_id`,
+    { replacements: { lotIds }, type: QueryTypes.SELECT },
+  )
+  return new Map(rows.map((r) => [r.lot_id, Number(r.n)]))
+}

@@ -30,6 +30,8 @@ export const LotCreateInput = z.object({
     .max(LOT_QUANTITY_MAX, `use 1 to ${LOT_QUANTITY_MAX}`),
   orderRef: z.string().trim().max(80).default(''),
   customerName: z.string().trim().max(120).default(''),
+  /** The customer record; when given, its name is copied to `customerName`. */
+  customerId: z.string().uuid('choose a customer from the list').nullable().default(null),
   dueDate: isoDate.nullable().default(null),
 })
 export type LotCreateInput = z.infer<typeof LotCreateInput>
@@ -124,6 +126,7 @@ export interface LotDto {
   quantity: number
   orderRef: string
   customerName: string
+  customerId: string | null
   dueDate: string | null
   status: LotStatus
   isOnHold: boolean
@@ -182,6 +185,8 @@ export interface NonconformanceDto {
   defectDescription: string | null
   description: string
   failedChecks: string[]
+  /** The failed checks' labels, in route order, for people to read. */
+  failedCheckLabels: string[]
   status: 'open' | 'closed'
   disposition: Disposition | null
   reworkToStepName: string | null

@@ -16,8 +16,8 @@ export class ApiError extends Error {
     message: string,
     /** Field name to message, when the server names the fields at fault. */
     readonly fields: Record<string, string> = {},
-    /** A list of problems, e.g. what stops a revision from being released. */
-    readonly details: string[] = [],
+    /** A list of problems (what stops a revision from being released), or named extra data. */
+    readonly details: string[] | Record<string, unknown> = [],
   ) {
     super(message)
   }

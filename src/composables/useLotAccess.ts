@@ -14,6 +14,7 @@ export function useLotAccess() {
     canEditLots: has('editLots'),
     canDispose: has('disposeNonconformances'),
     canRecordStepRuns: has('recordStepRuns'),
+    canReadAlerts: has('readAlerts'),
     /** Use as is by anyone else needs an engineer's countersign. */
     isEngineer: computed(() => session.role === 'engineer'),
   }

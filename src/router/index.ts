@@ -59,6 +59,12 @@ export const router = createRouter({
       component: () => import('@/views/Lots/LotView.vue'),
     },
     {
+      path: '/yield',
+      name: 'yield',
+      meta: { roles: rolesOf('yield') },
+      component: () => import('@/views/Yield/YieldView.vue'),
+    },
+    {
       path: '/recipes',
       name: 'recipes',
       meta: { roles: rolesOf('recipes') },
@@ -90,10 +96,48 @@ export const router = createRouter({
       component: () => import('@/views/Receiving/ReceivingView.vue'),
     },
     {
+      path: '/import',
+      name: 'import',
+      meta: { roles: rolesOf('import') },
+      component: () => import('@/views/Import/ImportView.vue'),
+    },
+    {
+      path: '/shipping',
+      name: 'shipping',
+      meta: { roles: rolesOf('shipping') },
+      component: () => import('@/views/Shipping/ShippingView.vue'),
+    },
+    {
+      path: '/service',
+      name: 'service',
+      meta: { roles: rolesOf('service') },
+      component: () => import('@/views/Service/ServiceView.vue'),
+    },
+    {
+      path: '/customers',
+      name: 'customers',
+      meta: { roles: rolesOf('customers') },
+      component: () => import('@/views/Customers/CustomersView.vue'),
+    },
+    {
       path: '/outbox',
       name: 'outbox',
       meta: { roles: rolesOf('outbox') },
       component: () => import('@/views/Outbox/OutboxView.vue'),
+    },
+    {
+      path: '/trace',
+      name: 'trace',
+      meta: { roles: rolesOf('trace') },
+      component: () => import('@/views/Trace/TraceView.vue'),
+    },
+    {
+      // What a traveler's QR holds (shared/links.ts unitUrl).
+      path: '/u/:serial',
+      name: 'unit-link',
+      props: true,
+      meta: { roles: [...new Set([...rolesOf('trace'), ...rolesOf('floor')])] },
+      component: () => import('@/views/Trace/UnitLinkView.vue'),
     },
     {
       path: '/admin/stations',

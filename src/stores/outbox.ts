@@ -70,7 +70,25 @@ export const useOutboxStore = defineStore('outbox', () => {
     return current.value ? outboxApi.attachmentUrl(current.value.id, index) : ''
   }
 
+  /** Saves an edited draft; throws ApiError. */
+  async function saveDraft(input: { subject: string; text: string }) {
+    if (!current.value) return
+    current.value = await outboxApi.updateDraft(current.value.id, input)
+  }
+
+  /** Saves the draft as shown and sends it; throws ApiError. */
+  async function sendDraft(input: { subject: string; text: string }) {
+    if (!current.value) return
+    const id = current.value.id
+    if (input.subject !== current.value.subject || input.text !== current.value.text)
+      await outboxApi.updateDraft(id, input)
+    current.value = await outboxApi.sendDraft(id)
+    await fetchPage()
+  }
+
   return {
+    saveDraft,
+    sendDraft,
     rows,
     total,
     page,

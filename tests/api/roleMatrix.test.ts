@@ -7,6 +7,8 @@ import { resetSignInLimits, signedInAs, TestClient, testApp } from './support/cl
 
 type Who = 'public' | 'signed_in' | readonly Role[]
 
+const TRACE: Who = ['service', 'lead', 'engineer', 'admin']
+
 /**
  * Who may call each route, written out by hand. Adding a route to the server without adding it
  * here fails the first test; a route whose guard differs from this table fails the second.
@@ -112,12 +114,57 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
   { method: 'get', path: '/api/yield/summary', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
-  { method: 'get', path: '/api/exports/lots', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/alerts', who: ['lead', 'engineer', 'admin'] },
+  { method: 'post', path: '/api/alerts/:id/acknowledge', who: ['lead'] },
+  { method: 'get', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/imports/:id/rows', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/dry-run', who: ['lead', 'engineer'] },
+  { method: 'post', path: '/api/imports/:id/run', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
+  { method: 'put', path: '/api/stations/:code/import-mapping', who: ['lead', 'engineer'] },
+  { method: 'get', path: '/api/customers', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/customers', who: ['lead', 'service', 'admin'] },
+  { method: 'get', path: '/api/customers/:id', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'patch', path: '/api/customers/:id', who: ['lead', 'service', 'admin'] },
+  { method: 'get', path: '/api/shipments', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/shipments', who: ['lead', 'service'] },
+  { method: 'get', path: '/api/shipments/units/:serial', who: ['lead', 'service'] },
+  { method: 'get', path: '/api/shipments/:id', who: ['lead', 'service', 'admin', 'engineer'] },
+  { method: 'post', path: '/api/shipments/:id/certificate', who: ['service', 'lead', 'admin'] },
+  { method: 'post', path: '/api/units/:serial/certificate', who: ['service', 'lead', 'admin'] },
   {
     method: 'get',
-    path: '/api/exports/lots/:id/measurements',
-    who: ['lead', 'engineer', 'admin'],
+    path: '/api/units/:serial/documents',
+    who: ['lead', 'service', 'admin', 'engineer'],
   },
+  {
+    method: 'get',
+    path: '/api/documents/:id/email-draft',
+    who: ['service', 'lead', 'admin', 'engineer'],
+  },
+  {
+    method: 'post',
+    path: '/api/documents/:id/email',
+    who: ['service', 'lead', 'admin', 'engineer'],
+  },
+  { method: 'get', path: '/api/service-cases', who: ['service', 'lead', 'engineer', 'admin'] },
+  { method: 'post', path: '/api/service-cases', who: ['service', 'lead'] },
+  { method: 'get', path: '/api/service-cases/:id', who: ['service', 'lead', 'engineer', 'admin'] },
+  { method: 'patch', path: '/api/service-cases/:id', who: ['service', 'lead'] },
+  { method: 'post', path: '/api/service-cases/:id/close', who: ['service', 'lead'] },
+  { method: 'patch', path: '/api/outbox/:id', who: ['service', 'admin'] },
+  { method: 'post', path: '/api/outbox/:id/send', who: ['service', 'admin'] },
+  { method: 'get', path: '/api/trace/units/:serial', who: TRACE },
+  { method: 'get', path: '/api/trace/units/:serial/history.json', who: TRACE },
+  { method: 'get', path: '/api/trace/units/:serial/history.pdf', who: TRACE },
+  { method: 'get', path: '/api/trace/component-lots/:code', who: TRACE },
+  { method: 'post', path: '/api/trace/component-lots/:code/contain', who: ['lead'] },
+  { method: 'get', path: '/api/yield/lots/:id/detail', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/lots/:id/turns', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/exports/lots', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/exports/lots/:id/measurements', who: ['lead', 'engineer', 'admin'] },
 ]
 
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`
@@ -157,7 +204,7 @@ describe('role matrix', () => {
 
   it(
     'answers every route × role with the status its rule implies',
-    { timeout: 90_000 },
+    { timeout: 240_000 },
     async () => {
       const clients = new Map<Role, TestClient>()
       for (const role of ROLES) clients.set(role, await signedInAs(role))

@@ -95,6 +95,9 @@ describe('step runs at the Floor', () => {
     const onHold = await operator.post('/api/step-runs', windingRun(t, b!))
     expect(onHold.status).toBe(409)
     expect(onHold.body.message).toMatch(/is on hold: failed Winding \(l_sec, sec_dev\)/)
+    const [opened] = (await lead.get(`/api/nonconformances?serial=${b}`).expect(200)).body
+    // The lot page and the disposition dialog show the checks by label, in route order.
+    expect(opened.failedCheckLabels).toEqual(['Inductance', 'Deviation'])
     await lead
       .post(`/api/nonconformances/${failed.body.nonconformanceId}/disposition`, {
         disposition: 'scrap',

@@ -5,6 +5,8 @@ import { hashPassword } from '../../services/passwords'
 import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
 import { loadDemoLots } from './demoLots'
+import { loadDemoCustomers, loadDemoShipping } from './demoShipping'
+import { loadMiscountLot } from './demoMiscountLot'
 import { loadDemoRecipes } from './loadRecipes'
 
 /** The actor the audit log names for demo rows. */
@@ -52,6 +54,9 @@ export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promi
   if (onlyIfEmpty && (await User.count()) > 0) return false
   await loadPeopleAndFloor()
   await loadDemoRecipes(SEED_ACTOR)
+  await loadDemoCustomers()
   await loadDemoLots()
+  await loadDemoShipping()
+  await loadMiscountLot()
   return true
 }

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { CheckValue } from '../../../shared/recipes/evaluate'
 import type { RevisionDto } from '../../../shared/schemas/recipes'
-import { DefectCode, Lot, Product, User } from '../../models'
+import { Customer, DefectCode, Lot, Product, User } from '../../models'
 import type { Actor } from '../../services/audit'
 import { listLotUnits } from '../../services/lotGrid'
 import { closeLot, createLot, releaseLot } from '../../services/lots'
@@ -98,6 +98,11 @@ async function demoConsumption(partId: string, bomLineId: string, itemSerial?: s
   return { bomLineId, code, itemSerial }
 }
 
+/** The demo customer of this name, made by loadDemoCustomers; null if it is missing. */
+async function customerId(name: string): Promise<string | null> {
+  return (await Customer.findOne({ where: { name } }))?.id ?? null
+}
+
 async function releasedRevision(code: string, letter: string): Promise<RevisionDto> {
   const product = (await Product.findOne({ where: { code }, include: ['revisions'] }))!
   return getRevision(product.revisions!.find((r) => r.letter === letter)!.id)
@@ -121,6 +126,7 @@ export async function loadDemoLots(): Promise<void> {
       quantity: 12,
       orderRef: 'HRS-4471',
       customerName: 'Halden Rail Systems',
+      customerId: await customerId('Halden Rail Systems'),
       dueDate: '2026-11-27',
     },
     people.lead,
@@ -136,6 +142,7 @@ export async function loadDemoLots(): Promise<void> {
       quantity: 20,
       orderRef: 'CI-2210',
       customerName: 'Corrin Instruments',
+      customerId: await customerId('Corrin Instruments'),
       dueDate: '2026-12-11',
     },
     people.lead,
@@ -202,6 +209,7 @@ export async function loadDemoLots(): Promise<void> {
       quantity: 8,
       orderRef: 'NV-0093',
       customerName: 'Norvale Labs',
+      customerId: await customerId('Norvale Labs'),
       dueDate: '2027-01-15',
     },
     people.lead,

@@ -1,4 +1,5 @@
 import type { DocumentKind } from '../../../shared/lots'
+import { renderCertificate, renderPackingSlip } from './customerPapers'
 import { renderLabels, renderTravelers } from './lotPrints'
 import { renderLotReport } from './lotReport'
 import type { DocumentRenderer } from './types'
@@ -11,4 +12,6 @@ export const RENDERERS: Partial<Record<DocumentKind, DocumentRenderer>> = {
   travelers: renderTravelers,
   labels: renderLabels,
   lot_report: renderLotReport,
+  certificate: renderCertificate,
+  packing_slip: renderPackingSlip,
 }

@@ -1,0 +1,132 @@
+// Benchmark of Trace: `npx tsx scripts/bench/trace.ts [--lots 40] [--lot-size 500] [--samples 300]`.
+// Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench_test).
+import type { AddressInfo } from 'node:net'
+import { parseArgs } from 'node:util'
+import pg from 'pg'
+
+process.env.WAYMARK_DB ??= 'waymark_bench_test'
+process.env.NODE_ENV ??= 'test'
+process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
+process.env.LOG_LEVEL ??= 'error'
+
+const { values: args } = parseArgs({
+  options: {
+    lots: { type: 'string', default: '40' },
+    'lot-size': { type: 'string', default: '500' },
+    'per-lot': { type: 'string', default: '5000' },
+    samples: { type: 'string', default: '300' },
+    help: { type: 'boolean' },
+  },
+})
+if (args.help) {
+  console.log(`Usage: tsx scripts/bench/trace.ts [--lots N] [--lot-size N] [--per-lot N] [--samples N]
+
+Resets its own database (WAYMARK_DB, default waymark_bench_test), loads the demo and then bulk-loads
+lots × lot-size units with a full passing history (a step run per route step, every check measured,
+every BOM line fitted from component lots of per-lot units each, shipments, documents). Then times,
+one request at a time over loopback, GET /api/trace/units/:serial for random serials and
+GET /api/trace/component-lots/:code for a lot fitted in per-lot units, each beside the same SQL run
+straight through pg. Prints p50/p95/p99.`)
+  process.exit(0)
+}
+const LOTS = Number(args.lots)
+const LOT_SIZE = Number(args['lot-size'])
+const PER_LOT = Number(args['per-lot'])
+const SAMPLES = Number(args.samples)
+
+const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+const { env } = await import('../../server/env')
+const owner = ownerConnection()
+await resetTestSchema(owner)
+await migrator(owner).up()
+await owner.close()
+
+const { loadDemo } = await import('../../server/db/seed/demo')
+const { buildApp } = await import('../../server/app')
+const { seedTraceHistory } = await import('./traceSeed')
+const { RECALL_SCOPE_SQL, UNIT_TRACE_SQL } = await import('../../server/services/traceQueries')
+await loadDemo({ onlyIfEmpty: false })
+const seedClient = new pg.Client({ connectionString: env.ownerDatabaseUrl })
+await seedClient.connect()
+const started = Date.now()
+const data = await seedTraceHistory(seedClient, { lots: LOTS, perLot: PER_LOT, lotSize: LOT_SIZE })
+const [counts] = (
+  await seedClient.query(
+    `SELECT (SELECT count(*) FROM units) AS units, (SELECT count(*) FROM step_runs) AS step_runs,
+       (SELECT count(*) FROM measurements) AS measurements,
+       (SELECT count(*) FROM consumptions) AS consumptions`,
+  )
+).rows as Record<string, string>[]
+await seedClient.end()
+console.log(
+  `seeded in ${((Date.now() - started) / 1000).toFixed(1)} s: ${counts!.units} units, ` +
+    `${counts!.step_runs} step runs, ${counts!.measurements} measurements, ${counts!.consumptions} consumptions`,
+)
+
+const app = buildApp()
+const server = app.listen(0, '127.0.0.1')
+await new Promise((resolve) => server.once('listening', resolve))
+const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+const csrf = await fetch(`${base}/api/auth/csrf`)
+let cookie = csrf.headers.get('set-cookie')!.split(';')[0]!
+const login = await fetch(`${base}/api/auth/login`, {
+  method: 'POST',
+  headers: {
+    'content-type': 'application/json',
+    cookie,
+    'x-csrf-token': ((await csrf.json()) as { csrfToken: string }).csrfToken,
+  },
+  body: JSON.stringify({ email: 'service@ferncastle.example', password: 'waymark-demo' }),
+})
+if (!login.ok) throw new Error(`sign-in failed: ${login.status}`)
+cookie = login.headers.get('set-cookie')!.split(';')[0]!
+
+const pool = new pg.Pool({ connectionString: env.databaseUrl, max: 4 })
+
+/** Times `count` sequential calls of `fn(i)` after `warm` unmeasured ones, in milliseconds. */
+async function time(count: number, warm: number, fn: (i: number) => Promise<void>) {
+  for (let i = 0; i < warm; i++) await fn(i)
+  const times: number[] = []
+  for (let i = 0; i < count; i++) {
+    const t0 = performance.now()
+    await fn(i + warm)
+    times.push(performance.now() - t0)
+  }
+  return times.sort((a, b) => a - b)
+}
+const pick = (i: number) => data.serials[(i * 7919) % data.serials.length]!
+async function get(path: string) {
+  const res = await fetch(`${base}${path}`, { headers: { cookie } })
+  if (!res.ok) throw new Error(`${path}: ${res.status}`)
+  await res.arrayBuffer()
+}
+
+const apiTrace = await time(SAMPLES, 20, (i) => get(`/api/trace/units/${pick(i)}`))
+const sqlTrace = await time(SAMPLES, 20, async (i) => {
+  await pool.query(UNIT_TRACE_SQL, [pick(i)])
+})
+const RECALLS = Math.max(20, Math.round(SAMPLES / 10))
+const apiRecall = await time(RECALLS, 3, () => get(`/api/trace/component-lots/${data.hotLotCode}`))
+const sqlRecall = await time(RECALLS, 3, async () => {
+  await pool.query(RECALL_SCOPE_SQL, [data.hotLotCode])
+})
+const scope = (await (
+  await fetch(`${base}/api/trace/component-lots/${data.hotLotCode}`, { headers: { cookie } })
+).json()) as { counts: { total: number } }
+
+function percentile(sorted: number[], p: number): number {
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
+}
+const line = (name: string, t: number[]) => {
+  const ms = (p: number) => `${percentile(t, p).toFixed(1)} ms`.padStart(9)
+  return `${name.padEnd(44)} n=${String(t.length).padEnd(4)} p50 ${ms(50)}   p95 ${ms(95)}   p99 ${ms(99)}`
+}
+console.log(`\none request at a time, loopback; ${data.serials.length} bench units`)
+console.log(line('GET /api/trace/units/:serial', apiTrace))
+console.log(line('  same SQL through pg', sqlTrace))
+console.log(line(`GET /api/trace/component-lots/:code (${scope.counts.total} units)`, apiRecall))
+console.log(line('  same SQL through pg', sqlRecall))
+console.log('targets: trace p95 ≤ 30 ms, recall scope of a lot in 5000 units p95 ≤ 200 ms')
+server.close()
+await pool.end()
+process.exit(0)

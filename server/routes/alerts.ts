@@ -1,0 +1,16 @@
+import { IdParam } from '../../shared/schemas/common'
+import { AlertQuery } from '../../shared/schemas/alerts'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import { acknowledgeAlert, listAlerts } from '../services/alerts'
+import { apiRoutes } from './registry'
+
+export const alertRoutes = apiRoutes('/alerts')
+
+alertRoutes.get('/', PERMISSIONS.readAlerts, async (req, res) => {
+  res.json(await listAlerts(parse(AlertQuery, req.query)))
+})
+alertRoutes.post('/:id/acknowledge', PERMISSIONS.acknowledgeAlerts, async (req, res) => {
+  res.json(await acknowledgeAlert(parse(IdParam, req.params.id), actorOf(req)))
+})

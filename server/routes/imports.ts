@@ -1,0 +1,80 @@
+import multer from 'multer'
+import { IMPORT_MAX_BYTES } from '../../shared/imports'
+import { IdParam } from '../../shared/schemas/common'
+import {
+  ImportCreateInput,
+  ImportMappingInput,
+  ImportRowsQuery,
+  ImportRunInput,
+} from '../../shared/schemas/imports'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import {
+  dryRunImport,
+  getImport,
+  getImportMapping,
+  listImportRows,
+  listImports,
+  requestImportRun,
+  saveImportMapping,
+  uploadBenchFile,
+  toImportDto,
+} from '../services/imports'
+import { enqueueImport } from '../queues/imports'
+import { apiRoutes } from './registry'
+
+export const importRoutes = apiRoutes('/imports')
+const use = PERMISSIONS.importBenchData
+const id = (p: { id?: string }) => parse(IdParam, p.id)
+
+// Held in memory: the file goes to the object store, never to this process's disk. One byte
+// over the limit is enough for multer to answer 413.
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: IMPORT_MAX_BYTES, files: 1 },
+}).single('file')
+
+importRoutes.get('/', use, async (_req, res) => {
+  res.json(await listImports())
+})
+
+importRoutes.post('/', use, upload, async (req, res) => {
+  const { stationCode } = parse(ImportCreateInput, req.body)
+  res.status(201).json(await uploadBenchFile(req.file, stationCode, actorOf(req)))
+})
+
+importRoutes.get('/:id', use, async (req, res) => {
+  res.json(await getImport(id(req.params)))
+})
+
+importRoutes.get('/:id/rows', use, async (req, res) => {
+  res.json(await listImportRows(id(req.params), parse(ImportRowsQuery, req.query)))
+})
+
+importRoutes.post('/:id/dry-run', use, async (req, res) => {
+  res.json(await dryRunImport(id(req.params), actorOf(req)))
+})
+
+// 202: the rows are recorded by the import job; the screen polls GET /imports/:id for progress.
+importRoutes.post('/:id/run', use, async (req, res) => {
+  const imp = await requestImportRun(id(req.params), parse(ImportRunInput, req.body), actorOf(req))
+  await enqueueImport(imp.id)
+  res.status(202).json(await toImportDto(imp))
+})
+
+export const importMappingRoutes = apiRoutes('/stations')
+
+importMappingRoutes.get('/:code/import-mapping', use, async (req, res) => {
+  res.json(await getImportMapping(String(req.params.code)))
+})
+
+importMappingRoutes.put('/:code/import-mapping', use, async (req, res) => {
+  res.json(
+    await saveImportMapping(
+      String(req.params.code),
+      parse(ImportMappingInput, req.body),
+      actorOf(req),
+    ),
+  )
+})

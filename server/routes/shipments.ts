@@ -1,0 +1,54 @@
+import { z } from 'zod'
+import { IdParam } from '../../shared/schemas/common'
+import { ShipmentCreateInput } from '../../shared/schemas/shipping'
+import { PERMISSIONS } from '../../shared/permissions'
+import { actorOf } from '../middleware/access'
+import { parse } from '../middleware/validate'
+import {
+  checkShippable,
+  createShipment,
+  getShipment,
+  listShipments,
+  listUnitDocuments,
+  requestShipmentCertificate,
+  requestUnitCertificate,
+} from '../services/shipments'
+import { apiRoutes } from './registry'
+
+export const shipmentRoutes = apiRoutes('/shipments')
+export const unitDocumentRoutes = apiRoutes('/units')
+
+const Serial = z.string().trim().min(1).max(200)
+const Query = z.object({ customerId: z.string().uuid().optional() })
+
+shipmentRoutes.get('/', PERMISSIONS.readShipments, async (req, res) => {
+  res.json(await listShipments(parse(Query, req.query)))
+})
+shipmentRoutes.post('/', PERMISSIONS.createShipments, async (req, res) => {
+  res.status(201).json(await createShipment(parse(ShipmentCreateInput, req.body), actorOf(req)))
+})
+// The packing screen checks each scan at once, before the shipment is confirmed.
+shipmentRoutes.get('/units/:serial', PERMISSIONS.createShipments, async (req, res) => {
+  res.json(await checkShippable(parse(Serial, req.params.serial)))
+})
+shipmentRoutes.get('/:id', PERMISSIONS.readShipments, async (req, res) => {
+  res.json(await getShipment(parse(IdParam, req.params.id)))
+})
+shipmentRoutes.post('/:id/certificate', PERMISSIONS.issueCustomerDocuments, async (req, res) => {
+  res
+    .status(201)
+    .json(await requestShipmentCertificate(parse(IdParam, req.params.id), actorOf(req)))
+})
+
+unitDocumentRoutes.post(
+  '/:serial/certificate',
+  PERMISSIONS.issueCustomerDocuments,
+  async (req, res) => {
+    res
+      .status(201)
+      .json(await requestUnitCertificate(parse(Serial, req.params.serial), actorOf(req)))
+  },
+)
+unitDocumentRoutes.get('/:serial/documents', PERMISSIONS.readShipments, async (req, res) => {
+  res.json(await listUnitDocuments(parse(Serial, req.params.serial)))
+})

@@ -1,0 +1,169 @@
+import { z } from 'zod'
+import type { DocumentDto } from './lots'
+import type { UnitState } from '../lots'
+import type { ServiceCaseResolution, ServiceCaseStatus } from '../service'
+import { SERVICE_CASE_RESOLUTIONS } from '../service'
+import { patchSchema } from './common'
+
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+const email = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .email('enter an e-mail address like buyer@example.com')
+
+/** Most serials one shipment or one request may list; a pallet of a big lot fits. */
+export const SHIPMENT_SERIALS_MAX = 500
+
+// --- customers -------------------------------------------------------------------------------
+
+export const CustomerCreateInput = z.object({
+  name: z.string().trim().min(2, 'enter the customer’s name (at least 2 characters)').max(120),
+  contactEmail: z.union([email, z.literal('')]).default(''),
+  address: z.string().trim().max(1000, 'keep the address under 1000 characters').default(''),
+})
+export type CustomerCreateInput = z.infer<typeof CustomerCreateInput>
+export const CustomerUpdateInput = patchSchema(CustomerCreateInput)
+export type CustomerUpdateInput = z.infer<typeof CustomerUpdateInput>
+
+export interface CustomerDto {
+  id: string
+  name: string
+  contactEmail: string
+  address: string
+  lotCount: number
+  shipmentCount: number
+  createdAt: string
+}
+
+// --- shipments -------------------------------------------------------------------------------
+
+export const ShipmentCreateInput = z.object({
+  customerId: z.string().uuid('choose a customer'),
+  orderRef: z.string().trim().max(80).default(''),
+  carrier: z.string().trim().max(80).default(''),
+  tracking: z.string().trim().max(120).default(''),
+  shippedOn: isoDate,
+  serials: z
+    .array(z.string().trim().toUpperCase().min(1).max(200))
+    .min(1, 'scan at least one serial')
+    .max(SHIPMENT_SERIALS_MAX, `at most ${SHIPMENT_SERIALS_MAX} serials in one shipment`),
+})
+export type ShipmentCreateInput = z.infer<typeof ShipmentCreateInput>
+
+/** A serial scanned at packing, checked before it is added to the shipment being built. */
+export interface ShippableUnitDto {
+  serial: string
+  state: UnitState
+  lotNumber: string
+  productCode: string
+  revisionLetter: string
+  /** Null when the unit may ship; otherwise why not. */
+  refusal: string | null
+}
+
+export interface ShipmentSummaryDto {
+  id: string
+  number: string
+  customerId: string
+  customerName: string
+  orderRef: string
+  carrier: string
+  tracking: string
+  shippedOn: string
+  unitCount: number
+  createdBy: string | null
+  createdAt: string
+}
+
+export interface ShipmentDto extends ShipmentSummaryDto {
+  customerEmail: string
+  units: {
+    serial: string
+    lotNumber: string
+    productCode: string
+    revisionLetter: string
+    state: UnitState
+  }[]
+  documents: DocumentDto[]
+}
+
+// --- certificates and e-mailed documents -----------------------------------------------------
+
+/** `to` left empty goes to the contact e-mail of the document's customer. */
+export const DocumentEmailInput = z.object({
+  to: z.array(email).max(20, 'at most 20 recipients').default([]),
+  note: z.string().trim().max(4000).default(''),
+})
+export type DocumentEmailInput = z.infer<typeof DocumentEmailInput>
+
+/** What the e-mail dialog starts from: the customer's contact, a subject and a body. */
+export interface DocumentEmailDraftDto {
+  to: string[]
+  subject: string
+  text: string
+  customerName: string | null
+}
+
+// --- service cases (returns) -----------------------------------------------------------------
+
+export const ServiceCaseCreateInput = z.object({
+  serial: z.string().trim().toUpperCase().min(1, 'scan or type the returned serial').max(200),
+  complaint: z
+    .string()
+    .trim()
+    .min(3, 'say what the customer reports (at least 3 characters)')
+    .max(4000),
+  receivedOn: isoDate,
+})
+export type ServiceCaseCreateInput = z.infer<typeof ServiceCaseCreateInput>
+
+export const ServiceCaseUpdateInput = z.object({
+  findings: z.string().trim().max(8000).optional(),
+  defectCodeId: z.string().uuid('choose a defect code').nullable().optional(),
+})
+export type ServiceCaseUpdateInput = z.infer<typeof ServiceCaseUpdateInput>
+
+export const ServiceCaseCloseInput = z.object({
+  resolution: z.enum(SERVICE_CASE_RESOLUTIONS, {
+    error: 'choose repair, replace, credit or no fault found',
+  }),
+  reworkToStepId: z.string().uuid('choose the step the repair starts at').nullable().default(null),
+  replacementSerial: z.string().trim().toUpperCase().max(200).nullable().default(null),
+})
+export type ServiceCaseCloseInput = z.infer<typeof ServiceCaseCloseInput>
+
+export const ServiceCaseQuery = z.object({
+  status: z.enum(['open', 'closed']).optional(),
+  lotId: z.string().uuid().optional(),
+  serial: z.string().trim().toUpperCase().max(200).optional(),
+})
+export type ServiceCaseQuery = z.infer<typeof ServiceCaseQuery>
+
+export interface ServiceCaseDto {
+  id: string
+  number: string
+  serial: string
+  unitState: UnitState
+  lotId: string
+  lotNumber: string
+  productCode: string
+  revisionId: string
+  revisionLetter: string
+  customerId: string | null
+  customerName: string | null
+  shipmentNumber: string | null
+  complaint: string
+  receivedOn: string
+  findings: string
+  defectCodeId: string | null
+  defectCode: string | null
+  resolution: ServiceCaseResolution | null
+  reworkToStepName: string | null
+  replacementSerial: string | null
+  status: ServiceCaseStatus
+  openedBy: string | null
+  closedBy: string | null
+  closedAt: string | null
+  createdAt: string
+}

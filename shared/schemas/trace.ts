@@ -1,0 +1,235 @@
+import { z } from 'zod'
+import type { Disposition, DocumentKind, DocumentStatus, UnitState } from '../lots'
+
+/** What the Trace scan box sends: a bare serial or a traveler URL, as scanned or typed. */
+export const TraceScanParam = z
+  .string()
+  .trim()
+  .min(1, 'scan or type a serial')
+  .max(300, 'at most 300 characters')
+
+/** A component lot's internal code in a path (or its label URL). */
+export const ComponentLotCodeParam = z
+  .string()
+  .trim()
+  .min(1, 'scan or type a component lot code')
+  .max(300, 'at most 300 characters')
+
+export const RecallQuery = z.object({ format: z.enum(['json', 'csv']).default('json') })
+export type RecallQuery = z.infer<typeof RecallQuery>
+
+/** A lead's containment of a suspect component lot. */
+export const ContainInput = z.object({
+  reason: z
+    .string()
+    .trim()
+    .min(10, 'say in a sentence why the lot is contained (at least 10 characters)')
+    .max(400, 'at most 400 characters'),
+})
+export type ContainInput = z.infer<typeof ContainInput>
+
+/** A reviewer's edit of a draft e-mail before it is sent. */
+export const DraftUpdateInput = z
+  .object({
+    subject: z.string().trim().min(1, 'give the e-mail a subject').max(300).optional(),
+    text: z.string().min(1, 'the message is empty').max(20_000).optional(),
+  })
+  .refine((v) => v.subject !== undefined || v.text !== undefined, {
+    message: 'change the subject or the text',
+  })
+export type DraftUpdateInput = z.infer<typeof DraftUpdateInput>
+
+export interface TraceValueDto {
+  key: string
+  label: string
+  unit: string | null
+  kind: 'numeric' | 'boolean' | 'text' | 'choice'
+  value: number | string | boolean | null
+  decimals: number
+  nominal: number | null
+  lower: number | null
+  upper: number | null
+  isPass: boolean
+  isDerived: boolean
+}
+
+export interface TraceStepRunDto {
+  id: string
+  stepId: string
+  stepName: string
+  stepPosition: number
+  stationKind: string
+  stationCode: string
+  stationName: string
+  operator: string
+  countersignedBy: string | null
+  attempt: number
+  isRework: boolean
+  result: 'pass' | 'fail'
+  note: string
+  startedAt: string
+  finishedAt: string
+  values: TraceValueDto[]
+}
+
+export interface TraceConsumptionDto {
+  id: string
+  stepRunId: string
+  componentLotId: string
+  internalCode: string
+  partNumber: string
+  partDescription: string
+  supplierName: string
+  supplierLotCode: string
+  componentLotStatus: string
+  quantity: number
+  unitOfMeasure: string
+  itemSerial: string | null
+  refDesignators: string
+  /** Download address of the supplier's certificate, or null when none was filed. */
+  certificateUrl: string | null
+  certificateFilename: string | null
+  fittedAt: string
+}
+
+export interface TraceNonconformanceDto {
+  id: string
+  stepRunId: string
+  stepName: string
+  defectCode: string | null
+  defectDescription: string | null
+  description: string
+  failedChecks: string[]
+  disposition: Disposition | null
+  reworkToStepName: string | null
+  reason: string
+  openedBy: string | null
+  decidedBy: string | null
+  countersignedBy: string | null
+  openedAt: string
+  closedAt: string | null
+}
+
+export interface TraceDocumentDto {
+  id: string
+  kind: DocumentKind
+  filename: string
+  status: DocumentStatus
+  createdAt: string
+  /** Download address once the document is done. */
+  url: string | null
+}
+
+export interface TraceShipmentDto {
+  id: string
+  number: string
+  customerId: string
+  customerName: string
+  customerEmail: string
+  orderRef: string
+  carrier: string
+  tracking: string
+  shippedOn: string
+}
+
+export interface TraceServiceCaseDto {
+  id: string
+  number: string
+  status: 'open' | 'closed'
+  customerName: string | null
+  complaint: string
+  receivedOn: string
+  findings: string
+  defectCode: string | null
+  resolution: string | null
+  replacementSerial: string | null
+  openedBy: string | null
+  closedAt: string | null
+}
+
+/** Everything known about one serial, in time order (GET /api/trace/units/:serial). */
+export interface UnitTraceDto {
+  unit: {
+    id: string
+    serial: string
+    state: UnitState
+    holdReason: string
+    reworkCount: number
+    currentStepName: string | null
+    createdAt: string
+    finishedAt: string | null
+  }
+  lot: {
+    id: string
+    number: string
+    orderRef: string
+    customerName: string
+    releasedAt: string | null
+  }
+  product: { id: string; code: string; name: string }
+  revision: { id: string; letter: string; status: string; releasedAt: string | null }
+  stepRuns: TraceStepRunDto[]
+  consumptions: TraceConsumptionDto[]
+  nonconformances: TraceNonconformanceDto[]
+  documents: TraceDocumentDto[]
+  shipment: TraceShipmentDto | null
+  serviceCases: TraceServiceCaseDto[]
+  generatedAt: string
+}
+
+/** Where an affected unit stands, for the recall scope. */
+export const RECALL_GROUPS = ['in_progress', 'finished', 'shipped'] as const
+export type RecallGroup = (typeof RECALL_GROUPS)[number]
+export const RECALL_GROUP_LABELS: Record<RecallGroup, string> = {
+  in_progress: 'In progress',
+  finished: 'Finished, not shipped',
+  shipped: 'Shipped',
+}
+
+export interface RecallUnitDto {
+  unitId: string
+  serial: string
+  state: UnitState
+  group: RecallGroup
+  lotNumber: string
+  customerId: string | null
+  customerName: string
+  shipmentNumber: string | null
+  shippedOn: string | null
+  quantity: number
+}
+
+export interface RecallCustomerDto {
+  customerId: string | null
+  customerName: string
+  contactEmail: string
+  counts: Record<RecallGroup, number>
+  total: number
+}
+
+/** Every unit holding a component lot, grouped (GET /api/trace/component-lots/:code). */
+export interface RecallScopeDto {
+  componentLot: {
+    id: string
+    internalCode: string
+    partNumber: string
+    partDescription: string
+    supplierName: string
+    supplierLotCode: string
+    status: string
+    receivedOn: string
+  }
+  counts: Record<RecallGroup, number> & { total: number; scrapped: number }
+  customers: RecallCustomerDto[]
+  units: RecallUnitDto[]
+}
+
+export interface ContainResultDto {
+  scope: RecallScopeDto
+  held: string[]
+  alreadyHeld: string[]
+  quarantined: boolean
+  drafts: { emailId: string; customerName: string; to: string; serials: string[] }[]
+  /** Customers with shipped units but no contact e-mail: nobody to draft to, call them. */
+  noContact: string[]
+}

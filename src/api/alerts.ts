@@ -1,0 +1,11 @@
+import type { AlertDto, AlertQuery } from '@shared/schemas/alerts'
+import { json, request } from './client'
+import { toSearchParams } from './query'
+
+export const alertsApi = {
+  /** Lead, engineer or admin: open alerts first, newest first. */
+  list: (query: AlertQuery) => request<AlertDto[]>(`/alerts?${toSearchParams(query)}`),
+  /** Lead only; 409 `alert_acknowledged` when someone acknowledged it first. */
+  acknowledge: (id: string) =>
+    request<AlertDto>(`/alerts/${encodeURIComponent(id)}/acknowledge`, json('POST')),
+}

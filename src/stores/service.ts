@@ -1,0 +1,101 @@
+import { defineStore } from 'pinia'
+import { ref } from 'vue'
+import type { DocumentDto } from '@shared/schemas/lots'
+import type { StepDto } from '@shared/schemas/recipes'
+import type {
+  ServiceCaseCloseInput,
+  ServiceCaseCreateInput,
+  ServiceCaseDto,
+  ServiceCaseUpdateInput,
+} from '@shared/schemas/shipping'
+import { revisionsApi } from '@/api/revisions'
+import { documentsApi, serviceCasesApi } from '@/api/shipping'
+
+export const useServiceStore = defineStore('service', () => {
+  /** Cases, open ones first. */
+  const cases = ref<ServiceCaseDto[]>([])
+  const isLoading = ref(false)
+  /** The filter of the list; empty for every case. */
+  const status = ref<'open' | 'closed' | ''>('open')
+  /** The case open in the drawer, the route of its unit, and its unit's documents. */
+  const current = ref<ServiceCaseDto | null>(null)
+  const steps = ref<StepDto[]>([])
+  const documents = ref<DocumentDto[]>([])
+
+  /** Fetches the list with the current filter; throws ApiError. */
+  async function fetchAll() {
+    isLoading.value = true
+    try {
+      cases.value = await serviceCasesApi.list({ status: status.value || undefined })
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  function put(c: ServiceCaseDto) {
+    current.value = c
+    cases.value = cases.value.map((x) => (x.id === c.id ? c : x))
+  }
+
+  /** Opens a case in the drawer with its unit's route and documents; throws ApiError. */
+  async function open(id: string) {
+    const c = await serviceCasesApi.get(id)
+    current.value = c
+    const [rev, docs] = await Promise.all([
+      revisionsApi.get(c.revisionId),
+      documentsApi.unitDocuments(c.serial),
+    ])
+    steps.value = rev.steps
+    documents.value = docs
+  }
+
+  /** Reloads the open case's documents (their progress). */
+  async function refreshDocuments() {
+    if (current.value) documents.value = await documentsApi.unitDocuments(current.value.serial)
+  }
+
+  /** Logs a return; the unit becomes returned. Throws ApiError with field messages. */
+  async function create(input: ServiceCaseCreateInput) {
+    const c = await serviceCasesApi.open(input)
+    await fetchAll()
+    return c
+  }
+
+  async function update(input: ServiceCaseUpdateInput) {
+    if (current.value) put(await serviceCasesApi.update(current.value.id, input))
+  }
+
+  async function closeCase(input: ServiceCaseCloseInput) {
+    if (current.value) put(await serviceCasesApi.close(current.value.id, input))
+  }
+
+  /** Asks for a certificate of conformance of the open case's serial. */
+  async function makeCertificate() {
+    if (!current.value) return
+    await documentsApi.unitCertificate(current.value.serial)
+    await refreshDocuments()
+  }
+
+  function close() {
+    current.value = null
+    steps.value = []
+    documents.value = []
+  }
+
+  return {
+    cases,
+    isLoading,
+    status,
+    current,
+    steps,
+    documents,
+    fetchAll,
+    open,
+    refreshDocuments,
+    create,
+    update,
+    closeCase,
+    makeCertificate,
+    close,
+  }
+})

@@ -1,0 +1,106 @@
+import { defineStore } from 'pinia'
+import { ref } from 'vue'
+import type {
+  LotTurnDeviationDto,
+  LotYieldDetailDto,
+  LotYieldDto,
+  YieldSortKey,
+  YieldSummaryDto,
+} from '@shared/schemas/yield'
+import type { ProductDto } from '@shared/schemas/recipes'
+import { productsApi } from '@/api/products'
+import { yieldApi } from '@/api/yield'
+
+/** The board's period and filters; dates are whole UTC days, both included. */
+export interface YieldFilter {
+  from: string
+  to: string
+  productId: string
+  revisionId: string
+  sort: YieldSortKey | ''
+  dir: 'asc' | 'desc'
+}
+
+const isoDay = (d: Date) => d.toISOString().slice(0, 10)
+
+/** The last 30 days up to today. */
+function defaultFilter(now = new Date()): YieldFilter {
+  return {
+    from: isoDay(new Date(now.getTime() - 29 * 86_400_000)),
+    to: isoDay(now),
+    productId: '',
+    revisionId: '',
+    sort: '',
+    dir: 'desc',
+  }
+}
+
+/** The Yield board: the period's summary and the selected lot's figures and turn review. */
+export const useYieldStore = defineStore('yield', () => {
+  const filter = ref<YieldFilter>(defaultFilter())
+  const summary = ref<YieldSummaryDto | null>(null)
+  const isLoading = ref(false)
+  /** The lot picked in the table. */
+  const selectedLotId = ref<string | null>(null)
+  const lotYield = ref<LotYieldDto | null>(null)
+  const detail = ref<LotYieldDetailDto | null>(null)
+  const turns = ref<LotTurnDeviationDto | null>(null)
+  const isLotLoading = ref(false)
+  /** Products and their revisions, for the filters. */
+  const products = ref<ProductDto[]>([])
+
+  async function fetchProducts() {
+    products.value = await productsApi.list()
+  }
+
+  /** Fetches the KPIs and lots table for the filter; throws ApiError. */
+  async function fetchSummary() {
+    isLoading.value = true
+    try {
+      summary.value = await yieldApi.summary(filter.value)
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Selects a lot and fetches its step FPYs, detail and turn review together. */
+  async function selectLot(id: string) {
+    selectedLotId.value = id
+    isLotLoading.value = true
+    try {
+      const [y, d, t] = await Promise.all([
+        yieldApi.lot(id),
+        yieldApi.detail(id),
+        yieldApi.turns(id),
+      ])
+      if (selectedLotId.value !== id) return
+      lotYield.value = y
+      detail.value = d
+      turns.value = t
+    } finally {
+      isLotLoading.value = false
+    }
+  }
+
+  /** Only the turn review, for the lot page. */
+  async function fetchTurns(id: string) {
+    turns.value = null
+    turns.value = await yieldApi.turns(id)
+  }
+
+  return {
+    filter,
+    summary,
+    isLoading,
+    selectedLotId,
+    lotYield,
+    detail,
+    turns,
+    isLotLoading,
+    products,
+    fetchProducts,
+    fetchSummary,
+    selectLot,
+    fetchTurns,
+  }
+})
