@@ -55,7 +55,11 @@ interface Result {
   result: autocannon.Result
   times: number[]
 }
-function run(url: string, bodies: () => string, headers: Record<string, string>): Promise<Result> {
+function run(
+  url: string,
+  bodies: (() => string) | null,
+  headers: Record<string, string>,
+): Promise<Result> {
   const times: number[] = []
   return new Promise((resolve, reject) => {
     const instance = autocannon(
@@ -63,9 +67,9 @@ function run(url: string, bodies: () => string, headers: Record<string, string>)
         url,
         connections: CONNECTIONS,
         amount: UNITS,
-        method: 'POST',
+        method: bodies ? 'POST' : 'GET',
         headers: { 'content-type': 'application/json', ...headers },
-        requests: [{ setupRequest: (req) => ({ ...req, body: bodies() }) }],
+        requests: bodies ? [{ setupRequest: (req) => ({ ...req, body: bodies() }) }] : undefined,
       },
       (err, result) => (err ? reject(err) : resolve({ result, times })),
     )
@@ -118,6 +122,9 @@ const token = (
     csrfToken: string
   }
 ).csrfToken
+// What every signed-in request costs before any route work: session, user, CSRF, logging.
+const signedIn = await run(`${base}/api/auth/me`, null, { cookie })
+
 const profiler = args.profile ? new inspector.Session() : null
 if (profiler) {
   profiler.connect()
@@ -154,6 +161,7 @@ const line = (name: string, r: Result) => {
 }
 console.log(`\n${UNITS} requests, ${CONNECTIONS} connections, loopback`)
 console.log(line('baseline (1 INSERT)', baseline))
+console.log(line('GET /api/auth/me', signedIn))
 console.log(line('POST /api/step-runs', scan))
 console.log(
   `throughput: ${((100 * perSecond(scan)) / perSecond(baseline)).toFixed(0)} % of the baseline`,

@@ -1,0 +1,117 @@
+import { join } from 'node:path'
+import type { Redis } from 'ioredis'
+import { QueryTypes } from 'sequelize'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startSmtpFake } from '../../server/devMail/smtpFake'
+import { closeMail, setSmtpPortForTests } from '../../server/mail'
+import { db, Email } from '../../server/models'
+import { closeDocumentsQueue } from '../../server/queues/documents'
+import { closeMailQueue } from '../../server/queues/mail'
+import { newQueueConnection } from '../../server/redis'
+import { startDocumentsWorker } from '../../workers/documents'
+import { startMailWorker } from '../../workers/mail'
+import { startAppServer } from './support/appServer'
+import type { AppServer } from './support/appServer'
+import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure } from './support/browser'
+import type { TestBrowser } from './support/browser'
+
+/** A unit of the demo shipment, and the contact e-mail of the customer it went to. */
+async function shippedSerial(): Promise<{ serial: string; contact: string }> {
+  const [row] = await db().query<{ serial: string; contact: string }>(
+    `SELECT u.serial, c.contact_email AS contact
+       FROM units u
+       JOIN shipment_units su ON su.unit_id = u.id
+       JOIN shipments s ON s.id = su.shipment_id
+       JOIN customers c ON c.id = s.customer_id
+      WHERE u.state = 'shipped' AND c.contact_email <> ''
+      ORDER BY u.serial LIMIT 1`,
+    { type: QueryTypes.SELECT },
+  )
+  if (!row) throw new Error('the demo seed has no shipped unit')
+  return row
+}
+
+describe('Customer service e-mails a certificate from a trace', { timeout: 180_000 }, () => {
+  let app: AppServer
+  let browser: TestBrowser
+  let fake: Awaited<ReturnType<typeof startSmtpFake>>
+  let connection: Redis
+  let documents: ReturnType<typeof startDocumentsWorker>
+  let mail: ReturnType<typeof startMailWorker>
+
+  beforeAll(async () => {
+    // The workers and the SMTP fake run in this process, as `npm start` runs them beside the app.
+    fake = await startSmtpFake({ port: 0 })
+    setSmtpPortForTests(fake.port)
+    connection = newQueueConnection()
+    documents = startDocumentsWorker(connection)
+    mail = startMailWorker(connection)
+    app = await startAppServer()
+    browser = await launchBrowser()
+  }, 60_000)
+
+  afterAll(async () => {
+    await browser?.close()
+    documents?.stop()
+    mail?.stop()
+    await Promise.all([documents?.worker.close(), mail?.worker.close()])
+    await closeDocumentsQueue()
+    await closeMailQueue()
+    await connection?.quit()
+    closeMail()
+    await fake?.close()
+    await app?.close()
+  })
+
+  it('scans a shipped serial, opens its history, e-mails a certificate and finds it in the Outbox', async () => {
+    const { serial, contact } = await shippedSerial()
+    const page = await browser.newPage()
+    screenshotOnFailure(page, 'service-certificate')
+    await page.goto(`${app.baseUrl}/signin`)
+    await page.getByLabel('E-mail').fill('service@ferncastle.example')
+    await page.getByLabel('Password').fill('waymark-demo')
+    await page.keyboard.press('Enter')
+    await page.waitForURL((u) => u.pathname !== '/signin')
+
+    // The keyboard alone, as a hand scanner types: the scan box has the focus on arrival.
+    await page.goto(`${app.baseUrl}/trace`)
+    await page.waitForFunction(
+      () => document.activeElement?.getAttribute('data-field') === 'trace-scan',
+    )
+    await page.keyboard.type(serial)
+    await page.keyboard.press('Enter')
+    await expect.poll(() => page.locator('[data-test=trace-serial]').textContent()).toBe(serial)
+    expect(await page.getByText('History, step by step').isVisible()).toBe(true)
+
+    const sentBefore = await Email.count({ where: { status: 'received' } })
+    await page.getByRole('button', { name: `Make certificate for ${serial}` }).click()
+    // The documents worker makes it; the list polls until it is ready to send.
+    const emailButton = page.getByRole('button', { name: 'E-mail to customer' }).first()
+    await emailButton.waitFor({ timeout: 60_000 })
+    await emailButton.click()
+    const dialog = page.getByRole('dialog')
+    await dialog.getByRole('button', { name: 'Queue e-mail' }).waitFor()
+    // The dialog starts from the customer's contact e-mail.
+    await expect
+      .poll(() => dialog.locator('input, textarea').first().inputValue())
+      .toContain(contact.toLowerCase().split('@')[1]!)
+    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'service-certificate-email.png') })
+    await dialog.getByRole('button', { name: 'Queue e-mail' }).click()
+    await page.getByText('E-mail queued').waitFor()
+
+    // The fake SMTP server filed the message with the certificate attached.
+    await expect
+      .poll(() => Email.count({ where: { status: 'received' } }), { timeout: 30_000 })
+      .toBeGreaterThan(sentBefore)
+    const received = await Email.findOne({
+      where: { status: 'received' },
+      order: [['createdAt', 'DESC']],
+    })
+    expect(received!.subject).toContain(serial)
+    expect(received!.attachments.map((a) => a.contentType)).toContain('application/pdf')
+
+    await page.goto(`${app.baseUrl}/outbox`)
+    await page.getByText(received!.subject).first().waitFor()
+    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'service-certificate-outbox.png') })
+  })
+})
