@@ -1,3 +1,4 @@
+import { MEDIAN_MIN_RUNS, MEDIAN_SUSPECT_TURNS } from '../../shared/quality/turnReview'
 import type { LotReportData, TurnSeries } from '../services/lotReportData'
 import { FONT, MM, newPdf, pdfBuffer } from './pdf'
 import { fixedPdfInfo } from './pdfInfo'
@@ -331,15 +332,30 @@ function niceStep(raw: number): number {
   return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10) * p
 }
 
+/** "+1.2 %", "−0.4 %"; no sign on what rounds to zero. */
+function signedPercent(v: number): string {
+  const text = num(Math.abs(v), 1)
+  return `${Number(text) === 0 ? '' : v > 0 ? '+' : '−'}${text} %`
+}
+
 function drawTurnSeries(doc: PDFKit.PDFDocument, c: Cursor, s: TurnSeries) {
   const method =
     s.method === 'ratio'
       ? 'from the voltage-ratio test (precise)'
-      : 'from inductance, L = AL·N² (coarse: carries the core’s AL tolerance)'
+      : 'from inductance against the lot’s median core (a lot-wide AL offset cancels)'
   c.need(300) // heading, charts and the summary stay together
   heading(doc, c, `Turn deviation · ${s.winding}, ${s.nominalTurns} turns nominal`, method)
+  if (s.verdict) {
+    // The Yield board's sentence for this winding, word for word.
+    drawText(doc, s.verdict.summary, M, c.y, S.body, { width: CONTENT })
+    c.y += textHeight(doc, s.verdict.summary, S.body, CONTENT) + 6
+  }
   if (s.points.length === 0) {
-    drawLine(doc, 'No readings yet.', M, c.y, S.body)
+    const none =
+      s.method === 'median'
+        ? `No chart yet: the lot’s median needs ${MEDIAN_MIN_RUNS} inductance readings or more.`
+        : 'No readings yet.'
+    drawLine(doc, none, M, c.y, S.body)
     c.y += 16
     return
   }
@@ -403,7 +419,8 @@ function drawTurnSeries(doc: PDFKit.PDFDocument, c: Cursor, s: TurnSeries) {
   const yOf = (v: number) => top + h - ((v - (ymin - pad)) / (ymax - ymin + 2 * pad)) * h
   const xOf = (i: number) => ix + (dev.length === 1 ? iw / 2 : (i / (dev.length - 1)) * iw)
   doc.rect(ix, top, iw, h).lineWidth(0.4).strokeColor(RULE).stroke()
-  const hasSpread = chart !== null && chart.ucl > chart.lcl
+  const hasSpread =
+    chart !== null && chart.ucl !== null && chart.lcl !== null && chart.ucl > chart.lcl
   if (chart) {
     const line = (v: number, label: string, dashed: boolean) => {
       doc.moveTo(ix, yOf(v)).lineTo(ix + iw, yOf(v))
@@ -415,9 +432,9 @@ function drawTurnSeries(doc: PDFKit.PDFDocument, c: Cursor, s: TurnSeries) {
       if (dashed) doc.undash()
       drawLine(doc, `${label} ${num(v, 2)}`, ix + iw + 2, yOf(v) - 3.5, S.small)
     }
-    if (hasSpread) line(chart.ucl, 'UCL', true)
+    if (hasSpread) line(chart.ucl!, 'UCL', true)
     line(chart.center, 'CL', false)
-    if (hasSpread) line(chart.lcl, 'LCL', true)
+    if (hasSpread) line(chart.lcl!, 'LCL', true)
     else drawLine(doc, 'no spread: no limits', ix + 4, top + 4, S.small)
   }
   doc.moveTo(xOf(0), yOf(dev[0]!))
@@ -451,13 +468,18 @@ function drawTurnSeries(doc: PDFKit.PDFDocument, c: Cursor, s: TurnSeries) {
   const miscounts = s.points.filter((p) => p.miscount)
   const ruleCount = new Set(s.violations.map((v) => v.index)).size
   const against =
-    s.medianTurns === null
+    s.method === 'ratio'
       ? 'estimate rounds to another whole turn than the nominal'
-      : `estimate rounds to another whole turn than the lot’s median of ${num(s.medianTurns, 1)}; a lot-wide offset is the core lot’s AL`
+      : `${num(MEDIAN_SUSPECT_TURNS, 1)} turns or more off what the lot’s median inductance implies`
+  const offset =
+    s.lotOffsetPercent === null
+      ? ''
+      : ` The lot’s median inductance is ${signedPercent(s.lotOffsetPercent)} from AL·N².`
   const summary =
     `Suspected miscounts (${against}): ${miscounts.length}` +
     (miscounts.length ? ` — ${miscounts.map((p) => p.serial).join(', ')}` : '') +
-    `. Points meeting a run rule (Western Electric 1–4, marked red): ${ruleCount}.`
+    `. Points meeting a run rule (Western Electric 1–4, marked red): ${ruleCount}.` +
+    offset
   drawText(doc, summary, M, c.y, S.smallInk, { width: CONTENT })
   c.y += textHeight(doc, summary, S.smallInk, CONTENT) + 6
   // By bench and operator, so a drifting bench stands out.

@@ -1,20 +1,19 @@
 import { QueryTypes } from 'sequelize'
-import { turnDeviation, secondaryTurnsFromRatio } from '../../shared/magnetics'
 import { dpuInterval } from '../../shared/quality/poisson'
 import type { RateInterval } from '../../shared/quality/poisson'
-import { capability, individualsChart, runRuleViolations } from '../../shared/quality/spc'
-import type { Capability, IndividualsChart, RuleViolation } from '../../shared/quality/spc'
+import { capability } from '../../shared/quality/spc'
+import type { Capability, RuleViolation } from '../../shared/quality/spc'
+import type { TurnVerdict } from '../../shared/quality/turnReview'
 import type { LotStatus } from '../../shared/lots'
 import type { NonconformanceDto } from '../../shared/schemas/lots'
-import type { CheckDto, RevisionDto, WindingDto } from '../../shared/schemas/recipes'
-import type { LotYieldDto } from '../../shared/schemas/yield'
-import { toSi, UNITS } from '../../shared/units'
-import type { Unit } from '../../shared/units'
+import type { RevisionDto } from '../../shared/schemas/recipes'
+import type { LotYieldDto, TurnChartDto, WindingTurnsDto } from '../../shared/schemas/yield'
 import { AppError } from '../errors'
 import { db, Lot } from '../models'
 import { listNonconformances } from './nonconformances'
 import { toRevisionDto } from './recipePresenters'
 import { loadRevision } from './revisionAccess'
+import { lotTurnDeviation } from './turnDeviation'
 import { getLotYield } from './yield'
 import { lotUnitTotals } from './yieldQueries'
 
@@ -45,28 +44,31 @@ export interface TurnPoint {
   station: string
   operator: string
   finishedAt: string
+  /** Turns the reading implies: ratio, N_p·V_s/V_p; median, N_nom·√(L / L_median). */
   estimatedTurns: number
   deviation: number
-  /**
-   * Ratio method: the estimate rounds to another whole turn than the nominal. Inductance method:
-   * it rounds to another whole turn than the lot's own median estimate, since the core lot's AL
-   * (±25 % on ungapped ferrite) shifts every unit alike and only a unit off the rest is suspect.
-   */
+  /** Suspected miscount by this series' signal, exactly as the Yield board flags the run. */
   miscount: boolean
 }
 
-/** A turn-deviation series of one winding, by one method, with its individuals chart. */
+/**
+ * A turn-deviation series of one winding, by one signal, with its individuals chart: a view of
+ * one winding of `lotTurnDeviation()` (the Yield board's computation), never computed here.
+ */
 export interface TurnSeries {
   winding: string
   nominalTurns: number
-  /** ratio: from the voltage-ratio test (precise); inductance: from L = AL·N² (coarse). */
-  method: 'ratio' | 'inductance'
-  /** Median estimated turns of the lot (inductance method; null for ratio or no points). */
-  medianTurns: number | null
+  /** ratio: from the voltage-ratio test (precise); median: inductance against the lot median. */
+  method: 'ratio' | 'median'
+  /** Lot median inductance / AL·N² − 1, in % (median method; null without enough readings). */
+  lotOffsetPercent: number | null
   points: TurnPoint[]
-  /** Null with fewer than 2 points. */
-  chart: IndividualsChart | null
+  /** Centred on zero; null limits with fewer than 2 points or no spread. */
+  chart: { center: number; ucl: number | null; lcl: number | null } | null
+  /** Run-rule violations, indexing `points`. */
   violations: RuleViolation[]
+  /** The winding's verdict and sentence from the board; on the winding's first series only. */
+  verdict: { value: TurnVerdict; summary: string } | null
 }
 
 export interface LotReportData {
@@ -97,157 +99,80 @@ interface MeasurementRow {
   step_run_id: string
   check_id: string
   value_number: number | null
-  serial: string
-  station: string
-  operator: string
-  finished_at: Date
 }
 
-/** Numeric values of the given checks in the lot, in build order (time the run finished). */
+/** Numeric values of the given checks in the lot. */
 async function numericValues(lotId: string, checkIds: readonly string[]) {
   if (!checkIds.length) return []
   return db().query<MeasurementRow>(
-    `SELECT m.step_run_id, m.check_id, m.value_number, u.serial, st.code AS station,
-            us.name AS operator, sr.finished_at
+    `SELECT m.step_run_id, m.check_id, m.value_number
        FROM measurements m
        JOIN step_runs sr ON sr.id = m.step_run_id
        JOIN units u ON u.id = sr.unit_id
-       JOIN stations st ON st.id = sr.station_id
-       JOIN users us ON us.id = sr.operator_id
       WHERE u.lot_id = :lotId AND m.check_id IN (:checkIds) AND m.value_number IS NOT NULL
       ORDER BY sr.finished_at, u.serial, m.step_run_id`,
     { replacements: { lotId, checkIds }, type: QueryTypes.SELECT },
   )
 }
 
-const si = (value: number, check: CheckDto | undefined): number | null =>
-  check?.unit && check.unit in UNITS ? toSi(value, check.unit as Unit) : null
-
-function median(values: readonly number[]): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  const mid = Math.floor(sorted.length / 2)
-  return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2
-}
-
-function chartOf(points: readonly TurnPoint[]) {
-  const values = points.map((p) => p.deviation)
-  if (values.length < 2) return { chart: null, violations: [] }
-  const chart = individualsChart(values)
-  const sigma = (chart.ucl - chart.center) / 3
-  return { chart, violations: sigma > 0 ? runRuleViolations(values, chart.center, sigma) : [] }
+/** One series of a winding from the board's chart of that basis; null without the chart. */
+function seriesOf(w: WindingTurnsDto, chart: TurnChartDto | null): TurnSeries | null {
+  if (!chart) return null
+  const basis = chart.basis
+  // chart.values index the winding's runs in build order; the points are those values.
+  const position = new Map(chart.values.map((v, k) => [v.index, k]))
+  const points = chart.values.map(({ index, value }): TurnPoint => {
+    const r = w.runs[index]!
+    return {
+      serial: r.serial,
+      station: r.stationCode,
+      operator: r.operatorName,
+      finishedAt: r.finishedAt,
+      estimatedTurns: w.nominalTurns + value,
+      deviation: value,
+      miscount: r.suspectBy.includes(basis),
+    }
+  })
+  return {
+    winding: w.name,
+    nominalTurns: w.nominalTurns,
+    method: basis,
+    lotOffsetPercent: basis === 'median' ? w.lotOffsetPercent : null,
+    points,
+    chart: { center: chart.center, ucl: chart.ucl, lcl: chart.lcl },
+    violations: chart.violations.flatMap((v) => {
+      const k = position.get(v.index)
+      return k === undefined ? [] : [{ ...v, index: k }]
+    }),
+    verdict: null,
+  }
 }
 
 /**
- * The lot's turn-count deviation series, computed here from the measurements with
- * `shared/magnetics.ts` and `shared/quality/spc.ts`. Kept in this one function so that it can
- * be replaced by the shared turn-deviation service when that lands. For each derived check of
- * the revision that estimates turns, every run of its step in build order:
- * - `secondary_turns_from_ratio`: N_s = N_p·V_s/V_p minus the check's nominal turns (precise);
- * - `turn_deviation` / `turns_from_inductance`: √(L/AL) minus the winding's nominal (coarse).
- * One series per winding and method; the precise series come first.
+ * The lot's turn-count deviation series for the report, mapped from `lotTurnDeviation()` so the
+ * report and the Yield board show the same suspects, run-rule points and verdict. Per winding:
+ * the ratio-test series, then the inductance-against-lot-median series, each when the board has
+ * that chart; a winding with neither gets one empty series ("no readings yet").
  */
-export async function lotTurnDeviationSeries(
-  lotId: string,
-  rev: Pick<RevisionDto, 'steps' | 'windings'>,
-): Promise<TurnSeries[]> {
-  const checks = rev.steps.flatMap((s) => s.checks)
-  const byKey = new Map(checks.map((c) => [c.key, c]))
-  const windingOf = (id: string | undefined): WindingDto | undefined =>
-    rev.windings.find((w) => w.id === id)
-  interface Plan {
-    winding: WindingDto
-    nominalTurns: number
-    method: TurnSeries['method']
-    inputs: CheckDto[]
-    estimate: (values: Map<string, number>) => number | null
-  }
-  const plans: Plan[] = []
-  const seen = new Set<string>()
-  for (const c of checks) {
-    const inputs = c.derivedInputs ?? {}
-    if (c.derived === 'secondary_turns_from_ratio') {
-      const primary = windingOf(inputs.primaryWinding)
-      const vp = byKey.get(inputs.primaryVolts ?? '')
-      const vs = byKey.get(inputs.secondaryVolts ?? '')
-      // The secondary's nominal is the check's own; the winding is the one with those turns.
-      const nominal = c.nominal
-      if (!primary || !vp || !vs || nominal === null) continue
-      const secondary = rev.windings.find((w) => w.nominalTurns === nominal && w.id !== primary.id)
-      plans.push({
-        winding: secondary ?? { ...primary, name: c.label, nominalTurns: nominal },
-        nominalTurns: nominal,
-        method: 'ratio',
-        inputs: [vp, vs],
-        estimate: (v) => {
-          const p = v.has(vp.id) ? si(v.get(vp.id)!, vp) : null
-          const s = v.has(vs.id) ? si(v.get(vs.id)!, vs) : null
-          return p !== null && s !== null && p > 0
-            ? secondaryTurnsFromRatio(primary.nominalTurns, p, s)
-            : null
-        },
+export async function lotTurnDeviationSeries(lotId: string): Promise<TurnSeries[]> {
+  const turns = await lotTurnDeviation(lotId)
+  return turns.windings.flatMap((w) => {
+    const series = [seriesOf(w, w.ratioChart), seriesOf(w, w.medianChart)].filter(
+      (x): x is TurnSeries => x !== null,
+    )
+    if (!series.length)
+      series.push({
+        winding: w.name,
+        nominalTurns: w.nominalTurns,
+        method: w.ratioCheckKey ? 'ratio' : 'median',
+        lotOffsetPercent: null,
+        points: [],
+        chart: null,
+        violations: [],
+        verdict: null,
       })
-    } else if (c.derived === 'turn_deviation' || c.derived === 'turns_from_inductance') {
-      const winding = windingOf(inputs.winding)
-      const l = byKey.get(inputs.inductance ?? '')
-      if (!winding || !l || seen.has(`${winding.id}:${l.id}`)) continue
-      seen.add(`${winding.id}:${l.id}`)
-      plans.push({
-        winding,
-        nominalTurns: winding.nominalTurns,
-        method: 'inductance',
-        inputs: [l],
-        estimate: (v) => {
-          const h = v.has(l.id) ? si(v.get(l.id)!, l) : null
-          return h !== null && h > 0
-            ? turnDeviation({
-                nominalTurns: winding.nominalTurns,
-                inductanceH: h,
-                alNanoHenry: winding.alNanoHenry,
-              }).estimatedTurns
-            : null
-        },
-      })
-    }
-  }
-  plans.sort((a, b) => (a.method === b.method ? 0 : a.method === 'ratio' ? -1 : 1))
-  const rows = await numericValues(lotId, [
-    ...new Set(plans.flatMap((p) => p.inputs.map((c) => c.id))),
-  ])
-  const runs = new Map<string, { row: MeasurementRow; values: Map<string, number> }>()
-  for (const r of rows) {
-    const run = runs.get(r.step_run_id) ?? { row: r, values: new Map<string, number>() }
-    run.values.set(r.check_id, Number(r.value_number))
-    runs.set(r.step_run_id, run)
-  }
-  return plans.map((plan) => {
-    const points: TurnPoint[] = []
-    for (const { row, values } of runs.values()) {
-      const estimatedTurns = plan.estimate(values)
-      if (estimatedTurns === null || !Number.isFinite(estimatedTurns)) continue
-      points.push({
-        serial: row.serial,
-        station: row.station,
-        operator: row.operator,
-        finishedAt: new Date(row.finished_at).toISOString(),
-        estimatedTurns,
-        deviation: estimatedTurns - plan.nominalTurns,
-        miscount: Math.round(estimatedTurns) !== Math.round(plan.nominalTurns),
-      })
-    }
-    const medianTurns =
-      plan.method === 'inductance' && points.length
-        ? median(points.map((p) => p.estimatedTurns))
-        : null
-    if (medianTurns !== null)
-      for (const p of points) p.miscount = Math.round(p.estimatedTurns - medianTurns) !== 0
-    return {
-      winding: plan.winding.name,
-      nominalTurns: plan.nominalTurns,
-      method: plan.method,
-      medianTurns,
-      points,
-      ...chartOf(points),
-    }
+    series[0]!.verdict = { value: w.verdict, summary: w.summary }
+    return series
   })
 }
 
@@ -326,7 +251,7 @@ export async function loadLotReportData(lotId: string): Promise<LotReportData> {
     getLotYield(lotId),
     lotUnitTotals([lotId]),
     defectPareto(lotId),
-    lotTurnDeviationSeries(lotId, rev),
+    lotTurnDeviationSeries(lotId),
     checkCapabilities(lotId, rev),
     listNonconformances({ lotId }),
     latestActivity(lotId),

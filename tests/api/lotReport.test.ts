@@ -170,15 +170,23 @@ describe('lot report and exports', () => {
     })
 
     it('gives the turn deviation with the suspected miscount and the bench', () => {
-      // 40 mH on AL 3000 nH/turn² is √(0.04 / 3e-6) = 115.5 turns against 92: a miscount; the
-      // 25.39 mH units estimate 91.996 turns (L = AL·N², common practice).
       expect(text).toContain('Turn deviation · secondary, 92 turns nominal')
-      // Against the lot's median estimate (91.996 turns): only unit 4 rounds elsewhere.
+      // Changed when the report took its series from lotTurnDeviation() (the Yield board's
+      // computation): the inductance series is now read against the lot's median core,
+      // N·√(L / L median) − N, with a suspect at 1.5 turns or more off it (MEDIAN_SUSPECT_TURNS,
+      // common practice, no source), instead of "rounds to another whole turn than the median
+      // estimate". Same unit either way: the median of 25.39 ×5 and 40 mH is 25.39 mH, and unit
+      // 4 reads 92·√(40 / 25.39) − 92 = +23.5 turns (computed by hand); the others read 0.
       expect(text).toMatch(
         new RegExp(
-          `Suspected miscounts \\(estimate rounds to another whole turn than the lot’s median of 92\\.0;[^)]*\\): 1 — ${serials[3]}`,
+          `Suspected miscounts \\(1\\.5 turns or more off what the lot’s median inductance implies\\): 1 — ${serials[3]}\\.`,
         ),
       )
+      // Nominal AL·N² = 3000 nH × 92² = 25.392 mH; the median 25.39 mH is −0.008 %, shown as
+      // 0.0 % (computed by hand). The text layer gives the superscript ² as a plain 2.
+      expect(text).toMatch(/The lot’s median inductance is 0\.0 % from AL·N[²2]\./)
+      // The board's sentence for the winding, word for word (server/services/turnSummary.ts).
+      expect(text).toContain('1 winding run of 6 look miscounted. Wound at WND-1')
       expect(text).toContain('WND-1')
     })
 
