@@ -95,6 +95,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     await expect
       .poll(() => dialog.locator('input, textarea').first().inputValue())
       .toContain(contact.toLowerCase().split('@')[1]!)
+    await page.waitForTimeout(400) // the dialog's fade-in, for the picture only
     await page.screenshot({ path: join(E2E_RESULTS_DIR, 'service-certificate-email.png') })
     await dialog.getByRole('button', { name: 'Queue e-mail' }).click()
     await page.getByText('E-mail queued').waitFor()
