@@ -1,6 +1,4 @@
-import { Queue } from 'bullmq'
-import { logger } from '../logger'
-import { newQueueConnection, redisPrefix } from '../redis'
+import { makeProducer, STANDARD_JOB_OPTIONS } from './producer'
 
 /** The queue the alerts worker (workers/alerts.ts) takes "re-evaluate this lot's step" jobs from. */
 export const ALERTS_QUEUE = 'alerts'
@@ -10,28 +8,10 @@ export interface AlertJob {
   stepId: string
 }
 
-let queue: Queue<AlertJob> | undefined
-let connection: ReturnType<typeof newQueueConnection> | undefined
+const producer = makeProducer<AlertJob>(ALERTS_QUEUE, STANDARD_JOB_OPTIONS)
 
 /** The producer side of the alerts queue, made on first use. */
-export function alertsQueue(): Queue<AlertJob> {
-  if (queue) return queue
-  connection ??= newQueueConnection()
-  queue = new Queue<AlertJob>(ALERTS_QUEUE, {
-    connection,
-    prefix: redisPrefix,
-    defaultJobOptions: {
-      attempts: 3,
-      backoff: { type: 'exponential', delay: 2000 },
-      removeOnComplete: 200,
-      removeOnFail: 500,
-    },
-  })
-  // Without a listener BullMQ prints every reconnect failure; the connection already logs each
-  // outage once (server/redis.ts).
-  queue.on('error', () => undefined)
-  return queue
-}
+export const alertsQueue = producer.queue
 
 /** The deduplication id of a lot's step: one waiting job per lot and step at any time. */
 export function alertJobKey(lotId: string, stepId: string): string {
@@ -46,26 +26,13 @@ export function alertJobKey(lotId: string, stepId: string): string {
  * re-evaluates recently run steps once Redis is back.
  */
 export async function enqueueAlertCheck(lotId: string, stepId: string): Promise<void> {
-  try {
-    await Promise.race([
-      alertsQueue().add(
-        'evaluate',
-        { lotId, stepId },
-        { deduplication: { id: alertJobKey(lotId, stepId), keepLastIfActive: true } },
-      ),
-      new Promise((_, reject) =>
-        setTimeout(() => reject(new Error('redis did not answer in 2 s')), 2000).unref(),
-      ),
-    ])
-  } catch (err) {
-    logger.warn({ err, lotId, stepId }, 'alert check not enqueued now; the sweep will retry')
-  }
+  await producer.add(
+    'evaluate',
+    { lotId, stepId },
+    { deduplication: { id: alertJobKey(lotId, stepId), keepLastIfActive: true } },
+    { lotId, stepId },
+    'alert check not enqueued now; the sweep will retry',
+  )
 }
 
-/** Closes the producer and its connection (BullMQ leaves a connection it was given open). */
-export async function closeAlertsQueue(): Promise<void> {
-  await queue?.close()
-  await connection?.quit().catch(() => connection?.disconnect())
-  queue = undefined
-  connection = undefined
-}
+export const closeAlertsQueue = producer.close
