@@ -2,10 +2,9 @@ import { HIGH_VOLTAGE_KINDS } from '../../shared/stations'
 import type { StationKind } from '../../shared/stations'
 import type { CheckDto } from '../../shared/schemas/recipes'
 import { checkLimitWords, limitNumber } from './limitWords'
-import { MM, newPdf, pdfBuffer } from './pdf'
-import { fixedPdfInfo } from './pdfInfo'
-import { drawLine, drawText, registerGreekFonts, textHeight } from './pdfText'
-import { INK, PAPER_STYLE, PaperWriter, SHEET, SHEET_WIDTH } from './paper'
+import { MM, pdfBuffer } from './pdf'
+import { drawLine, drawText, textHeight } from './pdfText'
+import { customerPaper, INK, PAPER_STYLE, PaperWriter, SHEET, SHEET_WIDTH } from './paper'
 import type { Column } from './paper'
 
 export type CertificateCheck = Pick<
@@ -201,44 +200,10 @@ export async function certificatePdf(
 ): Promise<Buffer> {
   if (!data.groups.some((g) => g.units.length))
     throw new RangeError('a certificate needs at least one unit')
-  const doc = newPdf({
-    size: 'A4',
-    margin: 0,
-    bufferPages: true,
-    info: fixedPdfInfo(`Certificate of conformance ${data.reference}`, data.issuedAt),
-  })
-  registerGreekFonts(doc)
-  const w = new PaperWriter(
-    doc,
-    (d) => {
-      drawLine(
-        d,
-        `Certificate of conformance ${data.reference} (continued)`,
-        SHEET.margin,
-        SHEET.margin,
-        PAPER_STYLE.kicker,
-      )
-      return SHEET.margin + 7 * MM
-    },
-    (d, page, count) => {
-      const y = SHEET.footerTop
-      d.moveTo(SHEET.margin, y)
-        .lineTo(SHEET.margin + SHEET_WIDTH, y)
-        .lineWidth(0.5)
-        .strokeColor(INK.rule)
-        .stroke()
-      drawLine(
-        d,
-        `${data.shopName} · Certificate of conformance ${data.reference}`,
-        SHEET.margin,
-        y + 2 * MM,
-        PAPER_STYLE.small,
-      )
-      drawLine(d, `Page ${page} of ${count}`, SHEET.margin, y + 2 * MM, PAPER_STYLE.small, {
-        width: SHEET_WIDTH,
-        align: 'right',
-      })
-    },
+  const { doc, w } = customerPaper(
+    `Certificate of conformance ${data.reference}`,
+    `${data.shopName} · Certificate of conformance ${data.reference}`,
+    data.issuedAt,
   )
   w.newPage()
   drawFirstHead(w, data)

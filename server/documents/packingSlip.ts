@@ -1,7 +1,6 @@
-import { MM, newPdf, pdfBuffer } from './pdf'
-import { fixedPdfInfo } from './pdfInfo'
-import { drawLine, drawText, registerGreekFonts, textHeight } from './pdfText'
-import { INK, PAPER_STYLE, PaperWriter, SHEET, SHEET_WIDTH } from './paper'
+import { MM, pdfBuffer } from './pdf'
+import { drawLine, drawText, textHeight } from './pdfText'
+import { customerPaper, INK, PAPER_STYLE, SHEET, SHEET_WIDTH } from './paper'
 
 /** Everything a packing slip prints. */
 export interface PackingSlipData {
@@ -34,44 +33,10 @@ export async function packingSlipPdf(
   onProgress?: (fraction: number) => Promise<void> | void,
 ): Promise<Buffer> {
   if (!data.units.length) throw new RangeError('a packing slip needs at least one unit')
-  const doc = newPdf({
-    size: 'A4',
-    margin: 0,
-    bufferPages: true,
-    info: fixedPdfInfo(`Packing slip ${data.shipment.number}`, data.issuedAt),
-  })
-  registerGreekFonts(doc)
-  const w = new PaperWriter(
-    doc,
-    (d) => {
-      drawLine(
-        d,
-        `Packing slip ${data.shipment.number} (continued)`,
-        SHEET.margin,
-        SHEET.margin,
-        PAPER_STYLE.kicker,
-      )
-      return SHEET.margin + 7 * MM
-    },
-    (d, page, count) => {
-      const y = SHEET.footerTop
-      d.moveTo(SHEET.margin, y)
-        .lineTo(SHEET.margin + SHEET_WIDTH, y)
-        .lineWidth(0.5)
-        .strokeColor(INK.rule)
-        .stroke()
-      drawLine(
-        d,
-        `${data.shopName} · Packing slip ${data.shipment.number} · ${data.units.length} units`,
-        SHEET.margin,
-        y + 2 * MM,
-        PAPER_STYLE.small,
-      )
-      drawLine(d, `Page ${page} of ${count}`, SHEET.margin, y + 2 * MM, PAPER_STYLE.small, {
-        width: SHEET_WIDTH,
-        align: 'right',
-      })
-    },
+  const { doc, w } = customerPaper(
+    `Packing slip ${data.shipment.number}`,
+    `${data.shopName} · Packing slip ${data.shipment.number} · ${data.units.length} units`,
+    data.issuedAt,
   )
   w.newPage()
   const x = SHEET.margin

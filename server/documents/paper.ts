@@ -1,5 +1,6 @@
-import { FONT, MM } from './pdf'
-import { drawLine, drawText, textHeight } from './pdfText'
+import { FONT, MM, newPdf } from './pdf'
+import { fixedPdfInfo } from './pdfInfo'
+import { drawLine, drawText, registerGreekFonts, textHeight } from './pdfText'
 import type { TextStyle } from './pdfText'
 
 /** A4 portrait geometry of a customer paper (certificate, packing slip), in points. */
@@ -161,4 +162,44 @@ export class PaperWriter {
       drawRow(row, cellStyle, false)
     }
   }
+}
+
+/**
+ * A new A4 customer paper: the PDF, its writer, the "(continued)" head of every later page and
+ * the footer rule with `footer` and "Page n of m". `title` names the paper in the PDF's info
+ * and its running head, e.g. "Packing slip S-0007".
+ */
+export function customerPaper(
+  title: string,
+  footer: string,
+  issuedAt: Date,
+): { doc: PDFKit.PDFDocument; w: PaperWriter } {
+  const doc = newPdf({
+    size: 'A4',
+    margin: 0,
+    bufferPages: true,
+    info: fixedPdfInfo(title, issuedAt),
+  })
+  registerGreekFonts(doc)
+  const w = new PaperWriter(
+    doc,
+    (d) => {
+      drawLine(d, `${title} (continued)`, SHEET.margin, SHEET.margin, PAPER_STYLE.kicker)
+      return SHEET.margin + 7 * MM
+    },
+    (d, page, count) => {
+      const y = SHEET.footerTop
+      d.moveTo(SHEET.margin, y)
+        .lineTo(SHEET.margin + SHEET_WIDTH, y)
+        .lineWidth(0.5)
+        .strokeColor(INK.rule)
+        .stroke()
+      drawLine(d, footer, SHEET.margin, y + 2 * MM, PAPER_STYLE.small)
+      drawLine(d, `Page ${page} of ${count}`, SHEET.margin, y + 2 * MM, PAPER_STYLE.small, {
+        width: SHEET_WIDTH,
+        align: 'right',
+      })
+    },
+  )
+  return { doc, w }
 }
