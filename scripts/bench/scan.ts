@@ -1,7 +1,7 @@
 // Benchmark of the scan route: `npx tsx scripts/bench/scan.ts [--units 2000] [--connections 32]`.
 // Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench).
 import { randomUUID } from 'node:crypto'
-import { writeFileSync } from 'node:fs'
+import { readdirSync, readFileSync, writeFileSync } from 'node:fs'
 import inspector from 'node:inspector/promises'
 import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
@@ -17,22 +17,33 @@ process.env.LOG_LEVEL ??= 'error'
 
 const { values: args } = parseArgs({
   options: {
-    units: { type: 'string', default: '2000' },
+    requests: { type: 'string', default: '4000' },
+    warmup: { type: 'string', default: '500' },
+    paced: { type: 'string', default: '2000' },
     connections: { type: 'string', default: '32' },
     profile: { type: 'string' },
     help: { type: 'boolean' },
   },
 })
 if (args.help) {
-  console.log(`Usage: tsx scripts/bench/scan.ts [--units N] [--connections N] [--profile file]
+  console.log(`Usage: tsx scripts/bench/scan.ts [--requests N] [--warmup N] [--paced N] [--connections N]
+                                   [--profile file]
 
-Resets its own database (WAYMARK_DB, default waymark_bench_test), releases one lot of N units of a
-one-step recipe, then drives POST /api/step-runs with autocannon over loopback, next to a
-baseline: a bare Express route doing one INSERT through pg. Prints p50/p95/p99 and throughput.
---profile writes a V8 CPU profile of the scan phase alone (open it in Chromium's DevTools).`)
+Resets its own database (WAYMARK_DB, default waymark_bench_test) and releases lots of a two-step
+recipe, one unit per scan. Then, for a baseline (a bare Express route doing one INSERT through
+pg), GET /api/auth/me and POST /api/step-runs, each over loopback with autocannon:
+  warm-up     --warmup requests, not counted (lets V8 compile the hot paths);
+  saturation  --requests requests on --connections connections, each sending its next request
+              as soon as the answer comes: the throughput. Its latency is mostly queueing, since
+              with C connections the mean latency is C / throughput;
+  paced       --paced requests offered at the throughput target (half the baseline's), shared by
+              the same connections: the latency a station sees at that load.
+--profile writes a V8 CPU profile of the scan's saturation phase (open it in Chromium's DevTools).`)
   process.exit(0)
 }
-const UNITS = Number(args.units)
+const REQUESTS = Number(args.requests)
+const WARMUP = Number(args.warmup)
+const PACED = Number(args.paced)
 const CONNECTIONS = Number(args.connections)
 
 const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
@@ -49,34 +60,88 @@ const { loadDemo } = await import('../../server/db/seed/demo')
 const { buildApp } = await import('../../server/app')
 const { seedBenchLot } = await import('./scanSeed')
 await loadDemo({ onlyIfEmpty: false })
-const serials = await seedBenchLot(UNITS)
+const serials = await seedBenchLot(WARMUP + REQUESTS + PACED)
 
 interface Result {
   result: autocannon.Result
   times: number[]
+  /** Wall-clock seconds from the first request to the last answer. */
+  seconds: number
+  /** CPU seconds per 1000 requests: this process (server and load generator) and PostgreSQL. */
+  cpu: { node: number; postgres: number }
 }
+
+/** CPU seconds used so far by every PostgreSQL process (user + system, from /proc). */
+function postgresCpuSeconds(): number {
+  let ticks = 0
+  for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
+    try {
+      const stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
+      const close = stat.lastIndexOf(')')
+      if (!stat.slice(stat.indexOf('(') + 1, close).startsWith('postgres')) continue
+      const fields = stat.slice(close + 2).split(' ')
+      ticks += Number(fields[11]) + Number(fields[12])
+    } catch {
+      // the process ended while we read
+    }
+  }
+  return ticks / 100
+}
+interface Load {
+  amount: number
+  /** Requests per second shared by all connections; absent: as fast as the answers come. */
+  rate?: number
+}
+
 function run(
   url: string,
   bodies: (() => string) | null,
   headers: Record<string, string>,
+  load: Load,
 ): Promise<Result> {
   const times: number[] = []
+  const cpu0 = process.cpuUsage()
+  const pg0 = postgresCpuSeconds()
+  const t0 = performance.now()
+  const measured = () => {
+    const used = process.cpuUsage(cpu0)
+    const per = 1000 / Math.max(1, times.length)
+    return {
+      seconds: (performance.now() - t0) / 1000,
+      cpu: {
+        node: ((used.user + used.system) / 1e6) * per,
+        postgres: (postgresCpuSeconds() - pg0) * per,
+      },
+    }
+  }
   return new Promise((resolve, reject) => {
     const instance = autocannon(
       {
         url,
         connections: CONNECTIONS,
-        amount: UNITS,
+        amount: load.amount,
+        overallRate: load.rate,
         method: bodies ? 'POST' : 'GET',
         headers: { 'content-type': 'application/json', ...headers },
         requests: bodies ? [{ setupRequest: (req) => ({ ...req, body: bodies() }) }] : undefined,
       },
-      (err, result) => (err ? reject(err) : resolve({ result, times })),
+      (err, result) => (err ? reject(err) : resolve({ result, times, ...measured() })),
     )
     // Every response's time, so p95 is computed exactly rather than read off a histogram.
     instance.on('response', (_client, _status, _bytes, responseTime) => times.push(responseTime))
     instance.on('error', reject)
   })
+}
+
+/** A warm-up run (not counted), then the measured one. */
+async function measure(
+  url: string,
+  bodies: (() => string) | null,
+  headers: Record<string, string>,
+  load: Load,
+): Promise<Result> {
+  if (WARMUP > 0) await run(url, bodies, headers, { amount: WARMUP })
+  return run(url, bodies, headers, load)
 }
 
 // The baseline: the least any Express + PostgreSQL write can cost on this machine.
@@ -95,12 +160,12 @@ function listen(handler: express.Express): Promise<Server> {
   })
 }
 const bareServer = await listen(bare)
-const barePort = (bareServer.address() as AddressInfo).port
-const baseline = await run(
-  `http://127.0.0.1:${barePort}/insert`,
-  () => JSON.stringify({ serial: 'X' }),
-  {},
-)
+const bareUrl = `http://127.0.0.1:${(bareServer.address() as AddressInfo).port}/insert`
+const bareBody = () => JSON.stringify({ serial: 'X' })
+const baseline = await measure(bareUrl, bareBody, {}, { amount: REQUESTS })
+const perSecond = (r: Result) => r.times.length / r.seconds
+const pacedRate = Math.round(perSecond(baseline) / 2)
+const baselinePaced = await run(bareUrl, bareBody, {}, { amount: PACED, rate: pacedRate })
 
 const app = buildApp()
 const server = await listen(app)
@@ -123,50 +188,63 @@ const token = (
   }
 ).csrfToken
 // What every signed-in request costs before any route work: session, user, CSRF, logging.
-const signedIn = await run(`${base}/api/auth/me`, null, { cookie })
+const signedIn = await measure(`${base}/api/auth/me`, null, { cookie }, { amount: REQUESTS })
 
+// Each scan takes the next queued unit, so no request is refused for a unit already moved on.
+let next = 0
+const scanUrl = `${base}/api/step-runs`
+const scanBody = () =>
+  JSON.stringify({
+    clientEventId: randomUUID(),
+    serial: serials[next++],
+    stationCode: 'WND-1',
+    values: { turns: 92, l_sec: 25.4 },
+  })
+const scanHeaders = { cookie, 'x-csrf-token': token }
+if (WARMUP > 0) await run(scanUrl, scanBody, scanHeaders, { amount: WARMUP })
 const profiler = args.profile ? new inspector.Session() : null
 if (profiler) {
   profiler.connect()
   await profiler.post('Profiler.enable')
   await profiler.post('Profiler.start')
 }
-let next = 0
-const scan = await run(
-  `${base}/api/step-runs`,
-  () =>
-    JSON.stringify({
-      clientEventId: randomUUID(),
-      serial: serials[next++ % serials.length],
-      stationCode: 'WND-1',
-      values: { turns: 92, l_sec: 25.4 },
-    }),
-  { cookie, 'x-csrf-token': token },
-)
-
+const scan = await run(scanUrl, scanBody, scanHeaders, { amount: REQUESTS })
 if (profiler) {
   const { profile } = await profiler.post('Profiler.stop')
   writeFileSync(args.profile!, JSON.stringify(profile))
   profiler.disconnect()
 }
+const scanPaced = await run(scanUrl, scanBody, scanHeaders, { amount: PACED, rate: pacedRate })
 
 function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
 }
-const perSecond = (r: Result) => r.times.length / (r.result.duration || 1)
+const p95 = (r: Result) =>
+  percentile(
+    [...r.times].sort((a, b) => a - b),
+    95,
+  )
 const line = (name: string, r: Result) => {
   const t = [...r.times].sort((a, b) => a - b)
   const ms = (p: number) => `${percentile(t, p).toFixed(1)} ms`
-  return `${name.padEnd(22)} ${perSecond(r).toFixed(0).padStart(6)} req/s   p50 ${ms(50)}   p95 ${ms(95)}   p99 ${ms(99)}   non-2xx ${r.result.non2xx}`
+  return [
+    `  ${name.padEnd(20)} ${perSecond(r).toFixed(0).padStart(5)} req/s`,
+    `p50 ${ms(50)}  p95 ${ms(95)}  p99 ${ms(99)}  non-2xx ${r.result.non2xx}`,
+    `CPU per 1000: node ${r.cpu.node.toFixed(2)} s, postgres ${r.cpu.postgres.toFixed(2)} s`,
+  ].join('   ')
 }
-console.log(`\n${UNITS} requests, ${CONNECTIONS} connections, loopback`)
+const share = (100 * perSecond(scan)) / perSecond(baseline)
+console.log(`\nsaturation: ${REQUESTS} requests, ${CONNECTIONS} connections, loopback`)
 console.log(line('baseline (1 INSERT)', baseline))
 console.log(line('GET /api/auth/me', signedIn))
 console.log(line('POST /api/step-runs', scan))
+console.log(`paced: ${PACED} requests at ${pacedRate} req/s (half the baseline's throughput)`)
+console.log(line('baseline (1 INSERT)', baselinePaced))
+console.log(line('POST /api/step-runs', scanPaced))
 console.log(
-  `throughput: ${((100 * perSecond(scan)) / perSecond(baseline)).toFixed(0)} % of the baseline`,
+  `throughput: ${share.toFixed(0)} % of the baseline (target ≥ 50 %); ` +
+    `p95 at the paced rate: ${p95(scanPaced).toFixed(1)} ms (target ≤ 25 ms)`,
 )
-console.log('targets: p95 ≤ 25 ms, throughput ≥ 50 % of the baseline')
 bareServer.close()
 server.close()
 await pool.end()

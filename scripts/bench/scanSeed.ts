@@ -1,3 +1,4 @@
+import { LOT_QUANTITY_MAX } from '../../shared/lots'
 import { SEED_ACTOR } from '../../server/db/seed/demo'
 import { User } from '../../server/models'
 import { createCheck } from '../../server/services/checks'
@@ -8,8 +9,9 @@ import { releaseRevision } from '../../server/services/revisions'
 import { createStep } from '../../server/services/routeSteps'
 
 /**
- * A one-step winding recipe with two checks, released, and a released lot of `units` of it.
- * Returns the serials, queued at the winding step. The product code must be new to the database.
+ * A one-step winding recipe with two checks, released, and released lots of it holding `units`
+ * in all (a lot holds at most 2000). Returns the serials, queued at the winding step. The product
+ * code must be new to the database.
  */
 export async function seedBenchLot(units: number, productCode = 'BN01'): Promise<string[]> {
   const product = await createProduct(
@@ -68,10 +70,15 @@ export async function seedBenchLot(units: number, productCode = 'BN01'): Promise
   await releaseRevision(revId, SEED_ACTOR)
   const lead = (await User.findOne({ where: { role: 'lead' } }))!
   const actor = { ...SEED_ACTOR, id: lead.id, email: lead.email }
-  const lot = await createLot(
-    { revisionId: revId, quantity: units, orderRef: 'BENCH', customerName: '', dueDate: null },
-    actor,
-  )
-  await releaseLot(lot.id, actor)
-  return (await listLotUnits(lot.id)).map((u) => u.serial)
+  const serials: string[] = []
+  for (let left = units; left > 0; left -= LOT_QUANTITY_MAX) {
+    const quantity = Math.min(left, LOT_QUANTITY_MAX)
+    const lot = await createLot(
+      { revisionId: revId, quantity, orderRef: 'BENCH', customerName: '', dueDate: null },
+      actor,
+    )
+    await releaseLot(lot.id, actor)
+    serials.push(...(await listLotUnits(lot.id)).map((u) => u.serial))
+  }
+  return serials
 }

@@ -10,7 +10,11 @@ import { sessionPool } from './session'
 passport.serializeUser((user, done) => done(null, (user as UserDto).id))
 passport.deserializeUser((id: string, done) => {
   sessionPool()
-    .query<UserDto>('SELECT id, email, name, role FROM users WHERE id = $1 AND is_active', [id])
+    .query<UserDto>({
+      name: 'session-user',
+      text: 'SELECT id, email, name, role FROM users WHERE id = $1 AND is_active',
+      values: [id],
+    })
     .then(
       (result) => done(null, result.rows[0] ?? false),
       (err: unknown) => done(err),

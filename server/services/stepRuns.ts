@@ -9,7 +9,7 @@ import type { CheckDto } from '../../shared/schemas/recipes'
 import { codeFromScan } from '../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../shared/serials'
 import { AppError } from '../errors'
-import { isUniqueViolation, txQuery } from '../db/txSql'
+import { isUniqueViolation, namedSql, txQuery } from '../db/txSql'
 import { db, Nonconformance, StepRun, Unit } from '../models'
 import type { Actor } from './audit'
 import { applyConsumptions, planConsumptions } from './consumptions'
@@ -136,16 +136,21 @@ interface ScanContext {
 
 // The hot path of the Floor runs as plain SQL on the transaction's connection: four round trips
 // (lock, context, write, commit) where the ORM took fifteen. `bench:scan` measures it.
-const LOCK_UNIT = `
+const LOCK_UNIT = namedSql(
+  'scan-lock-unit',
+  `
   SELECT id, serial, lot_id AS "lotId", state, current_step_id AS "currentStepId",
          rework_count AS "reworkCount", rework_until_position AS "reworkUntilPosition",
          finished_at AS "finishedAt", hold_reason AS "holdReason", hold_kind AS "holdKind",
          held_from_state AS "heldFromState"
-    FROM units WHERE serial = $1 FOR UPDATE`
+    FROM units WHERE serial = $1 FOR UPDATE`,
+)
 
 // A statement of its own after the lock, so that under READ COMMITTED it sees whatever the
 // transaction we waited for committed (its step run, its event id).
-const SCAN_CONTEXT = `
+const SCAN_CONTEXT = namedSql(
+  'scan-context',
+  `
   SELECT l.number AS "lotNumber", l.status AS "lotStatus", l.is_on_hold AS "lotIsOnHold",
          l.hold_reason AS "lotHoldReason",
          s.id AS "stationId", s.code AS "stationCode", s.name AS "stationName",
@@ -156,13 +161,14 @@ const SCAN_CONTEXT = `
     FROM lots l
     LEFT JOIN stations s ON s.code = $3
     LEFT JOIN step_runs e ON e.client_event_id = $4
-   WHERE l.id = $6`
+   WHERE l.id = $6`,
+)
 
 /**
  * The one statement that writes a step run: the run, its measurements, the unit's move, the
  * lot's first start, the nonconformance of a fail and the audit row.
  */
-function writeRunSql(isFail: boolean): string {
+function writeRunText(isFail: boolean): string {
   return `
   WITH run AS (
     INSERT INTO step_runs (id, unit_id, step_id, station_id, operator_id, countersigned_by,
@@ -193,6 +199,8 @@ function writeRunSql(isFail: boolean): string {
   }
   SELECT 1`
 }
+const WRITE_PASS = namedSql('scan-write-pass', writeRunText(false))
+const WRITE_FAIL = namedSql('scan-write-fail', writeRunText(true))
 
 async function record(
   input: StepRunInput,
@@ -276,7 +284,7 @@ async function record(
     countersignedBy: second?.email ?? null,
   }
   const ncId = result === 'fail' ? randomUUID() : null
-  await txQuery(transaction, writeRunSql(result === 'fail'), [
+  await txQuery(transaction, result === 'fail' ? WRITE_FAIL : WRITE_PASS, [
     runId,
     unit.id,
     step.id,
