@@ -2,23 +2,25 @@ import passport from 'passport'
 import { Strategy as LocalStrategy } from 'passport-local'
 import type { UserDto } from '../../shared/schemas/auth'
 import { authenticate } from '../services/auth'
+import { cachedUser } from './authCache'
 import { sessionPool } from './session'
 
-// The session stores only the user id; the user is read again on every request, so a role
-// change or a deactivation takes effect at once. Every signed-in request pays for this read,
-// so it is one plain query on the session pool rather than an ORM look-up.
+// The session stores only the user id; the user is read again for every request, so a role
+// change or a deactivation takes effect at once. The read goes through the auth cache, which
+// PostgreSQL's notifications keep in step with every change (authCache.ts).
 passport.serializeUser((user, done) => done(null, (user as UserDto).id))
 passport.deserializeUser((id: string, done) => {
-  sessionPool()
-    .query<UserDto>({
+  cachedUser(id, async () => {
+    const result = await sessionPool().query<UserDto>({
       name: 'session-user',
       text: 'SELECT id, email, name, role FROM users WHERE id = $1 AND is_active',
       values: [id],
     })
-    .then(
-      (result) => done(null, result.rows[0] ?? false),
-      (err: unknown) => done(err),
-    )
+    return result.rows[0] ?? null
+  }).then(
+    (user) => done(null, user ? { ...user } : false),
+    (err: unknown) => done(err),
+  )
 })
 
 passport.use(

@@ -1,9 +1,54 @@
 import connectPgSimple from 'connect-pg-simple'
 import session from 'express-session'
 import pg from 'pg'
+import type { SessionData } from 'express-session'
 import { env, requireSetting } from '../env'
+import { cachedSession, closeAuthCache, forgetSession } from './authCache'
 
 const PgStore = connectPgSimple(session)
+
+type Done = (err?: unknown) => void
+
+/**
+ * The PostgreSQL session store with reads served from the auth cache while it is live (see
+ * authCache.ts); saves and destroys go to the database and forget the cached row.
+ */
+class CachedPgStore extends PgStore {
+  override get(sid: string, done: (err: unknown, session?: SessionData | null) => void): void {
+    const load = () =>
+      new Promise<string | null>((resolve, reject) =>
+        super.get(sid, (err, sess) =>
+          err ? reject(err) : resolve(sess ? JSON.stringify(sess) : null),
+        ),
+      )
+    cachedSession(sid, load, expiresAt).then(
+      (json) => done(null, json ? (JSON.parse(json) as SessionData) : null),
+      (err: unknown) => done(err),
+    )
+  }
+
+  override set(sid: string, sess: SessionData, done?: Done): void {
+    forgetSession(sid)
+    super.set(sid, sess, (err?: unknown) => {
+      forgetSession(sid)
+      done?.(err)
+    })
+  }
+
+  override destroy(sid: string, done?: Done): void {
+    forgetSession(sid)
+    super.destroy(sid, (err?: unknown) => {
+      forgetSession(sid)
+      done?.(err)
+    })
+  }
+}
+
+/** When a cached session row must be read again at the latest: its cookie's expiry. */
+function expiresAt(json: string): number {
+  const expires = (JSON.parse(json) as SessionData).cookie?.expires
+  return expires ? new Date(expires).getTime() : Infinity
+}
 
 /** Eight hours from sign-in: one shift. */
 const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000
@@ -27,7 +72,7 @@ export function sessionMiddleware() {
   return session({
     name: 'waymark.sid',
     secret: requireSetting(env.sessionSecret, 'the session secret'),
-    store: new PgStore({
+    store: new CachedPgStore({
       pool: sessionPool(),
       tableName: 'sessions',
       createTableIfMissing: false,
@@ -51,7 +96,9 @@ export function sessionMiddleware() {
   })
 }
 
+/** Closes the session pool and the auth cache's notification channel. */
 export async function closeSessionPool(): Promise<void> {
+  await closeAuthCache()
   await pool?.end()
   pool = undefined
 }

@@ -2,6 +2,7 @@ import { QueryTypes, UniqueConstraintError } from 'sequelize'
 import type { UserDto } from '../../shared/schemas/auth'
 import type { UserAdminDto, UserCreateInput, UserUpdateInput } from '../../shared/schemas/users'
 import { AppError } from '../errors'
+import { forgetUsers } from '../middleware/authCache'
 import { db, User } from '../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
@@ -73,7 +74,7 @@ export async function updateUser(
       'you cannot deactivate yourself or drop your own admin role',
     )
   const { password, ...fields } = input
-  return db().transaction(async (transaction) => {
+  const updated = await db().transaction(async (transaction) => {
     const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!user) throw AppError.notFound(`user ${id}`)
     const before = toAdminDto(user)
@@ -91,6 +92,9 @@ export async function updateUser(
     if (input.isActive === false || password) await endSessionsOf(id, transaction)
     return after
   })
+  // Other processes hear of it from the users trigger; this one must not wait for that.
+  forgetUsers()
+  return updated
 }
 
 /** Deletes every stored session that belongs to the user. */

@@ -49,30 +49,26 @@ export async function lotUnitTotals(
 ): Promise<Map<string, LotUnitTotals>> {
   if (!lotIds.length) return new Map()
   const rows = await db().query<UnitTotalsRow>(
-    `WITH per_unit AS (
-       SELECT u.lot_id, u.state,
-              count(sr.id) AS runs,
-              count(sr.id) FILTER (WHERE sr.result = 'fail') AS fails,
-              coalesce(bool_and(sr.attempt = 1 AND sr.result = 'pass'), false) AS is_clean,
-              count(DISTINCT sr.step_id) AS steps_run
-         FROM units u LEFT JOIN step_runs sr ON sr.unit_id = u.id
-        WHERE u.lot_id IN (:lotIds)
-        GROUP BY u.id
+    // The per-unit counts are kept by the step_runs trigger (migration 20261202160000): runs at
+    // distinct steps are first attempts; a clean unit has no fail and no attempt after a first.
+    `WITH route AS (
+       SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n
+         FROM lots l WHERE l.id IN (:lotIds)
      )
-     SELECT p.lot_id,
-            count(*) FILTER (WHERE p.runs > 0) AS started,
-            count(*) FILTER (WHERE p.state IN (:finished)) AS finished,
-            count(*) FILTER (WHERE p.state IN (:passed)) AS passed,
-            count(*) FILTER (WHERE p.state = 'scrapped') AS scrapped,
+     SELECT u.lot_id,
+            count(*) FILTER (WHERE u.run_count > 0) AS started,
+            count(*) FILTER (WHERE u.state IN (:finished)) AS finished,
+            count(*) FILTER (WHERE u.state IN (:passed)) AS passed,
+            count(*) FILTER (WHERE u.state = 'scrapped') AS scrapped,
             -- Clean runs at as many steps as the route has: one first-attempt pass at each.
-            count(*) FILTER (WHERE p.state IN (:passed) AND p.is_clean AND p.steps_run = rs.n)
+            count(*) FILTER (WHERE u.state IN (:passed) AND u.run_count > 0
+                               AND u.fail_count = 0 AND u.run_count = u.first_attempt_count
+                               AND u.first_attempt_count = route.n)
               AS first_pass,
-            coalesce(sum(p.fails), 0) AS defects
-       FROM per_unit p
-       JOIN lots l ON l.id = p.lot_id
-       JOIN LATERAL (SELECT count(*) AS n FROM route_steps WHERE revision_id = l.revision_id) rs
-         ON true
-      GROUP BY p.lot_id, rs.n`,
+            coalesce(sum(u.fail_count), 0) AS defects
+       FROM units u JOIN route ON route.id = u.lot_id
+      WHERE u.lot_id IN (:lotIds)
+      GROUP BY u.lot_id, route.n`,
     { replacements: { lotIds, ...STATES }, type: QueryTypes.SELECT },
   )
   return new Map(
@@ -165,9 +161,9 @@ export async function lotsRunInPeriod(filter: {
   revisionId?: string
 }): Promise<PeriodLot[]> {
   const where = [
-    `l.id IN (SELECT DISTINCT u.lot_id FROM step_runs sr JOIN units u ON u.id = sr.unit_id
-               WHERE sr.finished_at >= CAST(:from AS date)
-                 AND sr.finished_at < CAST(:to AS date) + 1)`,
+    // lot_run_days is kept by a trigger on step_runs: one row per lot and UTC day with a run.
+    `l.id IN (SELECT lot_id FROM lot_run_days
+               WHERE day BETWEEN CAST(:from AS date) AND CAST(:to AS date))`,
   ]
   if (filter.productId) where.push('r.product_id = :productId')
   if (filter.revisionId) where.push('r.id = :revisionId')
@@ -187,7 +183,11 @@ export async function lotFieldReturns(lotIds: readonly string[]): Promise<Map<st
   if (!lotIds.length) return new Map()
   // service_cases_unit_idx and units_lot_idx serve the join; one row per lot comes back.
   const rows = await db().query<{ lot_id: string; n: string }>(
-    `SELECT u.lot_id, count(*) AS n
+    `WITH route AS (
+       SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n
+         FROM lots l WHERE l.id IN (:lotIds)
+     )
+     SELECT u.lot_id, count(*) AS n
        FROM service_cases sc JOIN units u ON u.id = sc.unit_id
       WHERE u.lot_id IN (:lotIds)
       GROUP BY u.lot_id`,
