@@ -20,7 +20,12 @@ const NO_UNITS: LotUnitTotals = {
   scrapped: 0,
   firstPass: 0,
   defects: 0,
+  runs: 0,
 }
+
+/** Each lot's step-run count, which `lotStepTotals` checks its kept figures against. */
+const runsOf = (units: ReadonlyMap<string, LotUnitTotals>) =>
+  new Map([...units].map(([id, u]) => [id, u.runs]))
 
 const perUnit = (num: number, den: number) => (den === 0 ? null : num / den)
 
@@ -60,7 +65,8 @@ function stepWip(steps: readonly LotStepTotals[]): StepWipDto[] {
 export async function getLotYield(lotId: string): Promise<LotYieldDto> {
   const lot = await Lot.findByPk(lotId, { attributes: ['id'] })
   if (!lot) throw AppError.notFound(`lot ${lotId}`)
-  const [units, steps] = await Promise.all([lotUnitTotals([lotId]), lotStepTotals([lotId])])
+  const units = await lotUnitTotals([lotId])
+  const steps = await lotStepTotals([lotId], runsOf(units))
   const u = units.get(lotId) ?? NO_UNITS
   const lotSteps = steps.get(lotId) ?? []
   return {
@@ -135,11 +141,9 @@ function sortLots(rows: YieldLotRowDto[], query: YieldSummaryQuery): YieldLotRow
 export async function summarizeYield(query: YieldSummaryQuery): Promise<YieldSummaryDto> {
   const lots = await lotsRunInPeriod(query)
   const ids = lots.map((l) => l.lotId)
-  const [units, steps, returns] = await Promise.all([
-    lotUnitTotals(ids),
-    lotStepTotals(ids),
-    lotFieldReturns(ids),
-  ])
+  // The unit totals first: their run counts tell which lots' kept step figures still hold.
+  const [units, returns] = await Promise.all([lotUnitTotals(ids), lotFieldReturns(ids)])
+  const steps = await lotStepTotals(ids, runsOf(units))
   const total = { ...NO_UNITS }
   const rows = lots.map((lot) => {
     const u = units.get(lot.lotId) ?? NO_UNITS

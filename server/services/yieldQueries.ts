@@ -17,6 +17,8 @@ export interface LotUnitTotals {
   firstPass: number
   /** Failed step runs. */
   defects: number
+  /** Step runs of any result: what a kept lot_step_yields row must have been computed from. */
+  runs: number
 }
 
 /** One route step of a lot: first attempts, first-attempt passes and units there now. */
@@ -41,6 +43,7 @@ interface UnitTotalsRow {
   scrapped: string
   first_pass: string
   defects: string
+  runs: string
 }
 
 /** Unit counts per lot, keyed by lot id; a lot without units gets no entry. */
@@ -51,7 +54,9 @@ export async function lotUnitTotals(
   const rows = await db().query<UnitTotalsRow>(
     // The per-unit counts are kept by the step_runs trigger (migration 20261202160000): runs at
     // distinct steps are first attempts; a clean unit has no fail and no attempt after a first.
-    `WITH route AS (
+    // MATERIALIZED: inlined, the route's step count became a sub-query per unit (67 ms → 14 ms
+    // for the 30-day board in scripts/bench/yield.ts).
+    `WITH route AS MATERIALIZED (
        SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n
          FROM lots l WHERE l.id IN (:lotIds)
      )
@@ -65,7 +70,8 @@ export async function lotUnitTotals(
                                AND u.fail_count = 0 AND u.run_count = u.first_attempt_count
                                AND u.first_attempt_count = route.n)
               AS first_pass,
-            coalesce(sum(u.fail_count), 0) AS defects
+            coalesce(sum(u.fail_count), 0) AS defects,
+            coalesce(sum(u.run_count), 0) AS runs
        FROM units u JOIN route ON route.id = u.lot_id
       WHERE u.lot_id IN (:lotIds)
       GROUP BY u.lot_id, route.n`,
@@ -81,6 +87,7 @@ export async function lotUnitTotals(
         scrapped: Number(r.scrapped),
         firstPass: Number(r.first_pass),
         defects: Number(r.defects),
+        runs: Number(r.runs),
       },
     ]),
   )
@@ -95,26 +102,53 @@ interface StepRow {
   station_kind: StationKind
   first_attempts: string | null
   passed_first: string | null
+  runs: string | null
   wip: string | null
 }
 
-/** Every route step of each lot, in route order, keyed by lot id. */
+const NO_LOT = '00000000-0000-0000-0000-000000000000'
+/** An IN list that may be empty (SQL has no empty IN list). */
+const orNone = (ids: readonly string[]) => (ids.length ? ids : [NO_LOT])
+
+/**
+ * Every route step of each lot, in route order, keyed by lot id. Given each lot's step-run count
+ * (from `lotUnitTotals`), a lot whose kept lot_step_yields rows were computed from that many runs
+ * is read from them; the others are counted from their step runs, and those with no unit left in
+ * work are kept for next time.
+ */
 export async function lotStepTotals(
   lotIds: readonly string[],
+  runsByLot?: ReadonlyMap<string, number>,
 ): Promise<Map<string, LotStepTotals[]>> {
   const byLot = new Map<string, LotStepTotals[]>(lotIds.map((id) => [id, []]))
   if (!lotIds.length) return byLot
+  const kept = runsByLot
+    ? (
+        await db().query<{ lot_id: string; runs: number }>(
+          'SELECT DISTINCT lot_id, runs FROM lot_step_yields WHERE lot_id IN (:lotIds)',
+          { replacements: { lotIds }, type: QueryTypes.SELECT },
+        )
+      )
+        .filter((k) => runsByLot.get(k.lot_id) === k.runs)
+        .map((k) => k.lot_id)
+    : []
+  const keptSet = new Set(kept)
+  const counted = lotIds.filter((id) => !keptSet.has(id))
   const rows = await db().query<StepRow>(
     `SELECT l.id AS lot_id, rs.revision_id, rs.id AS step_id, rs.name, rs.position, rs.station_kind,
-            a.first_attempts, a.passed_first, w.wip
+            a.first_attempts, a.passed_first, a.runs, w.wip
        FROM lots l
        JOIN route_steps rs ON rs.revision_id = l.revision_id
        LEFT JOIN (
+         SELECT lot_id, step_id, first_attempts, passed_first, runs
+           FROM lot_step_yields WHERE lot_id IN (:kept)
+         UNION ALL
          SELECT u.lot_id, sr.step_id,
                 count(*) FILTER (WHERE sr.attempt = 1) AS first_attempts,
-                count(*) FILTER (WHERE sr.attempt = 1 AND sr.result = 'pass') AS passed_first
+                count(*) FILTER (WHERE sr.attempt = 1 AND sr.result = 'pass') AS passed_first,
+                count(*) AS runs
            FROM units u JOIN step_runs sr ON sr.unit_id = u.id
-          WHERE u.lot_id IN (:lotIds)
+          WHERE u.lot_id IN (:counted)
           GROUP BY u.lot_id, sr.step_id
        ) a ON a.lot_id = l.id AND a.step_id = rs.id
        LEFT JOIN (
@@ -125,8 +159,12 @@ export async function lotStepTotals(
        ) w ON w.lot_id = l.id AND w.current_step_id = rs.id
       WHERE l.id IN (:lotIds)
       ORDER BY l.id, rs.position`,
-    { replacements: { lotIds, open: STATES.open }, type: QueryTypes.SELECT },
+    {
+      replacements: { lotIds, kept: orNone(kept), counted: orNone(counted), open: STATES.open },
+      type: QueryTypes.SELECT,
+    },
   )
+  const runsCounted = new Map<string, number>()
   for (const r of rows) {
     byLot.get(r.lot_id)?.push({
       revisionId: r.revision_id,
@@ -138,8 +176,46 @@ export async function lotStepTotals(
       passedFirst: Number(r.passed_first ?? 0),
       wip: Number(r.wip ?? 0),
     })
+    if (!keptSet.has(r.lot_id))
+      runsCounted.set(r.lot_id, (runsCounted.get(r.lot_id) ?? 0) + Number(r.runs ?? 0))
   }
+  await keepSettledLots(byLot, runsCounted)
   return byLot
+}
+
+/**
+ * Keeps the step figures of counted lots that have runs and no unit in work, where they are
+ * most likely to stay as they are. Two readers keeping the same lot write the same rows.
+ */
+async function keepSettledLots(
+  byLot: ReadonlyMap<string, LotStepTotals[]>,
+  runsCounted: ReadonlyMap<string, number>,
+): Promise<void> {
+  const rows: { lotId: string; stepId: string; first: number; passed: number; runs: number }[] = []
+  for (const [lotId, runs] of runsCounted) {
+    const steps = byLot.get(lotId) ?? []
+    if (runs === 0 || steps.some((s) => s.wip > 0)) continue
+    for (const s of steps)
+      rows.push({ lotId, stepId: s.stepId, first: s.firstAttempts, passed: s.passedFirst, runs })
+  }
+  if (!rows.length) return
+  await db().query(
+    `INSERT INTO lot_step_yields (lot_id, step_id, first_attempts, passed_first, runs)
+     SELECT * FROM unnest(CAST(:lotIds AS uuid[]), CAST(:stepIds AS uuid[]),
+                          CAST(:firsts AS int[]), CAST(:passes AS int[]), CAST(:runs AS int[]))
+     ON CONFLICT (lot_id, step_id) DO UPDATE
+       SET first_attempts = EXCLUDED.first_attempts, passed_first = EXCLUDED.passed_first,
+           runs = EXCLUDED.runs`,
+    {
+      replacements: {
+        lotIds: `{${rows.map((r) => r.lotId).join(',')}}`,
+        stepIds: `{${rows.map((r) => r.stepId).join(',')}}`,
+        firsts: `{${rows.map((r) => r.first).join(',')}}`,
+        passes: `{${rows.map((r) => r.passed).join(',')}}`,
+        runs: `{${rows.map((r) => r.runs).join(',')}}`,
+      },
+    },
+  )
 }
 
 /** A lot of the board's table, with the names its row shows. */
@@ -183,11 +259,7 @@ export async function lotFieldReturns(lotIds: readonly string[]): Promise<Map<st
   if (!lotIds.length) return new Map()
   // service_cases_unit_idx and units_lot_idx serve the join; one row per lot comes back.
   const rows = await db().query<{ lot_id: string; n: string }>(
-    `WITH route AS (
-       SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n
-         FROM lots l WHERE l.id IN (:lotIds)
-     )
-     SELECT u.lot_id, count(*) AS n
+    `SELECT u.lot_id, count(*) AS n
        FROM service_cases sc JOIN units u ON u.id = sc.unit_id
       WHERE u.lot_id IN (:lotIds)
       GROUP BY u.lot_id`,
