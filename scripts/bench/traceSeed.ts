@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto'
 import type pg from 'pg'
 import { mod3736CheckCharacter } from '../../shared/checkCharacter'
 import { formatSerial } from '../../shared/serials'
+import { REBUILD_YIELD_ROLLUPS } from '../../server/db/yieldRollups'
 
 export interface TraceBenchData {
   serials: string[]
@@ -84,6 +85,8 @@ export async function seedTraceHistory(
      FROM bench_units bu CROSS JOIN route_steps rs WHERE rs.revision_id = $1`,
     [rev.id, operator!.id],
   )
+  // Inserted in bulk, not by the scan: count the Yield board's rollups as the scan keeps them.
+  for (const sql of REBUILD_YIELD_ROLLUPS) await q(sql)
   await q(
     `INSERT INTO measurements (step_run_id, check_id, value_number, value_text, value_boolean,
        is_derived, is_pass)

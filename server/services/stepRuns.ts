@@ -165,7 +165,8 @@ const SCAN_CONTEXT = namedSql(
 )
 
 /**
- * The one statement that writes a step run: the run, its measurements, the unit's move, the
+ * The one statement that writes a step run: the run, its measurements, the unit's move with its
+ * run counters, the lot's day with a run (both read by the Yield board, yieldQueries.ts), the
  * lot's first start, the nonconformance of a fail and the audit row.
  */
 function writeRunText(isFail: boolean): string {
@@ -181,8 +182,14 @@ function writeRunText(isFail: boolean): string {
   ), moved AS (
     UPDATE units SET state = $19, current_step_id = $20, rework_until_position = $21,
                      finished_at = $22, hold_kind = $23, held_from_state = $24,
-                     hold_reason = $25, updated_at = $12
+                     hold_reason = $25, updated_at = $12,
+                     run_count = run_count + 1,
+                     fail_count = fail_count + ${isFail ? 1 : 0},
+                     first_attempt_count = first_attempt_count + CASE WHEN $7 = 1 THEN 1 ELSE 0 END
      WHERE id = $2
+  ), dated AS (
+    INSERT INTO lot_run_days (lot_id, day) VALUES ($26, ($12 AT TIME ZONE 'UTC')::date)
+    ON CONFLICT DO NOTHING
   ), started AS (
     UPDATE lots SET status = 'in_progress', updated_at = $12 WHERE id = $26 AND status = 'released'
   ), audited AS (

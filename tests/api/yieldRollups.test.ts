@@ -81,3 +81,37 @@ describe('kept step figures of settled lots', () => {
     expect((await kept(lotId)).every((r) => r.runs === runs)).toBe(true)
   })
 })
+
+// The scan statement keeps units' run counters and lot_run_days as it writes each step run; the
+// demo's lots (with fails, reworks and scraps) and every test's scans must leave them agreeing
+// with the step runs themselves.
+describe('yield rollups', () => {
+  it('match a recount of the step runs for every unit and lot day', async () => {
+    const [units] = await db().query<{ off: string; runs: string }>(
+      `SELECT count(*) FILTER (WHERE u.run_count <> coalesce(c.runs, 0)
+                                 OR u.fail_count <> coalesce(c.fails, 0)
+                                 OR u.first_attempt_count <> coalesce(c.firsts, 0)) AS off,
+              coalesce(sum(c.runs), 0) AS runs
+         FROM units u
+         LEFT JOIN (SELECT unit_id, count(*) AS runs,
+                           count(*) FILTER (WHERE result = 'fail') AS fails,
+                           count(*) FILTER (WHERE attempt = 1) AS firsts
+                      FROM step_runs GROUP BY unit_id) c ON c.unit_id = u.id`,
+      { type: QueryTypes.SELECT },
+    )
+    expect(Number(units!.runs)).toBeGreaterThan(100)
+    expect(Number(units!.off)).toBe(0)
+    const [days] = await db().query<{ missing: string; extra: string }>(
+      `WITH actual AS (
+         SELECT DISTINCT u.lot_id, (r.finished_at AT TIME ZONE 'UTC')::date AS day
+           FROM step_runs r JOIN units u ON u.id = r.unit_id
+       )
+       SELECT (SELECT count(*) FROM (SELECT * FROM actual EXCEPT
+                                     SELECT lot_id, day FROM lot_run_days) m) AS missing,
+              (SELECT count(*) FROM (SELECT lot_id, day FROM lot_run_days EXCEPT
+                                     SELECT * FROM actual) e) AS extra`,
+      { type: QueryTypes.SELECT },
+    )
+    expect(days).toEqual({ missing: '0', extra: '0' })
+  })
+})
