@@ -21,11 +21,11 @@ const NO_UNITS: LotUnitTotals = {
   firstPass: 0,
   defects: 0,
   runs: 0,
+  isKeptCurrent: false,
 }
 
-/** Each lot's step-run count, which `lotStepTotals` checks its kept figures against. */
-const runsOf = (units: ReadonlyMap<string, LotUnitTotals>) =>
-  new Map([...units].map(([id, u]) => [id, u.runs]))
+/** The unit totals that add up over the period's lots. */
+const SUMMED = ['started', 'finished', 'passed', 'scrapped', 'firstPass', 'defects'] as const
 
 const perUnit = (num: number, den: number) => (den === 0 ? null : num / den)
 
@@ -66,7 +66,7 @@ export async function getLotYield(lotId: string): Promise<LotYieldDto> {
   const lot = await Lot.findByPk(lotId, { attributes: ['id'] })
   if (!lot) throw AppError.notFound(`lot ${lotId}`)
   const units = await lotUnitTotals([lotId])
-  const steps = await lotStepTotals([lotId], runsOf(units))
+  const steps = await lotStepTotals([lotId], units)
   const u = units.get(lotId) ?? NO_UNITS
   const lotSteps = steps.get(lotId) ?? []
   return {
@@ -141,13 +141,13 @@ function sortLots(rows: YieldLotRowDto[], query: YieldSummaryQuery): YieldLotRow
 export async function summarizeYield(query: YieldSummaryQuery): Promise<YieldSummaryDto> {
   const lots = await lotsRunInPeriod(query)
   const ids = lots.map((l) => l.lotId)
-  // The unit totals first: their run counts tell which lots' kept step figures still hold.
+  // The unit totals first: they tell which lots' kept step figures still hold.
   const [units, returns] = await Promise.all([lotUnitTotals(ids), lotFieldReturns(ids)])
-  const steps = await lotStepTotals(ids, runsOf(units))
+  const steps = await lotStepTotals(ids, units)
   const total = { ...NO_UNITS }
   const rows = lots.map((lot) => {
     const u = units.get(lot.lotId) ?? NO_UNITS
-    for (const k of Object.keys(total) as (keyof LotUnitTotals)[]) total[k] += u[k]
+    for (const k of SUMMED) total[k] += u[k]
     const lotSteps = steps.get(lot.lotId) ?? []
     return {
       ...lot,

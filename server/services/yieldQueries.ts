@@ -19,6 +19,8 @@ export interface LotUnitTotals {
   defects: number
   /** Step runs of any result: what a kept lot_step_yields row must have been computed from. */
   runs: number
+  /** Whether the lot's kept lot_step_yields rows were computed from exactly these `runs`. */
+  isKeptCurrent: boolean
 }
 
 /** One route step of a lot: first attempts, first-attempt passes and units there now. */
@@ -44,6 +46,7 @@ interface UnitTotalsRow {
   first_pass: string
   defects: string
   runs: string
+  kept_runs: number | null
 }
 
 /** Unit counts per lot, keyed by lot id; a lot without units gets no entry. */
@@ -52,15 +55,16 @@ export async function lotUnitTotals(
 ): Promise<Map<string, LotUnitTotals>> {
   if (!lotIds.length) return new Map()
   const rows = await db().query<UnitTotalsRow>(
-    // The per-unit counts are kept by the step_runs trigger (migration 20261202160000): runs at
-    // distinct steps are first attempts; a clean unit has no fail and no attempt after a first.
+    // The per-unit counts are kept by the scan's statement (stepRuns.ts): runs at distinct steps
+    // are first attempts; a clean unit has no fail and no attempt after a first.
     // MATERIALIZED: inlined, the route's step count became a sub-query per unit (67 ms → 14 ms
     // for the 30-day board in scripts/bench/yield.ts).
     `WITH route AS MATERIALIZED (
-       SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n
+       SELECT l.id, (SELECT count(*) FROM route_steps WHERE revision_id = l.revision_id) AS n,
+              (SELECT max(runs) FROM lot_step_yields y WHERE y.lot_id = l.id) AS kept_runs
          FROM lots l WHERE l.id IN (:lotIds)
      )
-     SELECT u.lot_id,
+     SELECT u.lot_id, route.kept_runs,
             count(*) FILTER (WHERE u.run_count > 0) AS started,
             count(*) FILTER (WHERE u.state IN (:finished)) AS finished,
             count(*) FILTER (WHERE u.state IN (:passed)) AS passed,
@@ -74,7 +78,7 @@ export async function lotUnitTotals(
             coalesce(sum(u.run_count), 0) AS runs
        FROM units u JOIN route ON route.id = u.lot_id
       WHERE u.lot_id IN (:lotIds)
-      GROUP BY u.lot_id, route.n`,
+      GROUP BY u.lot_id, route.n, route.kept_runs`,
     { replacements: { lotIds, ...STATES }, type: QueryTypes.SELECT },
   )
   return new Map(
@@ -88,6 +92,7 @@ export async function lotUnitTotals(
         firstPass: Number(r.first_pass),
         defects: Number(r.defects),
         runs: Number(r.runs),
+        isKeptCurrent: r.kept_runs !== null && r.kept_runs === Number(r.runs),
       },
     ]),
   )
@@ -111,27 +116,18 @@ const NO_LOT = '00000000-0000-0000-0000-000000000000'
 const orNone = (ids: readonly string[]) => (ids.length ? ids : [NO_LOT])
 
 /**
- * Every route step of each lot, in route order, keyed by lot id. Given each lot's step-run count
- * (from `lotUnitTotals`), a lot whose kept lot_step_yields rows were computed from that many runs
- * is read from them; the others are counted from their step runs, and those with no unit left in
- * work are kept for next time.
+ * Every route step of each lot, in route order, keyed by lot id. Given the lots' unit totals, a
+ * lot whose kept lot_step_yields rows were computed from its present step-run count is read from
+ * them; the others are counted from their step runs, and those with no unit left in work are
+ * kept for next time.
  */
 export async function lotStepTotals(
   lotIds: readonly string[],
-  runsByLot?: ReadonlyMap<string, number>,
+  units?: ReadonlyMap<string, LotUnitTotals>,
 ): Promise<Map<string, LotStepTotals[]>> {
   const byLot = new Map<string, LotStepTotals[]>(lotIds.map((id) => [id, []]))
   if (!lotIds.length) return byLot
-  const kept = runsByLot
-    ? (
-        await db().query<{ lot_id: string; runs: number }>(
-          'SELECT DISTINCT lot_id, runs FROM lot_step_yields WHERE lot_id IN (:lotIds)',
-          { replacements: { lotIds }, type: QueryTypes.SELECT },
-        )
-      )
-        .filter((k) => runsByLot.get(k.lot_id) === k.runs)
-        .map((k) => k.lot_id)
-    : []
+  const kept = lotIds.filter((id) => units?.get(id)?.isKeptCurrent)
   const keptSet = new Set(kept)
   const counted = lotIds.filter((id) => !keptSet.has(id))
   const rows = await db().query<StepRow>(
@@ -237,7 +233,7 @@ export async function lotsRunInPeriod(filter: {
   revisionId?: string
 }): Promise<PeriodLot[]> {
   const where = [
-    // lot_run_days is kept by a trigger on step_runs: one row per lot and UTC day with a run.
+    // lot_run_days is kept by the scan's statement: one row per lot and UTC day with a run.
     `l.id IN (SELECT lot_id FROM lot_run_days
                WHERE day BETWEEN CAST(:from AS date) AND CAST(:to AS date))`,
   ]
