@@ -63,12 +63,14 @@ function stepWip(steps: readonly LotStepTotals[]): StepWipDto[] {
 
 /** One lot's step FPYs, RTY, lot FPY, final yield, DPU, unit counts and WIP per step. */
 export async function getLotYield(lotId: string): Promise<LotYieldDto> {
-  const lot = await Lot.findByPk(lotId, { attributes: ['id'] })
-  if (!lot) throw AppError.notFound(`lot ${lotId}`)
   const units = await lotUnitTotals([lotId])
   const steps = await lotStepTotals([lotId], units)
   const u = units.get(lotId) ?? NO_UNITS
   const lotSteps = steps.get(lotId) ?? []
+  // Every lot has a released revision with at least one step, so no step row means no such lot;
+  // asked only then, which spares the common case a round trip.
+  if (!lotSteps.length && !(await Lot.findByPk(lotId, { attributes: ['id'] })))
+    throw AppError.notFound(`lot ${lotId}`)
   return {
     lotId,
     ...stepYields(lotSteps),
