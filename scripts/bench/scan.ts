@@ -3,12 +3,11 @@
 import { randomUUID } from 'node:crypto'
 import { readdirSync, readFileSync, writeFileSync } from 'node:fs'
 import inspector from 'node:inspector/promises'
-import type { Server } from 'node:http'
-import type { AddressInfo } from 'node:net'
 import { parseArgs } from 'node:util'
 import autocannon from 'autocannon'
 import express from 'express'
 import pg from 'pg'
+import { listenOnLoopback, percentile, signIn } from './lib'
 
 process.env.WAYMARK_DB ??= 'waymark_bench_test'
 process.env.NODE_ENV ??= 'test'
@@ -159,13 +158,8 @@ bare.post('/insert', async (req, res) => {
   ])
   res.status(201).json({ ok: true })
 })
-function listen(handler: express.Express): Promise<Server> {
-  return new Promise((resolve) => {
-    const s = handler.listen(0, '127.0.0.1', () => resolve(s))
-  })
-}
-const bareServer = await listen(bare)
-const bareUrl = `http://127.0.0.1:${(bareServer.address() as AddressInfo).port}/insert`
+const { server: bareServer, base: bareBase } = await listenOnLoopback(bare)
+const bareUrl = `${bareBase}/insert`
 const bareBody = () => JSON.stringify({ serial: 'X' })
 const baseline = await measure(bareUrl, bareBody, {}, { amount: REQUESTS })
 const perSecond = (r: Result) => r.times.length / r.seconds
@@ -176,26 +170,8 @@ const baselinePaced = await paced(() =>
   run(bareUrl, bareBody, {}, { amount: PACED, rate: pacedRate }),
 )
 
-const app = buildApp()
-const server = await listen(app)
-const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
-const csrf1 = await fetch(`${base}/api/auth/csrf`)
-let cookie = csrf1.headers.get('set-cookie')!.split(';')[0]!
-const login = await fetch(`${base}/api/auth/login`, {
-  method: 'POST',
-  headers: {
-    'content-type': 'application/json',
-    cookie,
-    'x-csrf-token': ((await csrf1.json()) as { csrfToken: string }).csrfToken,
-  },
-  body: JSON.stringify({ email: 'operator@ferncastle.example', password: 'waymark-demo' }),
-})
-cookie = login.headers.get('set-cookie')!.split(';')[0]!
-const token = (
-  (await (await fetch(`${base}/api/auth/csrf`, { headers: { cookie } })).json()) as {
-    csrfToken: string
-  }
-).csrfToken
+const { server, base } = await listenOnLoopback(buildApp())
+const { cookie, token } = await signIn(base, 'operator@ferncastle.example')
 // What every signed-in request costs before any route work: session, user, CSRF, logging.
 const signedIn = await measure(`${base}/api/auth/me`, null, { cookie }, { amount: REQUESTS })
 
@@ -227,9 +203,6 @@ const scanPaced = await paced(() =>
   run(scanUrl, scanBody, scanHeaders, { amount: PACED, rate: pacedRate }),
 )
 
-function percentile(sorted: number[], p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
-}
 const p95 = (r: Result) =>
   percentile(
     [...r.times].sort((a, b) => a - b),

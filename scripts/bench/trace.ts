@@ -1,8 +1,8 @@
 // Benchmark of Trace: `npx tsx scripts/bench/trace.ts [--lots 40] [--lot-size 500] [--samples 300]`.
 // Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench_test).
-import type { AddressInfo } from 'node:net'
 import { parseArgs } from 'node:util'
 import pg from 'pg'
+import { listenOnLoopback, percentile, signIn } from './lib'
 
 process.env.WAYMARK_DB ??= 'waymark_bench_test'
 process.env.NODE_ENV ??= 'test'
@@ -63,23 +63,8 @@ console.log(
     `${counts!.step_runs} step runs, ${counts!.measurements} measurements, ${counts!.consumptions} consumptions`,
 )
 
-const app = buildApp()
-const server = app.listen(0, '127.0.0.1')
-await new Promise((resolve) => server.once('listening', resolve))
-const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
-const csrf = await fetch(`${base}/api/auth/csrf`)
-let cookie = csrf.headers.get('set-cookie')!.split(';')[0]!
-const login = await fetch(`${base}/api/auth/login`, {
-  method: 'POST',
-  headers: {
-    'content-type': 'application/json',
-    cookie,
-    'x-csrf-token': ((await csrf.json()) as { csrfToken: string }).csrfToken,
-  },
-  body: JSON.stringify({ email: 'service@ferncastle.example', password: 'waymark-demo' }),
-})
-if (!login.ok) throw new Error(`sign-in failed: ${login.status}`)
-cookie = login.headers.get('set-cookie')!.split(';')[0]!
+const { server, base } = await listenOnLoopback(buildApp())
+const { cookie } = await signIn(base, 'service@ferncastle.example')
 
 const pool = new pg.Pool({ connectionString: env.databaseUrl, max: 4 })
 
@@ -114,9 +99,6 @@ const scope = (await (
   await fetch(`${base}/api/trace/component-lots/${data.hotLotCode}`, { headers: { cookie } })
 ).json()) as { counts: { total: number } }
 
-function percentile(sorted: number[], p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
-}
 const line = (name: string, t: number[]) => {
   const ms = (p: number) => `${percentile(t, p).toFixed(1)} ms`.padStart(9)
   return `${name.padEnd(44)} n=${String(t.length).padEnd(4)} p50 ${ms(50)}   p95 ${ms(95)}   p99 ${ms(99)}`

@@ -1,11 +1,10 @@
 // Benchmark of the Yield board's endpoints: `npx tsx scripts/bench/yield.ts [--lots 200]
 // [--units-per-lot 500] [--requests 40]`. Run it after `npm test` has started the services.
 import http from 'node:http'
-import type { Server } from 'node:http'
-import type { AddressInfo } from 'node:net'
 import { performance } from 'node:perf_hooks'
 import { parseArgs } from 'node:util'
 import pg from 'pg'
+import { listenOnLoopback, percentile, signIn } from './lib'
 
 process.env.WAYMARK_DB ??= 'waymark_bench_test'
 process.env.NODE_ENV ??= 'test'
@@ -65,24 +64,8 @@ console.log(
   `${args.keep ? 'kept' : 'seeded'} ${seed.lots} lots, ${seed.units} units, ${seed.stepRuns} step runs, ${seed.measurements} measurements in ${((performance.now() - seedStart) / 1000).toFixed(0)} s`,
 )
 
-const app = buildApp()
-const server = await new Promise<Server>((resolve) => {
-  const s = app.listen(0, '127.0.0.1', () => resolve(s))
-})
-const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
-const csrf = await fetch(`${base}/api/auth/csrf`)
-let cookie = csrf.headers.get('set-cookie')!.split(';')[0]!
-const login = await fetch(`${base}/api/auth/login`, {
-  method: 'POST',
-  headers: {
-    'content-type': 'application/json',
-    cookie,
-    'x-csrf-token': ((await csrf.json()) as { csrfToken: string }).csrfToken,
-  },
-  body: JSON.stringify({ email: 'lead@ferncastle.example', password: 'waymark-demo' }),
-})
-if (login.status !== 200) throw new Error(`sign-in failed: ${login.status}`)
-cookie = login.headers.get('set-cookie')!.split(';')[0]!
+const { server, base } = await listenOnLoopback(buildApp())
+const { cookie } = await signIn(base, 'lead@ferncastle.example')
 
 // The SQL each endpoint runs, captured from Sequelize's log during one call (with the
 // replacements already inlined), so the raw run below executes exactly the same statements.
@@ -119,9 +102,6 @@ async function raw(statements: readonly string[]): Promise<number> {
   return performance.now() - t
 }
 
-function percentile(sorted: number[], p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? NaN
-}
 async function timed(run: () => Promise<number>): Promise<{ p50: number; p95: number }> {
   for (let i = 0; i < 3; i++) await run() // warm caches and plans
   const times: number[] = []
