@@ -12,7 +12,7 @@ import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../workers/documents'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
-import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
+import { runMixedLot } from './support/floor'
 import type { TestLot } from './support/floor'
 
 const today = new Date().toISOString().slice(0, 10)
@@ -56,38 +56,11 @@ describe('lot report and exports', () => {
     ;[engineer, lead, stores, operator] = await Promise.all(
       ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
     )
-    const codes = (await operator.get('/api/defect-codes').expect(200)).body as {
-      id: string
-      code: string
-    }[]
-    const defect = (code: string) => codes.find((d) => d.code === code)!.id
-    t = await releasedTestLot({ engineer, lead, stores }, 5)
+    // The same small lot as tests/api/yield.test.ts (runMixedLot): units 1 and 2 clean; unit 3
+    // fails the load test, is reworked to Winding and passes; unit 4 reads 40 mH at winding and
+    // is scrapped; unit 5 waits at the load test.
+    t = (await runMixedLot({ engineer, lead, stores, operator })).t
     serials = t.units.map((u) => u.serial)
-    const [u1, u2, u3, u4, u5] = serials as [string, string, string, string, string]
-    const run = (body: object) => operator.post('/api/step-runs', body).expect(201)
-    const dispose = (nc: string, body: object) =>
-      lead.post(`/api/nonconformances/${nc}/disposition`, body).expect(200)
-    // The same small lot as tests/api/yield.test.ts: units 1 and 2 clean; unit 3 fails the load
-    // test, is reworked to Winding and passes; unit 4 reads 40 mH at winding and is scrapped;
-    // unit 5 waits at the load test.
-    for (const s of [u1, u2]) {
-      await run(windingRun(t, s))
-      await run(loadTestRun(s, 350))
-    }
-    await run(windingRun(t, u3))
-    const low = await run(loadTestRun(u3, 340, { defectCodeId: defect('L-VOUT') }))
-    await dispose(low.body.nonconformanceId, {
-      disposition: 'rework',
-      reworkToStepId: t.rev.steps[0]!.id,
-      reason: 'rewind secondary',
-    })
-    await run(windingRun(t, u3))
-    await run(loadTestRun(u3, 350))
-    const turns = await run(
-      windingRun(t, u4, { values: { l_sec: 40 }, defectCodeId: defect('W-TURNS') }),
-    )
-    await dispose(turns.body.nonconformanceId, { disposition: 'scrap', reason: 'core cracked' })
-    await run(windingRun(t, u5))
 
     connection = newQueueConnection()
     documents = startDocumentsWorker(connection)

@@ -9,7 +9,7 @@ import type { LotYieldDto, YieldSummaryDto } from '../../shared/schemas/yield'
 import { db } from '../../server/models'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
-import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
+import { releasedTestLot, runMixedLot } from './support/floor'
 import type { TestLot } from './support/floor'
 
 const day = (offset: number) =>
@@ -27,46 +27,14 @@ describe('yield figures', () => {
     ;[engineer, lead, stores, operator] = await Promise.all(
       ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
     )
-    const codes = (await operator.get('/api/defect-codes').expect(200)).body as {
-      id: string
-      code: string
-    }[]
-    const defect = (code: string) => codes.find((d) => d.code === code)!.id
-    t = await releasedTestLot({ engineer, lead, stores }, 5)
-    const [u1, u2, u3, u4, u5] = t.units.map((u) => u.serial) as [
-      string,
-      string,
-      string,
-      string,
-      string,
-    ]
-    const run = (body: object) => operator.post('/api/step-runs', body).expect(201)
-    const dispose = (nc: string, body: object) =>
-      lead.post(`/api/nonconformances/${nc}/disposition`, body).expect(200)
-
-    // Units 1 and 2 pass both steps at the first attempt.
-    for (const s of [u1, u2]) {
-      await run(windingRun(t, s))
-      await run(loadTestRun(s, 350))
-    }
-    // Unit 3 fails the load test, is reworked back to Winding and passes both at attempt 2.
-    await run(windingRun(t, u3))
-    const lowVout = await run(loadTestRun(u3, 340, { defectCodeId: defect('L-VOUT') }))
-    await dispose(lowVout.body.nonconformanceId, {
-      disposition: 'rework',
-      reworkToStepId: t.rev.steps[0]!.id,
-      reason: 'rewind secondary',
+    // Units 1 and 2 pass both steps at the first attempt; unit 3 is reworked and passes both at
+    // attempt 2; unit 4 is scrapped at winding; unit 5 waits at the load test (runMixedLot).
+    const mixed = await runMixedLot({ engineer, lead, stores, operator })
+    t = mixed.t
+    expect(mixed.reworkedRetest.body).toMatchObject({
+      stepRun: { attempt: 2 },
+      unit: { state: 'passed' },
     })
-    await run(windingRun(t, u3))
-    const again = await run(loadTestRun(u3, 350))
-    expect(again.body).toMatchObject({ stepRun: { attempt: 2 }, unit: { state: 'passed' } })
-    // Unit 4 fails winding and is scrapped.
-    const turns = await run(
-      windingRun(t, u4, { values: { l_sec: 40 }, defectCodeId: defect('W-TURNS') }),
-    )
-    await dispose(turns.body.nonconformanceId, { disposition: 'scrap' })
-    // Unit 5 has passed winding only and waits at the load test.
-    await run(windingRun(t, u5))
   })
 
   it('gives a lot its step FPYs, RTY, lot FPY, final yield, DPU and WIP', async () => {
