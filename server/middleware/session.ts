@@ -1,7 +1,7 @@
 import connectPgSimple from 'connect-pg-simple'
 import session from 'express-session'
-import pg from 'pg'
 import type { SessionData } from 'express-session'
+import { closeSqlPool, sqlPool } from '../db/pool'
 import { env, requireSetting } from '../env'
 import { cachedSession, closeAuthCache, forgetSession } from './authCache'
 
@@ -53,16 +53,8 @@ function expiresAt(json: string): number {
 /** Eight hours from sign-in: one shift. */
 const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000
 
-let pool: pg.Pool | undefined
-
-/** The session pool, shared so shutdown can close it. */
-export function sessionPool(): pg.Pool {
-  pool ??= new pg.Pool({
-    connectionString: requireSetting(env.databaseUrl, 'the database URL'),
-    max: 5,
-  })
-  return pool
-}
+/** The session store's pool: the app's plain pg pool, shared so shutdown can close it. */
+export const sessionPool = sqlPool
 
 /**
  * Sessions live in PostgreSQL, so any API process behind a proxy can serve any request. Expired
@@ -96,9 +88,8 @@ export function sessionMiddleware() {
   })
 }
 
-/** Closes the session pool and the auth cache's notification channel. */
+/** Closes the plain pg pool and the auth cache's notification channel. */
 export async function closeSessionPool(): Promise<void> {
   await closeAuthCache()
-  await pool?.end()
-  pool = undefined
+  await closeSqlPool()
 }
