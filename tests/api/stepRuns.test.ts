@@ -215,50 +215,13 @@ describe('step runs at the Floor', () => {
     )
   })
 
-  it('records exactly once under 20 concurrent duplicate and conflicting submissions', async () => {
-    const t = await lot(1)
-    const serial = t.units[0]!.serial
-    const same = windingRun(t, serial)
+  /**
+   * Sends every body at once, alternating two operators' sessions: exactly one may record (201),
+   * every repeat (200) must answer that run, and the rest are refused (409). Sending the winning
+   * body again must answer its run too.
+   */
+  async function race(bodies: { clientEventId: string }[]): Promise<void> {
     const other = await signedInAs('operator')
-    const bodies = Array.from({ length: 20 }, (_, i) =>
-      i < 10 ? same : { ...same, clientEventId: randomUUID() },
-    )
-    const results = await Promise.all(
-      bodies.map((body, i) => (i % 2 ? operator : other).post('/api/step-runs', body)),
-    )
-    const statuses = results.map((r) => r.status)
-    expect(statuses.filter((s) => s === 201)).toHaveLength(1)
-    expect(statuses.every((s) => [200, 201, 409].includes(s))).toBe(true)
-    const winner = results.find((r) => r.status === 201)!.body.stepRun.id
-    for (const r of results.filter((r) => r.status === 200)) expect(r.body.stepRun.id).toBe(winner)
-    expect(
-      await count(
-        'SELECT count(*) AS n FROM step_runs sr JOIN units u ON u.id = sr.unit_id WHERE u.serial = :serial',
-        { serial },
-      ),
-    ).toBe(1)
-    expect(
-      await count(
-        'SELECT count(*) AS n FROM consumptions c JOIN units u ON u.id = c.unit_id WHERE u.serial = :serial',
-        { serial },
-      ),
-    ).toBe(1)
-    // Whichever submission won, sending it again answers its run.
-    const won = bodies[results.findIndex((r) => r.status === 201)]!
-    const again = await operator.post('/api/step-runs', won)
-    expect(again.status).toBe(200)
-    expect(again.body.stepRun.id).toBe(winner)
-  })
-
-  it('records once when 20 submissions race at a step without components (the unlocked path)', async () => {
-    // The load test consumes nothing, so these take the read-then-guarded-write path: every
-    // write but one must find the unit changed, and the duplicates must answer the winner.
-    const t = await lot(1)
-    const serial = t.units[0]!.serial
-    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
-    const same = loadTestRun(serial, 350)
-    const other = await signedInAs('operator')
-    const bodies = Array.from({ length: 20 }, (_, i) => (i % 3 ? same : loadTestRun(serial, 350)))
     const results = await Promise.all(
       bodies.map((body, i) => (i % 2 ? operator : other).post('/api/step-runs', body)),
     )
@@ -268,17 +231,43 @@ describe('step runs at the Floor', () => {
     const won = results.findIndex((r) => r.status === 201)
     const winner = results[won]!.body.stepRun.id
     for (const r of results.filter((r) => r.status === 200)) expect(r.body.stepRun.id).toBe(winner)
-    const runs = `SELECT count(*) AS n FROM step_runs sr JOIN units u ON u.id = sr.unit_id
+    const again = await operator.post('/api/step-runs', bodies[won]!)
+    expect(again.status).toBe(200)
+    expect(again.body.stepRun.id).toBe(winner)
+  }
+  const runsOf = `SELECT count(*) AS n FROM step_runs sr JOIN units u ON u.id = sr.unit_id
                    WHERE u.serial = :serial`
-    expect(await count(runs, { serial })).toBe(2)
+
+  it('records exactly once under 20 concurrent duplicate and conflicting submissions', async () => {
+    // Winding consumes a component lot, so these take the locked path.
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    const same = windingRun(t, serial)
+    await race(
+      Array.from({ length: 20 }, (_, i) =>
+        i < 10 ? same : { ...same, clientEventId: randomUUID() },
+      ),
+    )
+    expect(await count(runsOf, { serial })).toBe(1)
+    const consumed = `SELECT count(*) AS n FROM consumptions c JOIN units u ON u.id = c.unit_id
+                       WHERE u.serial = :serial`
+    expect(await count(consumed, { serial })).toBe(1)
+  })
+
+  it('records once when 20 submissions race at a step without components (the unlocked path)', async () => {
+    // The load test consumes nothing, so these take the read-then-guarded-write path: every
+    // write but one must find the unit changed, and the duplicates must answer the winner.
+    const t = await lot(1)
+    const serial = t.units[0]!.serial
+    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
+    const same = loadTestRun(serial, 350)
+    await race(Array.from({ length: 20 }, (_, i) => (i % 3 ? same : loadTestRun(serial, 350))))
+    expect(await count(runsOf, { serial })).toBe(2)
     const audits = `SELECT count(*) AS n FROM audit_events
                      WHERE action = 'step_run.record' AND after->>'serial' = :serial`
     expect(await count(audits, { serial })).toBe(2)
     const counters = `SELECT run_count AS n FROM units WHERE serial = :serial`
     expect(await count(counters, { serial })).toBe(2)
-    const again = await operator.post('/api/step-runs', bodies[won])
-    expect(again.status).toBe(200)
-    expect(again.body.stepRun.id).toBe(winner)
   })
 
   it('reworks a failed unit back to a chosen step, counting the rework and new attempts', async () => {
