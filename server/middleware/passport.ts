@@ -2,9 +2,9 @@ import passport from 'passport'
 import { Strategy as LocalStrategy } from 'passport-local'
 import type { UserDto } from '../../shared/schemas/auth'
 import { authenticate } from '../services/auth'
+import { sqlPool } from '../db/pool'
 import { namedSql } from '../db/txSql'
 import { cachedUser } from './authCache'
-import { sessionPool } from './session'
 
 // The session stores only the user id; the user is read again for every request, so a role
 // change or a deactivation takes effect at once. The read goes through the auth cache, which
@@ -17,7 +17,7 @@ const SESSION_USER = namedSql(
 passport.serializeUser((user, done) => done(null, (user as UserDto).id))
 passport.deserializeUser((id: string, done) => {
   cachedUser(id, async () => {
-    const result = await sessionPool().query<UserDto>({ ...SESSION_USER, values: [id] })
+    const result = await sqlPool().query<UserDto>({ ...SESSION_USER, values: [id] })
     return result.rows[0] ?? null
   }).then(
     (user) => done(null, user ? { ...user } : false),

@@ -53,9 +53,6 @@ function expiresAt(json: string): number {
 /** Eight hours from sign-in: one shift. */
 const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000
 
-/** The session store's pool: the app's plain pg pool, shared so shutdown can close it. */
-export const sessionPool = sqlPool
-
 /**
  * Sessions live in PostgreSQL, so any API process behind a proxy can serve any request. Expired
  * rows are swept by the maintenance worker rather than by a timer in every API process.
@@ -65,7 +62,7 @@ export function sessionMiddleware() {
     name: 'waymark.sid',
     secret: requireSetting(env.sessionSecret, 'the session secret'),
     store: new CachedPgStore({
-      pool: sessionPool(),
+      pool: sqlPool(),
       tableName: 'sessions',
       createTableIfMissing: false,
       pruneSessionInterval: false,
@@ -88,7 +85,7 @@ export function sessionMiddleware() {
   })
 }
 
-/** Closes the plain pg pool and the auth cache's notification channel. */
+/** Closes what sessions hold: the plain pg pool and the auth cache's notification channel. */
 export async function closeSessionPool(): Promise<void> {
   await closeAuthCache()
   await closeSqlPool()

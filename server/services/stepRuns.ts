@@ -273,7 +273,6 @@ async function decide(
 ): Promise<Decision | { repeatOf: string } | 'needs_lock'> {
   if (row.earlierId) return { repeatOf: row.earlierId }
   if (!row.stationId) throw AppError.notFound(`station ${input.stationCode}`)
-  const unit = row
   const station = {
     code: row.stationCode,
     name: row.stationName,
@@ -287,15 +286,17 @@ async function decide(
     holdReason: row.lotHoldReason,
   }
   // No lock on the lot: holding a lot changes each of its open units, which the write checks.
-  const step = unit.currentStepId
-    ? await stepPlan(unit.currentStepId, transaction ?? undefined)
+  const step = row.currentStepId
+    ? await stepPlan(row.currentStepId, transaction ?? undefined)
     : null
-  const refusal = unitRefusal(unit, lot, step, station)
+  const refusal = unitRefusal(row, lot, step, station)
   if (refusal || !step)
     throw AppError.conflict(
       refusal?.code ?? 'no_step',
-      refusal?.message ?? `${unit.serial} has no step to do`,
+      refusal?.message ?? `${row.serial} has no step to do`,
     )
+  // Known before any check is evaluated, so such a scan does that work once, under the lock.
+  if (!transaction && (step.bomLines.length > 0 || step.requiresSignoff)) return 'needs_lock'
   const checks = step.checks
   checkTypedValues(checks, input.values)
   const results = evaluateChecks(checks, input.values, step.windings)
@@ -309,7 +310,6 @@ async function decide(
     throw AppError.badRequest('defectCodeId: no such defect code', {
       defectCodeId: 'no such defect code',
     })
-  if (!transaction && (step.bomLines.length > 0 || step.requiresSignoff)) return 'needs_lock'
   const planned =
     step.bomLines.length > 0 && transaction
       ? await planConsumptions(step.bomLines, input.consumptions, transaction)
@@ -328,10 +328,10 @@ async function decide(
   const now = at
   const runId = randomUUID()
   const failedKeys = failed.map((c) => c.key)
-  const move = unitAfterRun(unit, step, failedKeys, now)
+  const move = unitAfterRun(row, step, failedKeys, now)
   const rows = measurementRows(checks, results)
   const audit = {
-    serial: unit.serial,
+    serial: row.serial,
     step: step.name,
     result,
     attempt,
@@ -341,13 +341,13 @@ async function decide(
   const ncId = result === 'fail' ? randomUUID() : null
   const values = [
     runId,
-    unit.id,
+    row.id,
     step.id,
     row.stationId,
     actor.id,
     second?.id ?? null,
     attempt,
-    unit.state === 'in_rework',
+    row.state === 'in_rework',
     result,
     input.note,
     input.clientEventId,
@@ -365,29 +365,29 @@ async function decide(
     move.holdKind,
     move.heldFromState,
     move.holdReason,
-    unit.lotId,
+    row.lotId,
     actor.email,
     JSON.stringify(audit),
     actor.ip ?? null,
     actor.requestId ?? null,
     // The unit as read: the write moves it only if it is still so.
-    unit.runCount,
-    unit.state,
-    unit.reworkCount,
+    row.runCount,
+    row.state,
+    row.reworkCount,
     ...(ncId ? [ncId, input.defectCodeId, JSON.stringify(failedKeys)] : []),
   ]
   const body: StepRunResultDto = {
     stepRun: { id: runId, result, attempt },
     unit: {
-      serial: unit.serial,
+      serial: row.serial,
       state: move.state,
       currentStep: result === 'pass' ? step.next : stepRef(step),
-      reworkCount: unit.reworkCount,
+      reworkCount: row.reworkCount,
     },
     nonconformanceId: ncId,
   }
   const write = result === 'fail' ? WRITE_FAIL : WRITE_PASS
-  return { write, values, planned, runId, body, lotId: unit.lotId, stepId: step.id }
+  return { write, values, planned, runId, body, lotId: row.lotId, stepId: step.id }
 }
 
 type Recorded = { body: StepRunResultDto; lotId: string; stepId: string } | { repeatOf: string }
