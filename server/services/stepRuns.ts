@@ -205,8 +205,10 @@ function writeRunText(isFail: boolean): string {
                      run_count = run_count + 1,
                      fail_count = fail_count + ${isFail ? 1 : 0},
                      first_attempt_count = first_attempt_count + CASE WHEN $7 = 1 THEN 1 ELSE 0 END
-     WHERE id = $2 AND run_count = $31 AND state = $32 AND current_step_id = $3
-       AND rework_count = $33
+     WHERE id = $2 AND run_count = $31 AND rework_count = $33
+       -- Not indexable on purpose: with '=' the planner may walk units_step_state_idx over
+       -- every unit queued at the step (a whole lot) instead of taking the primary key.
+       AND state IS NOT DISTINCT FROM $32 AND current_step_id IS NOT DISTINCT FROM $3
     RETURNING id
   ), run AS (
     INSERT INTO step_runs (id, unit_id, step_id, station_id, operator_id, countersigned_by,
