@@ -247,7 +247,8 @@ function writeRunText(isFail: boolean): string {
   }
   SELECT count(*)::int AS moved FROM moved`
 }
-const WRITE_PASS = namedSql('scan-write-pass', writeRunText(false))
+/** The write of a passing run; exported so a test can read the plan PostgreSQL picks for it. */
+export const WRITE_PASS = namedSql('scan-write-pass', writeRunText(false))
 const WRITE_FAIL = namedSql('scan-write-fail', writeRunText(true))
 
 /** A scan decided: the write's statement and values, and what to answer once it is written. */

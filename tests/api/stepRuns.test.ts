@@ -2,7 +2,9 @@ import { randomUUID } from 'node:crypto'
 import { QueryTypes } from 'sequelize'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { formatSerial } from '../../shared/serials'
+import { sqlPool } from '../../server/db/pool'
 import { ComponentLot, db } from '../../server/models'
+import { WRITE_PASS } from '../../server/services/stepRuns'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
@@ -268,6 +270,38 @@ describe('step runs at the Floor', () => {
     expect(await count(audits, { serial })).toBe(2)
     const counters = `SELECT run_count AS n FROM units WHERE serial = :serial`
     expect(await count(counters, { serial })).toBe(2)
+  })
+
+  it('moves the unit through its primary key, not by walking the units queued at its step', async () => {
+    // With '=' guards on state and step, a plan over units_step_state_idx read every unit of a
+    // just-released lot on each scan (2000 of them in scripts/bench/scan.ts).
+    const t = await lot(120)
+    const [unit] = await db().query<{ id: string; current_step_id: string; lot_id: string }>(
+      'SELECT id, current_step_id, lot_id FROM units WHERE serial = :serial',
+      { replacements: { serial: t.units[0]!.serial }, type: QueryTypes.SELECT },
+    )
+    const values: unknown[] = Array.from({ length: 33 }, () => null)
+    const set = (n: number, v: unknown) => (values[n - 1] = v)
+    set(1, randomUUID())
+    set(2, unit!.id)
+    set(3, unit!.current_step_id)
+    set(12, new Date())
+    set(26, unit!.lot_id)
+    set(31, 0)
+    set(32, 'queued')
+    set(33, 0)
+    const { rows } = await sqlPool().query<{ 'QUERY PLAN': unknown }>({
+      text: `EXPLAIN (FORMAT JSON) ${WRITE_PASS.text}`,
+      values,
+    })
+    const scans: { 'Relation Name'?: string; 'Index Name'?: string; 'Node Type': string }[] = []
+    const walk = (node: Record<string, unknown>) => {
+      if (node['Relation Name'] === 'units' && node['Node Type'] !== 'ModifyTable')
+        scans.push(node as (typeof scans)[number])
+      for (const child of (node.Plans as Record<string, unknown>[] | undefined) ?? []) walk(child)
+    }
+    walk((rows[0]!['QUERY PLAN'] as { Plan: Record<string, unknown> }[])[0]!.Plan)
+    expect(scans).toEqual([expect.objectContaining({ 'Index Name': 'units_pkey' })])
   })
 
   it('reworks a failed unit back to a chosen step, counting the rework and new attempts', async () => {
