@@ -1,13 +1,16 @@
 import { PERMISSIONS } from '../../shared/permissions'
 import {
   ComponentLotCodeParam,
+  ContainedUnitDecisionInput,
   ContainInput,
+  EndContainmentInput,
   RecallQuery,
   TraceScanParam,
 } from '../../shared/schemas/trace'
 import { unitHistoryPdf } from '../documents/unitHistory'
-import { actorOf } from '../middleware/access'
+import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
+import { containedUnit, decideContainedUnit, endContainment } from '../services/containment'
 import { containComponentLot, recallCsv, recallScope } from '../services/recall'
 import { traceUnit } from '../services/trace'
 import { apiRoutes } from './registry'
@@ -60,5 +63,29 @@ traceRoutes.post(
   async (req, res) => {
     const { reason } = parse(ContainInput, req.body)
     res.json(await containComponentLot(codeOf(req.params), reason, actorOf(req)))
+  },
+)
+
+traceRoutes.post(
+  '/component-lots/:code/end-containment',
+  PERMISSIONS.containComponentLots,
+  async (req, res) => {
+    const input = parse(EndContainmentInput, req.body)
+    res.json(await endContainment(codeOf(req.params), input, actorOf(req)))
+  },
+)
+
+// A unit held by a containment whose lot was rejected: what may be decided, and the decision.
+traceRoutes.get('/units/:serial/containment', PERMISSIONS.traceUnits, async (req, res) => {
+  res.json(await containedUnit(serialOf(req.params)))
+})
+
+traceRoutes.post(
+  '/units/:serial/containment-decision',
+  PERMISSIONS.disposeNonconformances,
+  async (req, res) => {
+    const input = parse(ContainedUnitDecisionInput, req.body)
+    const actor = { ...actorOf(req), role: signedInUser(req).role }
+    res.json(await decideContainedUnit(serialOf(req.params), input, actor))
   },
 )

@@ -24,6 +24,7 @@ interface ScopeRow {
   serial: string
   state: UnitState
   held_from_state: UnitState | null
+  hold_kind: string | null
   lot_number: string
   customer_id: string | null
   customer_name: string
@@ -51,7 +52,8 @@ export function recallGroupOf(state: UnitState, heldFrom: UnitState | null): Rec
 
 const zeroCounts = (): Record<RecallGroup, number> => ({ in_progress: 0, finished: 0, shipped: 0 })
 
-async function findLot(scanned: string, transaction?: Transaction) {
+/** A component lot by its internal code or label URL, with its part; 404 when unknown. */
+export async function findComponentLot(scanned: string, transaction?: Transaction) {
   const code = codeFromScan(scanned)
   const lot = await ComponentLot.findOne({
     where: { internalCode: code },
@@ -67,7 +69,7 @@ async function findLot(scanned: string, transaction?: Transaction) {
  * shipment's customer once shipped, else the lot's), with counts. Two indexed queries.
  */
 export async function recallScope(scanned: string, transaction?: Transaction) {
-  const lot = await findLot(scanned, transaction)
+  const lot = await findComponentLot(scanned, transaction)
   const rows = await db().query<ScopeRow>(RECALL_SCOPE_SQL, {
     bind: [lot.internalCode],
     type: QueryTypes.SELECT,
@@ -84,6 +86,7 @@ export async function recallScope(scanned: string, transaction?: Transaction) {
     shipmentNumber: r.shipment_number,
     shippedOn: r.shipped_on,
     quantity: Number(r.quantity),
+    isContained: r.state === 'on_hold' && r.hold_kind === 'containment',
   }))
   const counts = { ...zeroCounts(), total: units.length, scrapped: 0 }
   const byCustomer = new Map<string, RecallCustomerDto>()
@@ -186,7 +189,7 @@ export async function containComponentLot(
   actor: Actor,
 ): Promise<ContainResultDto> {
   return db().transaction(async (transaction) => {
-    const found = await findLot(scanned, transaction)
+    const found = await findComponentLot(scanned, transaction)
     // Lock the lot first, so two leads containing it at once run one after the other.
     await ComponentLot.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE })
     const scope = await recallScope(found.internalCode, transaction)

@@ -111,7 +111,7 @@ WHERE u.serial = $1`
  * on primary keys. A unit that took two pieces of the lot is one row with the summed quantity.
  */
 export const RECALL_SCOPE_SQL = `
-SELECT u.id AS unit_id, u.serial, u.state, u.held_from_state, l.number AS lot_number,
+SELECT u.id AS unit_id, u.serial, u.state, u.held_from_state, u.hold_kind, l.number AS lot_number,
   coalesce(shc.id, lc.id) AS customer_id,
   coalesce(shc.name, lc.name, nullif(l.customer_name, ''), '') AS customer_name,
   coalesce(shc.contact_email, lc.contact_email, '') AS contact_email,

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import type { Disposition, DocumentKind, DocumentStatus, UnitState } from '../lots'
+import { CountersignInput } from './lots'
 
 /** What the Trace scan box sends: a bare serial or a traveler URL, as scanned or typed. */
 export const TraceScanParam = z
@@ -27,6 +28,33 @@ export const ContainInput = z.object({
     .max(400, 'at most 400 characters'),
 })
 export type ContainInput = z.infer<typeof ContainInput>
+
+/** How a containment ends: the suspect lot was found fine, or it is bad. */
+export const CONTAINMENT_OUTCOMES = ['cleared', 'rejected'] as const
+export type ContainmentOutcome = (typeof CONTAINMENT_OUTCOMES)[number]
+
+/** A lead's end of a containment, once the investigation has an answer. */
+export const EndContainmentInput = z.object({
+  outcome: z.enum(CONTAINMENT_OUTCOMES, { error: 'choose cleared or rejected' }),
+  reason: z
+    .string()
+    .trim()
+    .min(10, 'say in a sentence what the investigation found (at least 10 characters)')
+    .max(400, 'at most 400 characters'),
+})
+export type EndContainmentInput = z.infer<typeof EndContainmentInput>
+
+/** What becomes of one unit held by a containment whose lot was rejected. */
+export const CONTAINED_UNIT_DECISIONS = ['rework', 'scrap', 'release'] as const
+export type ContainedUnitDecision = (typeof CONTAINED_UNIT_DECISIONS)[number]
+
+export const ContainedUnitDecisionInput = z.object({
+  decision: z.enum(CONTAINED_UNIT_DECISIONS, { error: 'choose rework, scrap or release' }),
+  reworkToStepId: z.string().uuid('choose the step to rework from').nullable().default(null),
+  reason: z.string().trim().max(2000).default(''),
+  countersign: CountersignInput.nullable().default(null),
+})
+export type ContainedUnitDecisionInput = z.infer<typeof ContainedUnitDecisionInput>
 
 /** A reviewer's edit of a draft e-mail before it is sent. */
 export const DraftUpdateInput = z
@@ -197,6 +225,8 @@ export interface RecallUnitDto {
   shipmentNumber: string | null
   shippedOn: string | null
   quantity: number
+  /** On hold because a containment holds it (of this lot or another one fitted in it). */
+  isContained: boolean
 }
 
 export interface RecallCustomerDto {
@@ -232,4 +262,27 @@ export interface ContainResultDto {
   drafts: { emailId: string; customerName: string; to: string; serials: string[] }[]
   /** Customers with shipped units but no contact e-mail: nobody to draft to, call them. */
   noContact: string[]
+}
+
+export interface EndContainmentResultDto {
+  scope: RecallScopeDto
+  outcome: ContainmentOutcome
+  /** Units that went back to where they stood when they were held. */
+  released: string[]
+  /** Units still held, each with the reason it now shows. */
+  stillHeld: { serial: string; reason: string }[]
+}
+
+/** A unit held by a containment, with what a lead may decide for it. */
+export interface ContainedUnitDto {
+  serial: string
+  state: UnitState
+  heldFromState: UnitState | null
+  holdReason: string
+  /** Fitted component lots that are still quarantined: until they are ended, no decision. */
+  stillContainedBy: string[]
+  /** Fitted component lots that were rejected, with the step they were fitted at. */
+  rejectedLots: { code: string; fittedAtStep: { id: string; name: string; position: number } }[]
+  /** Steps a rework may start at: at or before the first step that fitted a rejected lot. */
+  reworkSteps: { id: string; name: string; position: number }[]
 }

@@ -161,6 +161,13 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/trace/units/:serial/history.pdf', who: TRACE },
   { method: 'get', path: '/api/trace/component-lots/:code', who: TRACE },
   { method: 'post', path: '/api/trace/component-lots/:code/contain', who: ['lead'] },
+  { method: 'post', path: '/api/trace/component-lots/:code/end-containment', who: ['lead'] },
+  { method: 'get', path: '/api/trace/units/:serial/containment', who: TRACE },
+  {
+    method: 'post',
+    path: '/api/trace/units/:serial/containment-decision',
+    who: ['lead', 'engineer'],
+  },
   { method: 'get', path: '/api/yield/lots/:id/detail', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id/turns', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/exports/lots', who: ['lead', 'engineer', 'admin'] },
