@@ -1,4 +1,13 @@
-import type { ContainResultDto, RecallScopeDto, UnitTraceDto } from '@shared/schemas/trace'
+import type { UnitSummaryDto } from '@shared/schemas/lots'
+import type {
+  ContainedUnitDecisionInput,
+  ContainedUnitDto,
+  ContainResultDto,
+  EndContainmentInput,
+  EndContainmentResultDto,
+  RecallScopeDto,
+  UnitTraceDto,
+} from '@shared/schemas/trace'
 import { json, request } from './client'
 
 const enc = encodeURIComponent
@@ -17,5 +26,20 @@ export const traceApi = {
     request<ContainResultDto>(
       `/trace/component-lots/${enc(code)}/contain`,
       json('POST', { reason }),
+    ),
+  /** Lead: the investigation has an answer; cleared releases the units, rejected keeps them held. */
+  endContainment: (code: string, input: EndContainmentInput) =>
+    request<EndContainmentResultDto>(
+      `/trace/component-lots/${enc(code)}/end-containment`,
+      json('POST', input),
+    ),
+  /** A unit held by a containment, with the decisions open for it. */
+  containedUnit: (serial: string) =>
+    request<ContainedUnitDto>(`/trace/units/${enc(serial)}/containment`),
+  /** Lead or engineer: rework, scrap or release a unit of a rejected lot. */
+  decideContainedUnit: (serial: string, input: ContainedUnitDecisionInput) =>
+    request<UnitSummaryDto>(
+      `/trace/units/${enc(serial)}/containment-decision`,
+      json('POST', input),
     ),
 }

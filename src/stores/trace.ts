@@ -1,6 +1,13 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { ContainResultDto, RecallScopeDto, UnitTraceDto } from '@shared/schemas/trace'
+import type {
+  ContainedUnitDecisionInput,
+  ContainResultDto,
+  EndContainmentInput,
+  EndContainmentResultDto,
+  RecallScopeDto,
+  UnitTraceDto,
+} from '@shared/schemas/trace'
 import { ApiError } from '@/api/client'
 import { traceApi } from '@/api/trace'
 
@@ -31,6 +38,8 @@ export const useTraceStore = defineStore('trace', () => {
   const isScopeLoading = ref(false)
   /** What the last containment did. */
   const contained = ref<ContainResultDto | null>(null)
+  /** What the last end of a containment did. */
+  const ended = ref<EndContainmentResultDto | null>(null)
 
   /** Looks a serial up; a mistyped or unknown one lands in `miss`, other errors are thrown. */
   async function lookUp(serial: string) {
@@ -53,6 +62,7 @@ export const useTraceStore = defineStore('trace', () => {
     isScopeLoading.value = true
     scopeMiss.value = null
     contained.value = null
+    ended.value = null
     try {
       scope.value = await traceApi.recall(code)
     } catch (error) {
@@ -70,7 +80,25 @@ export const useTraceStore = defineStore('trace', () => {
     if (!scope.value) return
     const result = await traceApi.contain(scope.value.componentLot.internalCode, reason)
     contained.value = result
+    ended.value = null
     scope.value = result.scope
+  }
+
+  /** Lead: ends the containment of the lot on screen; throws ApiError. */
+  async function endContainment(input: EndContainmentInput) {
+    if (!scope.value) return
+    const result = await traceApi.endContainment(scope.value.componentLot.internalCode, input)
+    ended.value = result
+    contained.value = null
+    scope.value = result.scope
+  }
+
+  /** Lead or engineer: decides one held unit of a rejected lot, then reloads the scope. */
+  async function decideContainedUnit(serial: string, input: ContainedUnitDecisionInput) {
+    if (!scope.value) return
+    const unit = await traceApi.decideContainedUnit(serial, input)
+    scope.value = await traceApi.recall(scope.value.componentLot.internalCode)
+    return unit
   }
 
   return {
@@ -81,8 +109,11 @@ export const useTraceStore = defineStore('trace', () => {
     scopeMiss,
     isScopeLoading,
     contained,
+    ended,
     lookUp,
     lookUpLot,
     contain,
+    endContainment,
+    decideContainedUnit,
   }
 })
