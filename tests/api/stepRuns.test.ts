@@ -290,10 +290,23 @@ describe('step runs at the Floor', () => {
     set(31, 0)
     set(32, 'queued')
     set(33, 0)
-    const { rows } = await sqlPool().query<{ 'QUERY PLAN': unknown }>({
-      text: `EXPLAIN (FORMAT JSON) ${WRITE_PASS.text}`,
-      values,
-    })
+    // A freshly seeded table looks tiny to the planner, which would then scan it whole; with
+    // sequential scans off it must pick an index, and only the primary key may serve.
+    const client = await sqlPool().connect()
+    const rows = await (async () => {
+      try {
+        await client.query('BEGIN')
+        await client.query('SET LOCAL enable_seqscan = off')
+        const plan = await client.query<{ 'QUERY PLAN': unknown }>({
+          text: `EXPLAIN (FORMAT JSON) ${WRITE_PASS.text}`,
+          values,
+        })
+        return plan.rows
+      } finally {
+        await client.query('ROLLBACK')
+        client.release()
+      }
+    })()
     const scans: { 'Relation Name'?: string; 'Index Name'?: string; 'Node Type': string }[] = []
     const walk = (node: Record<string, unknown>) => {
       if (node['Relation Name'] === 'units' && node['Node Type'] !== 'ModifyTable')
