@@ -3,7 +3,7 @@ import type { Transaction } from 'sequelize'
 import { stringify } from 'csv-stringify/sync'
 import { codeFromScan } from '../../shared/links'
 import type { UnitState } from '../../shared/lots'
-import { RECALL_GROUP_LABELS } from '../../shared/schemas/trace'
+import { CONTAINABLE_STATES, RECALL_GROUP_LABELS } from '../../shared/schemas/trace'
 import type {
   ContainResultDto,
   RecallCustomerDto,
@@ -33,14 +33,6 @@ interface ScopeRow {
   shipped_on: string | null
   quantity: number
 }
-
-/** Unit states a containment holds: still on the floor, or finished here and not yet shipped. */
-export const CONTAINABLE_STATES: readonly UnitState[] = [
-  'queued',
-  'in_progress',
-  'in_rework',
-  'passed',
-]
 
 /** Where a unit stands for a recall; a held unit counts where it was when it was held. */
 export function recallGroupOf(state: UnitState, heldFrom: UnitState | null): RecallGroup {

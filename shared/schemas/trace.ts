@@ -205,6 +205,18 @@ export interface UnitTraceDto {
   generatedAt: string
 }
 
+/**
+ * Unit states a containment holds: still on the floor, finished here and not yet shipped, or
+ * back from a customer for service.
+ */
+export const CONTAINABLE_STATES: readonly UnitState[] = [
+  'queued',
+  'in_progress',
+  'in_rework',
+  'passed',
+  'returned',
+]
+
 /** Where an affected unit stands, for the recall scope. */
 export const RECALL_GROUPS = ['in_progress', 'finished', 'shipped'] as const
 export type RecallGroup = (typeof RECALL_GROUPS)[number]

@@ -105,21 +105,24 @@ describe('recall scope and containment of a component lot', () => {
   })
 
   it('holds the units still here, quarantines the lot and drafts one letter per customer', async () => {
+    // The returned unit is back in the shop for service: it is held too, so it cannot be repaired
+    // and sent out again with the suspect part.
     const reason = 'supplier reports cracked cores in this batch'
     const res = await lead
       .post(`/api/trace/component-lots/${t.componentLotCode}/contain`, { reason })
       .expect(200)
     const out = res.body as ContainResultDto
-    expect(out.held).toEqual([serials[3], serials[4]])
+    expect(out.held).toEqual([serials[0], serials[3], serials[4]])
     expect(out.quarantined).toBe(true)
     expect(out.scope.componentLot.status).toBe('quarantined')
     // Held units still count where they stood.
     expect(out.scope.counts).toMatchObject({ in_progress: 1, finished: 1, shipped: 3 })
     const held = await Unit.findAll({
-      where: { serial: [serials[3]!, serials[4]!] },
+      where: { serial: [serials[0]!, serials[3]!, serials[4]!] },
       order: [['serial', 'ASC']],
     })
     expect(held.map((u) => [u.state, u.heldFromState, u.holdKind])).toEqual([
+      ['on_hold', 'returned', 'containment'],
       ['on_hold', 'passed', 'containment'],
       ['on_hold', 'in_progress', 'containment'],
     ])
@@ -144,7 +147,7 @@ describe('recall scope and containment of a component lot', () => {
         'unit.hold',
         held.map((u) => u.id),
       ),
-    ).toBe(2)
+    ).toBe(3)
     const lotId = out.scope.componentLot.id
     expect(await auditCount('component_lot.status', [lotId])).toBe(1)
     expect(await auditCount('component_lot.contain', [lotId])).toBe(1)
@@ -163,7 +166,7 @@ describe('recall scope and containment of a component lot', () => {
     ).body as ContainResultDto
     expect(again).toMatchObject({
       held: [],
-      alreadyHeld: [serials[3], serials[4]],
+      alreadyHeld: [serials[0], serials[3], serials[4]],
       quarantined: false,
       drafts: [],
     })
