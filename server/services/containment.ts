@@ -16,7 +16,7 @@ import type { Actor } from './audit'
 import { moveComponentLotStatus } from './componentLots'
 import { verifyCountersign } from './countersign'
 import { findComponentLot, recallScope } from './recall'
-import { reworkTarget, sendToRework, unitSummary } from './unitMoves'
+import { reworkTarget, scrapUnit, sendToRework, unitSummary } from './unitMoves'
 
 // A containment (recall.ts) holds every unit still in the shop that holds a suspect component
 // lot and quarantines the lot. It ends when the investigation has an answer: the lot is cleared
@@ -249,17 +249,7 @@ export async function decideContainedUnit(
       })
       await sendToRework(unit, target, current ? current.position - 1 : last, transaction)
     } else if (input.decision === 'scrap') {
-      await unit.update(
-        {
-          state: 'scrapped',
-          currentStepId: null,
-          finishedAt: new Date(),
-          holdKind: null,
-          heldFromState: null,
-          holdReason: '',
-        },
-        { transaction },
-      )
+      await scrapUnit(unit, transaction)
     } else {
       if (input.reason.length < 10)
         throw AppError.badRequest(

@@ -5,7 +5,7 @@ import { db, Lot, Nonconformance, RouteStep, StepRun, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { verifyCountersign } from './countersign'
-import { reworkTarget, sendToRework, stepAfter } from './unitMoves'
+import { reworkTarget, scrapUnit, sendToRework, stepAfter } from './unitMoves'
 
 interface NcRow {
   id: string
@@ -129,17 +129,7 @@ export async function disposeNonconformance(
       )
       await sendToRework(unit, target, failedStep.position, transaction)
     } else if (input.disposition === 'scrap') {
-      await unit.update(
-        {
-          state: 'scrapped',
-          currentStepId: null,
-          finishedAt: new Date(),
-          holdKind: null,
-          heldFromState: null,
-          holdReason: '',
-        },
-        { transaction },
-      )
+      await scrapUnit(unit, transaction)
     } else {
       if (input.reason.length < 10)
         throw AppError.badRequest('reason: say in a sentence why the unit may be used as it is', {

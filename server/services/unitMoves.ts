@@ -92,6 +92,21 @@ export async function sendToRework(
   )
 }
 
+/** Ends a unit's route for good: scrapped, off its step, any hold ended. */
+export async function scrapUnit(unit: Unit, transaction: Transaction): Promise<void> {
+  await unit.update(
+    {
+      state: 'scrapped',
+      currentStepId: null,
+      finishedAt: new Date(),
+      holdKind: null,
+      heldFromState: null,
+      holdReason: '',
+    },
+    { transaction },
+  )
+}
+
 /**
  * Where a unit goes after a step run. A pass goes to the next step (or ends the route as
  * passed) and ends a rework once the failed step is passed again; a fail holds the unit for

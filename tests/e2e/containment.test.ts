@@ -80,7 +80,7 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
     await dialog.getByText('fitted at').waitFor()
     await page.waitForTimeout(400) // the dialog's opening animation, for the picture only
     await page.screenshot({ path: join(E2E_RESULTS_DIR, 'containment-decide-dialog.png') })
-    await dialog.locator('.dispose__option', { hasText: 'Scrap' }).click()
+    await dialog.locator('.wm-choice', { hasText: 'Scrap' }).click()
     await dialog.getByRole('button', { name: 'Scrap' }).click()
     await expect
       .poll(async () => (await Unit.findOne({ where: { serial: serials[1]! } }))!.state)
