@@ -3,6 +3,7 @@ import type { CheckDto } from './schemas/recipes'
 /** Where a bench file is on its way from upload to recorded step runs. */
 export const IMPORT_STATUSES = [
   'uploaded',
+  'checking',
   'checked',
   'queued',
   'running',
@@ -17,6 +18,7 @@ export type ImportRowOutcome = (typeof IMPORT_ROW_OUTCOMES)[number]
 
 export const IMPORT_STATUS_WORDS: Record<ImportStatus, string> = {
   uploaded: 'Uploaded, not checked',
+  checking: 'Checking rows',
   checked: 'Checked, ready to import',
   queued: 'Waiting for the import job',
   running: 'Importing',

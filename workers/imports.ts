@@ -1,24 +1,28 @@
 import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
-import { enqueueImport, IMPORTS_QUEUE } from '../server/queues/imports'
+import { enqueueImport, enqueueImportCheck, IMPORTS_QUEUE } from '../server/queues/imports'
 import type { ImportJob } from '../server/queues/imports'
 import { redisPrefix } from '../server/redis'
-import { failImport, pendingImportIds, processImport } from '../server/services/imports'
+import { checkImport, failImport, pendingImports, processImport } from '../server/services/imports'
 
 export { enqueueImport, IMPORTS_QUEUE }
 export type { ImportJob }
 
 const SWEEP_EVERY_MS = 60_000
 
-/** Enqueues again every import left `queued` (its job was lost) or stuck `running`. */
+/** Enqueues again every import left `checking` or `queued` (its job was lost) or stuck `running`. */
 export async function sweepImports(olderThanMs = 30_000): Promise<number> {
-  const ids = await pendingImportIds(new Date(), olderThanMs)
-  for (const id of ids) await enqueueImport(id)
-  return ids.length
+  const pending = await pendingImports(new Date(), olderThanMs)
+  for (const p of pending)
+    await (p.kind === 'check' ? enqueueImportCheck(p.id, p.updatedAt) : enqueueImport(p.id))
+  return pending.length
 }
 
-/** Records bench files' rows as step runs; progress goes to the job and to the imports row. */
+/**
+ * Checks bench files (the dry run) and records their good rows as step runs; progress goes to
+ * the job and to the imports row.
+ */
 export function startImportsWorker(connection: Redis): {
   worker: Worker<ImportJob>
   stop: () => void
@@ -26,7 +30,9 @@ export function startImportsWorker(connection: Redis): {
   const worker = new Worker<ImportJob>(
     IMPORTS_QUEUE,
     async (job) => {
-      await processImport(job.data.importId, (percent) => job.updateProgress(percent))
+      const report = (percent: number) => job.updateProgress(percent)
+      if (job.data.kind === 'check') await checkImport(job.data.importId, report)
+      else await processImport(job.data.importId, report)
     },
     // One file at a time: rows of two files for one unit must not race for its step.
     { connection, prefix: redisPrefix, concurrency: 1 },

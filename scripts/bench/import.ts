@@ -80,7 +80,10 @@ await imports.saveImportMapping(
   actor,
 )
 t0 = performance.now()
-const checked = await imports.dryRunImport(uploaded.id, actor)
+// The request and then its job, run here rather than by a worker.
+await imports.requestDryRun(uploaded.id, actor)
+await imports.checkImport(uploaded.id)
+const checked = await imports.getImport(uploaded.id)
 line(`dry run (${checked.counts.ready} ready)`, ms(t0), UNITS)
 await imports.requestImportRun(uploaded.id, { defectCodeId: null }, actor)
 t0 = performance.now()

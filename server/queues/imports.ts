@@ -5,6 +5,8 @@ export const IMPORTS_QUEUE = 'imports'
 
 export interface ImportJob {
   importId: string
+  /** The dry run (plan every row) or the import (record the good ones); absent: the import. */
+  kind?: 'check' | 'run'
 }
 
 const producer = makeProducer<ImportJob>(IMPORTS_QUEUE, STANDARD_JOB_OPTIONS)
@@ -28,3 +30,17 @@ export async function enqueueImport(importId: string): Promise<void> {
 }
 
 export const closeImportsQueue = producer.close
+
+/**
+ * Enqueues an import's dry run. The job id carries the moment the dry run was asked for, so the
+ * sweeper's second enqueue of the same request is a no-op while a new request gets a new job.
+ */
+export async function enqueueImportCheck(importId: string, requestedAt: Date): Promise<void> {
+  await producer.add(
+    'check',
+    { importId, kind: 'check' },
+    { jobId: `check-${importId}-${requestedAt.getTime()}` },
+    { importId },
+    'dry run not enqueued now; the sweeper will retry',
+  )
+}

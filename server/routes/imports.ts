@@ -11,17 +11,17 @@ import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import {
-  dryRunImport,
   getImport,
   getImportMapping,
   listImportRows,
   listImports,
+  requestDryRun,
   requestImportRun,
   saveImportMapping,
   uploadBenchFile,
   toImportDto,
 } from '../services/imports'
-import { enqueueImport } from '../queues/imports'
+import { enqueueImport, enqueueImportCheck } from '../queues/imports'
 import { apiRoutes } from './registry'
 
 export const importRoutes = apiRoutes('/imports')
@@ -52,8 +52,12 @@ importRoutes.get('/:id/rows', use, async (req, res) => {
   res.json(await listImportRows(id(req.params), parse(ImportRowsQuery, req.query)))
 })
 
+// 202: the rows are planned by a job (a 20 MB file is too much for one request); the screen
+// polls GET /imports/:id until it is `checked`.
 importRoutes.post('/:id/dry-run', use, async (req, res) => {
-  res.json(await dryRunImport(id(req.params), actorOf(req)))
+  const imp = await requestDryRun(id(req.params), actorOf(req))
+  await enqueueImportCheck(imp.id, imp.updatedAt)
+  res.status(202).json(await toImportDto(imp))
 })
 
 // 202: the rows are recorded by the import job; the screen polls GET /imports/:id for progress.

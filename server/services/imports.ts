@@ -477,63 +477,86 @@ async function readTable(imp: Import): Promise<BenchTable> {
 }
 
 /**
- * The dry run: plans every row with the station's saved mapping and keeps the plan (replacing
- * an earlier dry run's), so the import runs exactly what was shown. Writes no step run.
+ * Asks for the dry run: checks that the station's saved mapping fits the file, then the import
+ * goes to `checking` with that mapping, in one transaction with its audit event. The job
+ * (checkImport) plans the rows; the caller enqueues it, and the sweeper does if Redis is away.
  */
-export async function dryRunImport(id: string, actor: Actor): Promise<ImportDto> {
-  const first = await loadImport(id)
-  if (!['uploaded', 'checked'].includes(first.status))
-    throw AppError.conflict(
-      'import_started',
-      'this file’s import has already started; upload the file again to check it anew',
+export async function requestDryRun(id: string, actor: Actor): Promise<Import> {
+  return db().transaction(async (transaction) => {
+    const imp = await loadImport(id, transaction, true)
+    if (imp.status === 'checking')
+      throw AppError.conflict('import_checking', 'this file is being checked; wait for the rows')
+    if (!['uploaded', 'checked'].includes(imp.status))
+      throw AppError.conflict(
+        'import_started',
+        'this file’s import has already started; upload the file again to check it anew',
+      )
+    const station = (await Station.findByPk(imp.stationId, { transaction }))!
+    const saved = await ImportMappingModel.findByPk(station.id, { transaction })
+    if (!saved)
+      throw AppError.conflict(
+        'no_mapping',
+        `save the column mapping of ${station.code} first: which column holds the serial and each check`,
+      )
+    const mapping = toMapping(saved)
+    const missing = [mapping.serialColumn, mapping.timeColumn, mapping.operatorColumn]
+      .concat(Object.values(mapping.checkColumns))
+      .filter((c): c is string => c !== null && !imp.columns.includes(c))
+    if (missing.length)
+      throw AppError.badRequest(
+        `mapping: this file has no column "${missing[0]}"; adjust the mapping of ${station.code}`,
+        { mapping: `no column ${missing[0]}` },
+      )
+    await imp.update({ status: 'checking', mapping, progress: 0, error: null }, { transaction })
+    await recordAudit(
+      actor,
+      { action: 'import.dry_run', entity: 'import', entityId: id, after: { mapping } },
+      transaction,
     )
+    return imp
+  })
+}
+
+/**
+ * The dry run's job: plans every row with the mapping the request kept and stores the plan
+ * (replacing an earlier dry run's), so the import runs exactly what was shown. Writes no step
+ * run. Safe to run twice: an import no longer `checking` is left as it is.
+ */
+export async function checkImport(
+  id: string,
+  onProgress: (percent: number) => Promise<void> = async () => {},
+): Promise<void> {
+  const first = await Import.findByPk(id)
+  if (first?.status !== 'checking' || !first.mapping) return
   const station = (await Station.findByPk(first.stationId))!
-  const saved = await ImportMappingModel.findByPk(station.id)
-  if (!saved)
-    throw AppError.conflict(
-      'no_mapping',
-      `save the column mapping of ${station.code} first: which column holds the serial and each check`,
-    )
-  const mapping = toMapping(saved)
-  const missing = [mapping.serialColumn, mapping.timeColumn, mapping.operatorColumn]
-    .concat(Object.values(mapping.checkColumns))
-    .filter((c): c is string => c !== null && !first.columns.includes(c))
-  if (missing.length)
-    throw AppError.badRequest(
-      `mapping: this file has no column "${missing[0]}"; adjust the mapping of ${station.code}`,
-      { mapping: `no column ${missing[0]}` },
-    )
-  const rows = await planRows(await readTable(first), mapping, station, first.sha256, first.id)
+  const rows = await planRows(
+    await readTable(first),
+    first.mapping,
+    station,
+    first.sha256,
+    first.id,
+  )
+  await first.update({ progress: 50 })
+  await onProgress(50)
   const ready = rows.filter((r) => r.errors.length === 0).length
   await db().transaction(async (transaction) => {
     const imp = await loadImport(id, transaction, true)
-    if (!['uploaded', 'checked'].includes(imp.status))
-      throw AppError.conflict('import_started', 'this file’s import started meanwhile')
+    if (imp.status !== 'checking') return
     await ImportRow.destroy({ where: { importId: id }, transaction })
     for (let i = 0; i < rows.length; i += CHUNK)
       await ImportRow.bulkCreate(rows.slice(i, i + CHUNK), { transaction })
     await imp.update(
       {
         status: 'checked',
-        mapping,
+        progress: 0,
         readyCount: ready,
         errorCount: rows.length - ready,
         checkedAt: new Date(),
       },
       { transaction },
     )
-    await recordAudit(
-      actor,
-      {
-        action: 'import.dry_run',
-        entity: 'import',
-        entityId: id,
-        after: { ready, errors: rows.length - ready, mapping },
-      },
-      transaction,
-    )
   })
-  return getImport(id)
+  await onProgress(100)
 }
 
 function toRowDto(r: ImportRow): ImportRowDto {
@@ -780,24 +803,46 @@ export async function processImport(
 export async function failImport(id: string, reason: string): Promise<void> {
   const imp = await Import.findByPk(id)
   if (!imp || imp.status === 'done') return
+  const error = reason.slice(0, 500)
+  // A dry run that could not finish leaves the file as it was, to be checked again.
+  if (imp.status === 'checking') {
+    await imp.update({ status: imp.checkedAt ? 'checked' : 'uploaded', progress: 0, error })
+    return
+  }
   await refreshCounts(imp)
-  await imp.update({ status: 'failed', error: reason.slice(0, 500) })
+  await imp.update({ status: 'failed', error })
+}
+
+/** An import whose job the sweeper enqueues again: its dry run, or its import. */
+export interface PendingImport {
+  id: string
+  kind: 'check' | 'run'
+  /** Part of the check job's id, so a new dry run of the same file gets a job of its own. */
+  updatedAt: Date
 }
 
 /** Imports still waiting after `olderThanMs`, which the sweeper enqueues again. */
-export async function pendingImportIds(now: Date, olderThanMs: number): Promise<string[]> {
+export async function pendingImports(now: Date, olderThanMs: number): Promise<PendingImport[]> {
   const rows = await Import.findAll({
-    // A `running` row untouched for ten minutes lost its worker; queued ones lost their job.
+    // A `running` row untouched for ten minutes lost its worker; queued and checking ones
+    // lost their job (or are slow: the job ids make a second enqueue of the same one a no-op).
     where: {
       [Op.or]: [
-        { status: 'queued', updatedAt: { [Op.lt]: new Date(now.getTime() - olderThanMs) } },
+        {
+          status: { [Op.in]: ['queued', 'checking'] },
+          updatedAt: { [Op.lt]: new Date(now.getTime() - olderThanMs) },
+        },
         { status: 'running', updatedAt: { [Op.lt]: new Date(now.getTime() - 10 * 60_000) } },
       ],
     },
-    attributes: ['id'],
+    attributes: ['id', 'status', 'updatedAt'],
     limit: 500,
   })
   if (rows.length)
     logger.info({ count: rows.length }, 'imports found waiting; enqueueing them again')
-  return rows.map((r) => r.id)
+  return rows.map((r) => ({
+    id: r.id,
+    kind: r.status === 'checking' ? 'check' : 'run',
+    updatedAt: r.updatedAt,
+  }))
 }

@@ -40,7 +40,10 @@ export const importsApi = {
   },
   rows: (id: string, query: Partial<ImportRowsQuery>) =>
     request<ImportRowsDto>(importPath(id, `/rows?${toSearchParams(query)}`)),
-  /** Checks every row with the station's saved mapping; writes no step run. */
+  /**
+   * Asks for the dry run with the station's saved mapping (202); a job plans the rows while the
+   * import is `checking`, and writes no step run.
+   */
   dryRun: (id: string) => request<ImportDto>(importPath(id, '/dry-run'), json('POST')),
   /** Queues the import job; 400 `defectCodeId` when failing rows need a defect code. */
   run: (id: string, input: ImportRunInput) =>

@@ -83,19 +83,24 @@ export const useImportsStore = defineStore('imports', () => {
     }
   }
 
-  /** Saves the mapping on screen for the station, then checks every row with it. */
+  /** Saves the mapping on screen for the station, then asks for every row to be checked. */
   async function check() {
     if (!current.value || !draft.value) return
     isBusy.value = true
     try {
       mappingInfo.value = await importsApi.saveMapping(current.value.stationCode, draft.value)
       current.value = await importsApi.dryRun(current.value.id)
-      page.value = 1
-      show.value = current.value.counts.errors ? 'errors' : 'all'
-      await fetchRows()
+      watchProgress()
     } finally {
       isBusy.value = false
     }
+  }
+
+  /** The rows of a finished dry run, those with problems first when there are any. */
+  async function showChecked() {
+    page.value = 1
+    show.value = current.value?.counts.errors ? 'errors' : 'all'
+    await fetchRows()
   }
 
   async function run(defectCodeId: string | null) {
@@ -109,16 +114,20 @@ export const useImportsStore = defineStore('imports', () => {
     }
   }
 
-  /** Polls the import while its job waits or runs, then reloads the rows with their outcomes. */
+  /**
+   * Polls the import while its dry run or its import job waits or runs, then reloads the rows:
+   * with their problems after a dry run, with their outcomes after the import.
+   */
   function watchProgress() {
     clearTimeout(timer)
     const imp = current.value
-    if (!imp || !['queued', 'running'].includes(imp.status)) return
+    if (!imp || !['checking', 'queued', 'running'].includes(imp.status)) return
     timer = setTimeout(async () => {
       try {
         const next = await importsApi.get(imp.id)
         if (current.value?.id !== imp.id) return
         current.value = next
+        if (imp.status === 'checking' && next.status !== 'checking') await showChecked()
         if (next.status === 'done' || next.status === 'failed') {
           show.value = 'all'
           await Promise.all([fetchRows(), fetchRecent()])

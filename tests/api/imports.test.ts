@@ -4,7 +4,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ImportDto, ImportRowDto } from '../../shared/schemas/imports'
 import { db, ImportRow } from '../../server/models'
 import { closeImportsQueue } from '../../server/queues/imports'
-import { processImport } from '../../server/services/imports'
+import {
+  checkImport,
+  failImport,
+  pendingImports,
+  processImport,
+} from '../../server/services/imports'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
@@ -63,7 +68,10 @@ describe('bench data import', () => {
     (await lead.get(`/api/imports/${id}/rows?pageSize=500`).expect(200)).body.rows
   const uploadAndCheck = async (body: Buffer): Promise<ImportDto> => {
     const up = await upload(lead, body).expect(201)
-    return (await lead.post(`/api/imports/${up.body.id}/dry-run`).expect(200)).body
+    const asked = await lead.post(`/api/imports/${up.body.id}/dry-run`).expect(202)
+    expect(asked.body).toMatchObject({ status: 'checking', progress: 0 })
+    await checkImport(up.body.id) // the job, run here rather than by a worker
+    return (await lead.get(`/api/imports/${up.body.id}`).expect(200)).body
   }
 
   beforeAll(async () => {
@@ -139,6 +147,45 @@ describe('bench data import', () => {
       operatorColumn: 'Operator',
       checkColumns: { vout: 'Vout (V)' },
     })
+  })
+
+  it('checks a file in a job that the sweeper finds again, runs once, and can fail without loss', async () => {
+    await saveMapping()
+    const t = await lot(2)
+    await wind(t, 2)
+    const up = await upload(lead, csv(t.units.map((u) => [u.serial, '350']))).expect(201)
+    const id = up.body.id as string
+    await lead.post(`/api/imports/${id}/dry-run`).expect(202)
+    const twice = await lead.post(`/api/imports/${id}/dry-run`)
+    expect(twice.status).toBe(409)
+    expect(twice.body.message).toBe('this file is being checked; wait for the rows')
+    // A job lost while Redis was away: the sweeper sees the import still checking.
+    const later = new Date(Date.now() + 60_000)
+    expect((await pendingImports(later, 30_000)).filter((p) => p.id === id)).toEqual([
+      expect.objectContaining({ id, kind: 'check' }),
+    ])
+    const seen: number[] = []
+    await checkImport(id, async (p) => void seen.push(p))
+    expect(seen).toEqual([50, 100])
+    const checked = (await lead.get(`/api/imports/${id}`).expect(200)).body as ImportDto
+    expect(checked).toMatchObject({ status: 'checked', counts: { ready: 2, errors: 0 } })
+    // The transaction that wrote each row (xmin): a plan written again would show a new one.
+    const rowIds = async () =>
+      db().query<{ n: number; x: string }>(
+        'SELECT row_number AS n, xmin::text AS x FROM import_rows WHERE import_id = :id ORDER BY 1',
+        { replacements: { id }, type: QueryTypes.SELECT },
+      )
+    const first = await rowIds()
+    await checkImport(id) // a second run of the same job changes nothing
+    expect(await rowIds()).toEqual(first)
+    // A check that cannot finish leaves the last good plan in place, with the reason.
+    await lead.post(`/api/imports/${id}/dry-run`).expect(202)
+    await failImport(id, 'the object store did not answer')
+    expect((await lead.get(`/api/imports/${id}`).expect(200)).body).toMatchObject({
+      status: 'checked',
+      error: 'the object store did not answer',
+    })
+    expect(await rowIds()).toEqual(first)
   })
 
   it('dry-runs every row: what would be recorded and each kind of error, writing no step run', async () => {
