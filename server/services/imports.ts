@@ -610,6 +610,8 @@ export async function requestImportRun(
     const imp = await loadImport(id, transaction, true)
     if (imp.status === 'uploaded')
       throw AppError.conflict('not_checked', 'run the dry run first, then import')
+    if (imp.status === 'checking')
+      throw AppError.conflict('import_checking', 'this file is being checked; wait for the rows')
     if (imp.status !== 'checked')
       throw AppError.conflict(
         'import_started',

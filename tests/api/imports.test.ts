@@ -159,6 +159,9 @@ describe('bench data import', () => {
     const twice = await lead.post(`/api/imports/${id}/dry-run`)
     expect(twice.status).toBe(409)
     expect(twice.body.message).toBe('this file is being checked; wait for the rows')
+    const tooSoon = await lead.post(`/api/imports/${id}/run`, {})
+    expect(tooSoon.status).toBe(409)
+    expect(tooSoon.body.message).toBe('this file is being checked; wait for the rows')
     // A job lost while Redis was away: the sweeper sees the import still checking.
     const later = new Date(Date.now() + 60_000)
     expect((await pendingImports(later, 30_000)).filter((p) => p.id === id)).toEqual([
