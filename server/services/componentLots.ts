@@ -189,31 +189,30 @@ export async function setComponentLotStatus(
   return db().transaction(async (transaction) => {
     // A contained lot leaves quarantine only when its containment ends (containment.ts), which
     // also decides its units.
-    const held = await unitsHeldByContainment(id, transaction)
-    if (held > 0)
+    const lot = await ComponentLot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    const held = lot?.status === 'quarantined' ? await containedUnitIds(id, transaction) : []
+    if (held.length > 0)
       throw AppError.conflict(
         'lot_contained',
-        `${held} unit(s) are held by the containment of this lot: end the containment on its recall page in Trace, which also moves the lot`,
+        `${held.length} unit(s) are held by the containment of this lot: end the containment on its recall page in Trace, which also moves the lot`,
       )
     return moveComponentLotStatus(id, input, actor, transaction)
   })
 }
 
-/** How many units the containment of a quarantined lot still holds (0 for any other lot). */
-export async function unitsHeldByContainment(
+/** The units on a containment's hold that hold this component lot. */
+export async function containedUnitIds(
   componentLotId: string,
   transaction?: Transaction,
-): Promise<number> {
-  const [row] = await db().query<{ n: number }>(
-    `SELECT count(DISTINCT u.id)::int AS n
-       FROM consumptions co
-       JOIN units u ON u.id = co.unit_id
-       JOIN component_lots cl ON cl.id = co.component_lot_id
-      WHERE co.component_lot_id = :componentLotId AND cl.status = 'quarantined'
+): Promise<string[]> {
+  const rows = await db().query<{ id: string }>(
+    `SELECT DISTINCT u.id
+       FROM consumptions co JOIN units u ON u.id = co.unit_id
+      WHERE co.component_lot_id = :componentLotId
         AND u.state = 'on_hold' AND u.hold_kind = 'containment'`,
     { replacements: { componentLotId }, type: QueryTypes.SELECT, transaction },
   )
-  return row!.n
+  return rows.map((r) => r.id)
 }
 
 /**

@@ -13,7 +13,7 @@ import { AppError } from '../errors'
 import { ComponentLot, db, Lot, RouteStep, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
-import { moveComponentLotStatus } from './componentLots'
+import { containedUnitIds, moveComponentLotStatus } from './componentLots'
 import { verifyCountersign } from './countersign'
 import { findComponentLot, recallScope } from './recall'
 import { reworkTarget, scrapUnit, sendToRework, unitSummary } from './unitMoves'
@@ -49,6 +49,23 @@ async function fittedLots(unitId: string, transaction: Transaction): Promise<Fit
 const quarantinedCodes = (fitted: FittedLot[]) =>
   fitted.filter((f) => f.status === 'quarantined').map((f) => f.code)
 
+/** For each unit, the quarantined component lots fitted in it other than `exceptLotId`. */
+async function otherQuarantinedLots(
+  unitIds: readonly string[],
+  exceptLotId: string,
+  transaction: Transaction,
+): Promise<Map<string, string[]>> {
+  if (!unitIds.length) return new Map()
+  const rows = await db().query<{ unit_id: string; codes: string[] }>(
+    `SELECT co.unit_id, array_agg(DISTINCT cl.internal_code ORDER BY cl.internal_code) AS codes
+       FROM consumptions co JOIN component_lots cl ON cl.id = co.component_lot_id
+      WHERE co.unit_id IN (:unitIds) AND cl.status = 'quarantined' AND cl.id <> :exceptLotId
+      GROUP BY co.unit_id`,
+    { replacements: { unitIds, exceptLotId }, type: QueryTypes.SELECT, transaction },
+  )
+  return new Map(rows.map((r) => [r.unit_id, r.codes]))
+}
+
 /** Back to where the unit stood when it was held; its step never changed while it was held. */
 function releasedFields(unit: Unit) {
   return {
@@ -82,15 +99,7 @@ export async function endContainment(
         `component lot ${lot.internalCode} is ${lot.status.replace('_', ' ')}, not quarantined: there is no containment to end`,
       )
     const units = await Unit.findAll({
-      where: {
-        state: 'on_hold',
-        holdKind: 'containment',
-        id: {
-          [Op.in]: db().literal(
-            `(SELECT unit_id FROM consumptions WHERE component_lot_id = ${db().escape(lot.id)})`,
-          ),
-        },
-      },
+      where: { id: await containedUnitIds(lot.id, transaction) },
       order: [['serial', 'ASC']],
       transaction,
       lock: transaction.LOCK.UPDATE,
@@ -109,10 +118,15 @@ export async function endContainment(
     if (isCleared && lot.quantityRemaining === 0)
       await ComponentLot.update({ status: 'used_up' }, { where: { id: lot.id }, transaction })
 
+    const othersOf = await otherQuarantinedLots(
+      units.map((u) => u.id),
+      lot.id,
+      transaction,
+    )
     const released: string[] = []
     const stillHeld: EndContainmentResultDto['stillHeld'] = []
     for (const unit of units) {
-      const others = quarantinedCodes(await fittedLots(unit.id, transaction))
+      const others = othersOf.get(unit.id) ?? []
       const before = { state: unit.state, holdReason: unit.holdReason }
       if (isCleared && others.length === 0) {
         await unit.update(releasedFields(unit), { transaction })
@@ -162,7 +176,7 @@ async function containedUnitOf(
   scanned: string,
   transaction: Transaction,
   lock: boolean,
-): Promise<{ unit: Unit; dto: ContainedUnitDto; revisionId: string }> {
+): Promise<{ unit: Unit; dto: ContainedUnitDto; revisionId: string; maxPosition: number }> {
   const serial = codeFromScan(scanned)
   const unit = await Unit.findOne({
     where: { serial },
@@ -187,6 +201,7 @@ async function containedUnitOf(
   return {
     unit,
     revisionId,
+    maxPosition,
     dto: {
       serial: unit.serial,
       state: unit.state,
@@ -221,7 +236,7 @@ export async function decideContainedUnit(
   actor: Actor & { role: string },
 ): Promise<UnitSummaryDto> {
   return db().transaction(async (transaction) => {
-    const { unit, dto, revisionId } = await containedUnitOf(scanned, transaction, true)
+    const { unit, dto, revisionId, maxPosition } = await containedUnitOf(scanned, transaction, true)
     if (dto.stillContainedBy.length)
       throw AppError.conflict(
         'still_contained',
@@ -230,7 +245,6 @@ export async function decideContainedUnit(
     const before = { state: unit.state, holdReason: unit.holdReason }
     let countersignedBy: string | null = null
     if (input.decision === 'rework') {
-      const maxPosition = Math.min(...dto.rejectedLots.map((r) => r.fittedAtStep.position))
       const target = await reworkTarget(
         input.reworkToStepId,
         revisionId,
@@ -243,11 +257,10 @@ export async function decideContainedUnit(
       const current = unit.currentStepId
         ? await RouteStep.findByPk(unit.currentStepId, { transaction })
         : null
-      const last = await RouteStep.max<number, RouteStep>('position', {
-        where: { revisionId },
-        transaction,
-      })
-      await sendToRework(unit, target, current ? current.position - 1 : last, transaction)
+      const until = current
+        ? current.position - 1
+        : await RouteStep.max<number, RouteStep>('position', { where: { revisionId }, transaction })
+      await sendToRework(unit, target, until, transaction)
     } else if (input.decision === 'scrap') {
       await scrapUnit(unit, transaction)
     } else {
