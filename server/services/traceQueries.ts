@@ -6,8 +6,9 @@
 /**
  * A unit's whole history in one round trip: the header row joined from unit to product and
  * shipment, and each list as a JSON array built by a sub-select that reads one index
- * (step_runs_unit_idx, measurements' (step_run_id, check_id), consumptions_unit_idx,
- * nonconformances_unit_idx, documents_{lot,unit,shipment}_idx, service_cases_unit_idx).
+ * (step_runs' (unit_id, step_id, attempt), measurements' (step_run_id, check_id),
+ * consumptions_unit_idx, nonconformances_unit_idx, documents_{lot,unit,shipment}_idx,
+ * service_cases_unit_idx).
  */
 export const UNIT_TRACE_SQL = `
 SELECT
