@@ -363,6 +363,8 @@ export async function planRows(
   station: Station,
   sha256: string,
   importId: string,
+  /** Told how many rows are planned, about fifty times over the table. */
+  onPlanned: (done: number, total: number) => Promise<void> = async () => {},
 ): Promise<RowPlan[]> {
   const col = new Map(table.columns.map((c, i) => [c, i]))
   const cell = (row: string[], column: string | null) =>
@@ -380,7 +382,9 @@ export async function planRows(
   const unknownWords = new Map<string, string>()
   const firstRowOf = new Map<string, number>()
   const out: RowPlan[] = []
+  const every = Math.max(1, Math.floor(table.rows.length / 50))
   for (const [i, row] of table.rows.entries()) {
+    if (i > 0 && i % every === 0) await onPlanned(i, table.rows.length)
     const rowNumber = i + 2
     const serial = serials[i]!
     const errors: string[] = []
@@ -517,6 +521,27 @@ export async function requestDryRun(id: string, actor: Actor): Promise<Import> {
   })
 }
 
+/** The share of a dry run's progress bar that planning the rows fills; storing them fills the rest. */
+const PLANNED_SHARE = 80
+
+/**
+ * Reports a job's progress to its imports row (which the screen polls) and to the job: at most
+ * one write every 2 %, never backwards, and below 100 until the caller says it is done.
+ */
+function progressReporter(imp: Import, onProgress: (percent: number) => Promise<void>) {
+  let last = -1
+  return async (percent: number) => {
+    const rounded = Math.min(99, Math.floor(percent))
+    if (rounded < last + 2) return // a write every 2 % is plenty for a progress bar
+    last = rounded
+    await imp.update({ progress: rounded })
+    await onProgress(rounded)
+  }
+}
+
+/** Rolls a dry run's stored rows back: the import stopped checking while they were written. */
+class NoLongerChecking extends Error {}
+
 /**
  * The dry run's job: plans every row with the mapping the request kept and stores the plan
  * (replacing an earlier dry run's), so the import runs exactly what was shown. Writes no step
@@ -529,34 +554,46 @@ export async function checkImport(
   const first = await Import.findByPk(id)
   if (first?.status !== 'checking' || !first.mapping) return
   const station = (await Station.findByPk(first.stationId))!
+  const report = progressReporter(first, onProgress)
+  // Planning the rows is most of the work; storing them the rest.
   const rows = await planRows(
     await readTable(first),
     first.mapping,
     station,
     first.sha256,
     first.id,
+    (done, total) => report((done / total) * PLANNED_SHARE),
   )
-  await first.update({ progress: 50 })
-  await onProgress(50)
+  await report(PLANNED_SHARE)
   const ready = rows.filter((r) => r.errors.length === 0).length
-  await db().transaction(async (transaction) => {
-    const imp = await loadImport(id, transaction, true)
-    if (imp.status !== 'checking') return
-    await ImportRow.destroy({ where: { importId: id }, transaction })
-    for (let i = 0; i < rows.length; i += CHUNK)
-      await ImportRow.bulkCreate(rows.slice(i, i + CHUNK), { transaction })
-    await imp.update(
-      {
-        status: 'checked',
-        progress: 0,
-        readyCount: ready,
-        errorCount: rows.length - ready,
-        checkedAt: new Date(),
-      },
-      { transaction },
-    )
-  })
-  await onProgress(100)
+  const isStored = await db()
+    .transaction(async (transaction) => {
+      // The import is locked only at the end, so the progress written meanwhile (outside this
+      // transaction) never waits for it; a dry run no longer wanted is rolled back then.
+      await ImportRow.destroy({ where: { importId: id }, transaction })
+      for (let i = 0; i < rows.length; i += CHUNK) {
+        await ImportRow.bulkCreate(rows.slice(i, i + CHUNK), { transaction })
+        await report(PLANNED_SHARE + ((i + CHUNK) / rows.length) * (100 - PLANNED_SHARE))
+      }
+      const imp = await loadImport(id, transaction, true)
+      if (imp.status !== 'checking') throw new NoLongerChecking()
+      await imp.update(
+        {
+          status: 'checked',
+          progress: 0,
+          readyCount: ready,
+          errorCount: rows.length - ready,
+          checkedAt: new Date(),
+        },
+        { transaction },
+      )
+      return true
+    })
+    .catch((err: unknown) => {
+      if (err instanceof NoLongerChecking) return false
+      throw err
+    })
+  if (isStored) await onProgress(100)
 }
 
 function toRowDto(r: ImportRow): ImportRowDto {
@@ -738,14 +775,8 @@ export async function processImport(
   await imp.update({ status: 'running', startedAt: imp.startedAt ?? new Date(), error: null })
   const total = await ImportRow.count({ where: readyWhere(id) })
   let done = await ImportRow.count({ where: { ...readyWhere(id), outcome: { [Op.ne]: null } } })
-  let last = -1
-  const progress = async () => {
-    const percent = total ? Math.min(99, Math.floor((done / total) * 100)) : 99
-    if (percent < last + 2) return // a write every 2 % is plenty for a progress bar
-    last = percent
-    await imp.update({ progress: percent })
-    await onProgress(percent)
-  }
+  const report = progressReporter(imp, onProgress)
+  const progress = () => report(total ? (done / total) * 100 : 99)
   // Outcomes are written 50 at a time, in one statement: a crash loses at most the last few
   // rows' words, and the retry finds those step runs by event id and calls them repeats.
   let pending: Outcome[] = []
