@@ -193,6 +193,7 @@ if (profiler) {
   await profiler.post('Profiler.enable')
   await profiler.post('Profiler.start')
 }
+console.error(`scan saturation: started (pid ${process.pid})`)
 const scan = await run(scanUrl, scanBody, scanHeaders, { amount: REQUESTS })
 if (profiler) {
   const { profile } = await profiler.post('Profiler.stop')
