@@ -70,7 +70,10 @@ interface Result {
   cpu: { node: number; postgres: number }
 }
 
-/** CPU seconds used so far by every PostgreSQL process (user + system, from /proc). */
+/**
+ * CPU seconds used so far by PostgreSQL (user + system, from /proc): every live server process,
+ * plus what the postmaster's ended children used, so a pool connection closed mid-run still counts.
+ */
 function postgresCpuSeconds(): number {
   let ticks = 0
   for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
@@ -79,7 +82,8 @@ function postgresCpuSeconds(): number {
       const close = stat.lastIndexOf(')')
       if (!stat.slice(stat.indexOf('(') + 1, close).startsWith('postgres')) continue
       const fields = stat.slice(close + 2).split(' ')
-      ticks += Number(fields[11]) + Number(fields[12])
+      // utime, stime, and cutime, cstime (the ended children's, nonzero for the postmaster)
+      ticks += Number(fields[11]) + Number(fields[12]) + Number(fields[13]) + Number(fields[14])
     } catch {
       // the process ended while we read
     }

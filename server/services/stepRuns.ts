@@ -1,7 +1,5 @@
 import { randomUUID } from 'node:crypto'
 import type { Transaction } from 'sequelize'
-import type { LotStatus, UnitState } from '../../shared/lots'
-import type { StationKind } from '../../shared/stations'
 import { evaluateChecks } from '../../shared/recipes/evaluate'
 import type { CheckResult } from '../../shared/recipes/evaluate'
 import type { StepRunInput, StepRunResultDto } from '../../shared/schemas/lots'
@@ -10,8 +8,8 @@ import { codeFromScan } from '../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../shared/serials'
 import { AppError } from '../errors'
 import { sqlPool } from '../db/pool'
-import { isUniqueViolation, namedSql, txQuery } from '../db/txSql'
-import type { NamedSql } from '../db/txSql'
+import { coalesce } from '../db/coalesce'
+import { isUniqueViolation, txQuery } from '../db/txSql'
 import { db, Nonconformance, StepRun, Unit } from '../models'
 import type { Actor } from './audit'
 import { applyConsumptions, planConsumptions } from './consumptions'
@@ -21,6 +19,22 @@ import { unitRefusal } from './floorRules'
 import { unitAfterRun, unitSummary } from './unitMoves'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
+import {
+  LOCK_UNIT,
+  READ_SCANS,
+  readScansValues,
+  SCAN_CONTEXT,
+  WRITE_RUNS,
+  writeRunsValues,
+} from './stepRunSql'
+import type {
+  MeasurementRow,
+  RunWrite,
+  ScanContext,
+  ScanKey,
+  ScanRow,
+  ScannedUnit,
+} from './stepRunSql'
 
 const stepRef = (s: StepPlan) => ({
   id: s.id,
@@ -92,7 +106,10 @@ function checkTypedValues(checks: CheckDto[], values: StepRunInput['values']): v
   if (first) throw AppError.badRequest(`${first[0]}: ${first[1]}`, fields)
 }
 
-function measurementRows(checks: CheckDto[], results: Record<string, CheckResult>) {
+function measurementRows(
+  checks: CheckDto[],
+  results: Record<string, CheckResult>,
+): MeasurementRow[] {
   return checks.map((c) => {
     const r = results[c.key]!
     return {
@@ -106,155 +123,34 @@ function measurementRows(checks: CheckDto[], results: Record<string, CheckResult
   })
 }
 
-/** The unit row as a scan reads it; `runCount` is its version (every run adds one). */
-interface ScannedUnit {
-  id: string
-  serial: string
-  lotId: string
-  state: UnitState
-  currentStepId: string | null
-  reworkCount: number
-  reworkUntilPosition: number | null
-  finishedAt: Date | null
-  holdReason: string
-  holdKind: Unit['holdKind']
-  heldFromState: UnitState | null
-  runCount: number
-}
-
-/** What else a scan needs to know about the unit's lot, the station and the submission. */
-interface ScanContext {
-  lotNumber: string
-  lotStatus: LotStatus
-  lotIsOnHold: boolean
-  lotHoldReason: string
-  stationId: string | null
-  stationCode: string
-  stationName: string
-  stationKind: StationKind
-  stationIsActive: boolean
-  earlierId: string | null
-  runsAtStep: number
-  isDefectCodeKnown: boolean
-}
-
-type ScanRow = ScannedUnit & ScanContext
-
-const UNIT_COLUMNS = `
-  u.id, u.serial, u.lot_id AS "lotId", u.state, u.current_step_id AS "currentStepId",
-  u.rework_count AS "reworkCount", u.rework_until_position AS "reworkUntilPosition",
-  u.finished_at AS "finishedAt", u.hold_reason AS "holdReason", u.hold_kind AS "holdKind",
-  u.held_from_state AS "heldFromState", u.run_count AS "runCount"`
-const CONTEXT_COLUMNS = (unitId: string, stepId: string, defectCodeId: string) => `
-  l.number AS "lotNumber", l.status AS "lotStatus", l.is_on_hold AS "lotIsOnHold",
-  l.hold_reason AS "lotHoldReason",
-  s.id AS "stationId", s.code AS "stationCode", s.name AS "stationName",
-  s.kind AS "stationKind", s.is_active AS "stationIsActive",
-  e.id AS "earlierId",
-  (SELECT count(*)::int FROM step_runs r WHERE r.unit_id = ${unitId} AND r.step_id = ${stepId}) AS "runsAtStep",
-  (${defectCodeId}::uuid IS NULL OR EXISTS (SELECT 1 FROM defect_codes d WHERE d.id = ${defectCodeId})) AS "isDefectCodeKnown"`
-
 // Most scans run as two statements on the plain pool, without a transaction of their own: one
 // read of everything the scan needs, then one write that moves the unit only if it is still as
-// read (see writeRunText). The UPDATE takes the unit's row lock inside the write's own
-// transaction, so a second station waits for the first and then finds the unit changed.
-const READ_UNLOCKED = namedSql(
-  'scan-read',
-  `
-  SELECT ${UNIT_COLUMNS}, ${CONTEXT_COLUMNS('u.id', 'u.current_step_id', '$4')}
-    FROM units u
-    JOIN lots l ON l.id = u.lot_id
-    LEFT JOIN stations s ON s.code = $2
-    LEFT JOIN step_runs e ON e.client_event_id = $3
-   WHERE u.serial = $1`,
-)
+// read (see WRITE_RUNS). The UPDATE takes the unit's row lock inside the write's own
+// transaction, so a second station waits for the first and then finds the unit changed. Scans
+// that arrive together share each statement: under load, many scans cost two round trips.
+const readScan = coalesce(async (keys: ScanKey[]): Promise<(ScanRow | null)[]> => {
+  const { rows } = await sqlPool().query<ScanRow & { index: number }>({
+    ...READ_SCANS,
+    values: readScansValues(keys),
+  })
+  const found: (ScanRow | null)[] = keys.map(() => null)
+  for (const { index, ...row } of rows) found[index - 1] = row
+  return found
+})
 
-// A scan that consumes component lots, needs a second sign-off, or found the unit changed
-// between its read and its write runs in a transaction that locks the unit first (four round
-// trips: lock, context, write, commit, where the ORM took fifteen).
-const LOCK_UNIT = namedSql(
-  'scan-lock-unit',
-  `SELECT ${UNIT_COLUMNS} FROM units u WHERE u.serial = $1 FOR UPDATE`,
-)
+/** Writes the runs of a batch; answers, for each, whether its unit moved (and so was written). */
+const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
+  const { rows } = await sqlPool().query<{ runId: string }>({
+    ...WRITE_RUNS,
+    values: writeRunsValues(batch),
+  })
+  const written = new Set(rows.map((r) => r.runId))
+  return batch.map((w) => written.has(w.runId))
+})
 
-// A statement of its own after the lock, so that under READ COMMITTED it sees whatever the
-// transaction we waited for committed (its step run, its event id).
-const SCAN_CONTEXT = namedSql(
-  'scan-context',
-  `
-  SELECT ${CONTEXT_COLUMNS('$1', '$2', '$5')}
-    FROM lots l
-    LEFT JOIN stations s ON s.code = $3
-    LEFT JOIN step_runs e ON e.client_event_id = $4
-   WHERE l.id = $6`,
-)
-
-/**
- * The one statement that writes a step run: the unit's move with its run counters, the run, its
- * measurements, the lot's day with a run (both read by the Yield board, yieldQueries.ts), the
- * lot's first start, the nonconformance of a fail and the audit row. The move happens only if
- * the unit is still at the run count, state, step and rework count the scan read, and
- * everything else only if the unit moved: the statement answers how many units moved (0 or 1).
- */
-function writeRunText(isFail: boolean): string {
-  return `
-  WITH moved AS (
-    UPDATE units SET state = $19, current_step_id = $20, rework_until_position = $21,
-                     finished_at = $22, hold_kind = $23, held_from_state = $24,
-                     hold_reason = $25, updated_at = $12,
-                     run_count = run_count + 1,
-                     fail_count = fail_count + ${isFail ? 1 : 0},
-                     first_attempt_count = first_attempt_count + CASE WHEN $7 = 1 THEN 1 ELSE 0 END
-     WHERE id = $2 AND run_count = $31 AND rework_count = $33
-       -- Not indexable on purpose: with '=' the planner may walk units_step_state_idx over
-       -- every unit queued at the step (a whole lot) instead of taking the primary key.
-       AND state IS NOT DISTINCT FROM $32 AND current_step_id IS NOT DISTINCT FROM $3
-    RETURNING id
-  ), run AS (
-    INSERT INTO step_runs (id, unit_id, step_id, station_id, operator_id, countersigned_by,
-                           attempt, is_rework, result, note, client_event_id, started_at, finished_at)
-    SELECT $1::uuid, $2::uuid, $3::uuid, $4::uuid, $5::uuid, $6::uuid, $7::int, $8::bool,
-           $9::step_result, $10::text, $11::uuid, $12::timestamptz, $12::timestamptz
-      FROM moved
-  ), measured AS (
-    INSERT INTO measurements (step_run_id, check_id, value_number, value_text, value_boolean,
-                              is_derived, is_pass)
-    SELECT $1::uuid, m.*
-      FROM moved,
-           unnest($13::uuid[], $14::float8[], $15::text[], $16::bool[], $17::bool[], $18::bool[]) m
-  ), dated AS (
-    INSERT INTO lot_run_days (lot_id, day)
-    SELECT $26::uuid, ($12::timestamptz AT TIME ZONE 'UTC')::date FROM moved
-    ON CONFLICT DO NOTHING
-  ), started AS (
-    UPDATE lots SET status = 'in_progress', updated_at = $12
-     WHERE id = $26 AND status = 'released' AND EXISTS (SELECT 1 FROM moved)
-  ), audited AS (
-    INSERT INTO audit_events (at, actor_id, actor_email, action, entity, entity_id, after, ip, request_id)
-    SELECT $12::timestamptz, $5::uuid, $27::text, 'step_run.record', 'unit', $2::text,
-           $28::jsonb, $29::text, $30::text
-      FROM moved
-  )${
-    isFail
-      ? `, opened AS (
-    INSERT INTO nonconformances (id, unit_id, step_run_id, defect_code_id, description,
-                                 failed_checks, opened_by, opened_at)
-    SELECT $34::uuid, $2::uuid, $1::uuid, $35::uuid, $10::text, $36::jsonb, $5::uuid,
-           $12::timestamptz
-      FROM moved
-  )`
-      : ''
-  }
-  SELECT count(*)::int AS moved FROM moved`
-}
-/** The write of a passing run; exported so a test can read the plan PostgreSQL picks for it. */
-export const WRITE_PASS = namedSql('scan-write-pass', writeRunText(false))
-const WRITE_FAIL = namedSql('scan-write-fail', writeRunText(true))
-
-/** A scan decided: the write's statement and values, and what to answer once it is written. */
+/** A scan decided: what it writes, and what to answer once it is written. */
 interface Decision {
-  write: NamedSql
-  values: unknown[]
+  write: RunWrite
   planned: PlannedConsumption[]
   runId: string
   body: StepRunResultDto
@@ -332,7 +228,6 @@ async function decide(
   const runId = randomUUID()
   const failedKeys = failed.map((c) => c.key)
   const move = unitAfterRun(row, step, failedKeys, now)
-  const rows = measurementRows(checks, results)
   const audit = {
     serial: row.serial,
     step: step.name,
@@ -342,43 +237,32 @@ async function decide(
     countersignedBy: second?.email ?? null,
   }
   const ncId = result === 'fail' ? randomUUID() : null
-  const values = [
+  const write: RunWrite = {
     runId,
-    row.id,
-    step.id,
-    row.stationId,
-    actor.id,
-    second?.id ?? null,
+    unitId: row.id,
+    stepId: step.id,
+    stationId: row.stationId,
+    operatorId: actor.id,
+    countersignedBy: second?.id ?? null,
     attempt,
-    row.state === 'in_rework',
+    isRework: row.state === 'in_rework',
     result,
-    input.note,
-    input.clientEventId,
-    now,
-    rows.map((r) => r.checkId),
-    rows.map((r) => r.valueNumber),
-    rows.map((r) => r.valueText),
-    rows.map((r) => r.valueBoolean),
-    rows.map((r) => r.isDerived),
-    rows.map((r) => r.isPass),
-    move.state,
-    move.currentStepId,
-    move.reworkUntilPosition,
-    move.finishedAt,
-    move.holdKind,
-    move.heldFromState,
-    move.holdReason,
-    row.lotId,
-    actor.email,
-    JSON.stringify(audit),
-    actor.ip ?? null,
-    actor.requestId ?? null,
+    note: input.note,
+    clientEventId: input.clientEventId,
+    at: now,
+    measurements: measurementRows(checks, results),
+    move,
+    lotId: row.lotId,
+    actorEmail: actor.email,
+    audit: JSON.stringify(audit),
+    ip: actor.ip ?? null,
+    requestId: actor.requestId ?? null,
     // The unit as read: the write moves it only if it is still so.
-    row.runCount,
-    row.state,
-    row.reworkCount,
-    ...(ncId ? [ncId, input.defectCodeId, JSON.stringify(failedKeys)] : []),
-  ]
+    read: { runCount: row.runCount, state: row.state, reworkCount: row.reworkCount },
+    nonconformance: ncId
+      ? { id: ncId, defectCodeId: input.defectCodeId!, failedChecks: JSON.stringify(failedKeys) }
+      : null,
+  }
   const body: StepRunResultDto = {
     stepRun: { id: runId, result, attempt },
     unit: {
@@ -389,14 +273,14 @@ async function decide(
     },
     nonconformanceId: ncId,
   }
-  const write = result === 'fail' ? WRITE_FAIL : WRITE_PASS
-  return { write, values, planned, runId, body, lotId: row.lotId, stepId: step.id }
+  return { write, planned, runId, body, lotId: row.lotId, stepId: step.id }
 }
 
 type Recorded = { body: StepRunResultDto; lotId: string; stepId: string } | { repeatOf: string }
 
 /**
- * The fast path: one read and one write on the plain pool. Answers null when the scan needs the
+ * The fast path: one read and one write on the plain pool, each shared with the scans that arrive
+ * at the same time. Answers null when the scan needs the
  * locked path: it consumes component lots or needs a second sign-off, or the unit changed
  * between the read and the write (the write then changed nothing).
  */
@@ -406,21 +290,17 @@ async function recordUnlocked(
   at: Date,
 ): Promise<Recorded | null> {
   const serial = codeFromScan(input.serial)
-  const pool = sqlPool()
-  const read = await pool.query<ScanRow>({
-    ...READ_UNLOCKED,
-    values: [serial, input.stationCode, input.clientEventId, input.defectCodeId],
+  const row = await readScan({
+    serial,
+    stationCode: input.stationCode,
+    clientEventId: input.clientEventId,
+    defectCodeId: input.defectCodeId,
   })
-  const row = read.rows[0]
   if (!row) throw noSuchUnit(serial)
   const decision = await decide(row, input, actor, at, null)
   if (decision === 'needs_lock') return null
   if ('repeatOf' in decision) return decision
-  const written = await pool.query<{ moved: number }>({
-    ...decision.write,
-    values: decision.values,
-  })
-  return written.rows[0]!.moved === 1 ? decision : null
+  return (await writeRun(decision.write)) ? decision : null
 }
 
 /** The locked path: the unit's row lock first, then the context, the write and its consumptions. */
@@ -446,8 +326,12 @@ async function recordLocked(
   const decision = await decide({ ...unit, ...ctx! }, input, actor, at, transaction)
   if (decision === 'needs_lock') throw new Error('recordLocked: a locked scan needs no more locks')
   if ('repeatOf' in decision) return decision
-  const [written] = await txQuery<{ moved: number }>(transaction, decision.write, decision.values)
-  if (written!.moved !== 1) throw new Error(`recordLocked: ${serial} did not move under its lock`)
+  const written = await txQuery<{ runId: string }>(
+    transaction,
+    WRITE_RUNS,
+    writeRunsValues([decision.write]),
+  )
+  if (written.length !== 1) throw new Error(`recordLocked: ${serial} did not move under its lock`)
   if (decision.planned.length > 0)
     await applyConsumptions(decision.planned, unit.id, decision.runId, transaction)
   return decision

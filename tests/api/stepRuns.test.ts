@@ -4,7 +4,9 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { formatSerial } from '../../shared/serials'
 import { sqlPool } from '../../server/db/pool'
 import { ComponentLot, db } from '../../server/models'
-import { WRITE_PASS } from '../../server/services/stepRuns'
+import { recordStepRun } from '../../server/services/stepRuns'
+import { WRITE_RUNS, writeRunsValues } from '../../server/services/stepRunSql'
+import { StepRunInput } from '../../shared/schemas/lots'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
@@ -272,6 +274,54 @@ describe('step runs at the Floor', () => {
     expect(await count(counters, { serial })).toBe(2)
   })
 
+  it('records scans of many units that share one read and one write, each on its own', async () => {
+    // Called in one turn of the event loop, these eight load tests share the scan's read and its
+    // write (server/db/coalesce.ts); one fails, and one reuses another unit's event id, which
+    // fails the shared write so that each is run again alone.
+    const t = await lot(8)
+    const serials = t.units.map((u) => u.serial)
+    for (const serial of serials)
+      await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
+    const me = (await operator.get('/api/auth/me').expect(200)).body.user
+    const actor = { id: me.id, email: me.email, ip: '127.0.0.1', requestId: 'batch-test' }
+    const inputs = serials.map((serial, i) =>
+      StepRunInput.parse(
+        loadTestRun(serial, i === 1 ? 340 : 350, i === 1 ? { defectCodeId: defectId } : {}),
+      ),
+    )
+    inputs[7]!.clientEventId = inputs[6]!.clientEventId
+    const out = await Promise.allSettled(inputs.map((input) => recordStepRun(input, actor)))
+    const done = out.map((o) => (o.status === 'fulfilled' ? o.value : null))
+    for (const i of [0, 2, 3, 4, 5])
+      expect(done[i]).toMatchObject({ isRepeat: false, body: { stepRun: { result: 'pass' } } })
+    expect(done[1]).toMatchObject({ isRepeat: false, body: { stepRun: { result: 'fail' } } })
+    expect(done[1]!.body.nonconformanceId).toEqual(expect.any(String))
+    // Of the two units sharing an event id, one is recorded and the other told to submit again.
+    const pair = out.slice(6)
+    expect(pair.filter((o) => o.status === 'fulfilled')).toHaveLength(1)
+    const refused = pair.find((o) => o.status === 'rejected') as PromiseRejectedResult
+    expect(refused.reason).toMatchObject({ status: 409, code: 'event_reused' })
+    const recorded = serials.filter((_, i) => out[i]!.status === 'fulfilled')
+    const rows = await db().query<{ serial: string; runs: number; checks: number; audits: number }>(
+      `SELECT u.serial, u.run_count AS runs,
+              (SELECT count(*)::int FROM measurements m JOIN step_runs r ON r.id = m.step_run_id
+                WHERE r.unit_id = u.id) AS checks,
+              (SELECT count(*)::int FROM audit_events a WHERE a.action = 'step_run.record'
+                  AND a.entity_id = u.id::text) AS audits
+         FROM units u WHERE u.serial IN (:serials) ORDER BY u.serial`,
+      { replacements: { serials }, type: QueryTypes.SELECT },
+    )
+    for (const row of rows) {
+      const runs = recorded.includes(row.serial) ? 2 : 1
+      expect(row).toMatchObject({ runs, audits: runs })
+      // The small recipe measures two values at winding (one derived) and one at load test.
+      expect(row.checks).toBe(runs === 2 ? 3 : 2)
+    }
+    const held = `SELECT count(*) AS n FROM nonconformances n JOIN units u ON u.id = n.unit_id
+                   WHERE u.serial = :serial AND u.state = 'on_hold'`
+    expect(await count(held, { serial: serials[1] })).toBe(1)
+  })
+
   it('moves the unit through its primary key, not by walking the units queued at its step', async () => {
     // With '=' guards on state and step, a plan over units_step_state_idx read every unit of a
     // just-released lot on each scan (2000 of them in scripts/bench/scan.ts).
@@ -280,16 +330,40 @@ describe('step runs at the Floor', () => {
       'SELECT id, current_step_id, lot_id FROM units WHERE serial = :serial',
       { replacements: { serial: t.units[0]!.serial }, type: QueryTypes.SELECT },
     )
-    const values: unknown[] = Array.from({ length: 33 }, () => null)
-    const set = (n: number, v: unknown) => (values[n - 1] = v)
-    set(1, randomUUID())
-    set(2, unit!.id)
-    set(3, unit!.current_step_id)
-    set(12, new Date())
-    set(26, unit!.lot_id)
-    set(31, 0)
-    set(32, 'queued')
-    set(33, 0)
+    const at = new Date()
+    const values = writeRunsValues([
+      {
+        runId: randomUUID(),
+        unitId: unit!.id,
+        stepId: unit!.current_step_id,
+        stationId: randomUUID(),
+        operatorId: null,
+        countersignedBy: null,
+        attempt: 1,
+        isRework: false,
+        result: 'pass',
+        note: '',
+        clientEventId: randomUUID(),
+        at,
+        measurements: [],
+        move: {
+          state: 'in_progress',
+          currentStepId: unit!.current_step_id,
+          reworkUntilPosition: null,
+          finishedAt: null,
+          holdKind: null,
+          heldFromState: null,
+          holdReason: '',
+        },
+        lotId: unit!.lot_id,
+        actorEmail: null,
+        audit: '{}',
+        ip: null,
+        requestId: null,
+        read: { runCount: 0, state: 'queued', reworkCount: 0 },
+        nonconformance: null,
+      },
+    ])
     // A freshly seeded table looks tiny to the planner, which would then scan it whole; with
     // sequential scans off it must pick an index, and only the primary key may serve.
     const client = await sqlPool().connect()
@@ -298,7 +372,7 @@ describe('step runs at the Floor', () => {
         await client.query('BEGIN')
         await client.query('SET LOCAL enable_seqscan = off')
         const plan = await client.query<{ 'QUERY PLAN': unknown }>({
-          text: `EXPLAIN (FORMAT JSON) ${WRITE_PASS.text}`,
+          text: `EXPLAIN (FORMAT JSON) ${WRITE_RUNS.text}`,
           values,
         })
         return plan.rows

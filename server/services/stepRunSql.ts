@@ -1,0 +1,272 @@
+import type { LotStatus, UnitState } from '../../shared/lots'
+import type { StationKind } from '../../shared/stations'
+import { namedSql } from '../db/txSql'
+import type { Unit } from '../models'
+import type { UnitMove } from './unitMoves'
+
+// The scan's statements. The read and the write take arrays, one element per scan, so that scans
+// arriving together share one round trip (see coalesce.ts); a scan alone is a batch of one.
+
+/** The unit row as a scan reads it; `runCount` is its version (every run adds one). */
+export interface ScannedUnit {
+  id: string
+  serial: string
+  lotId: string
+  state: UnitState
+  currentStepId: string | null
+  reworkCount: number
+  reworkUntilPosition: number | null
+  finishedAt: Date | null
+  holdReason: string
+  holdKind: Unit['holdKind']
+  heldFromState: UnitState | null
+  runCount: number
+}
+
+/** What else a scan needs to know about the unit's lot, the station and the submission. */
+export interface ScanContext {
+  lotNumber: string
+  lotStatus: LotStatus
+  lotIsOnHold: boolean
+  lotHoldReason: string
+  stationId: string | null
+  stationCode: string
+  stationName: string
+  stationKind: StationKind
+  stationIsActive: boolean
+  earlierId: string | null
+  runsAtStep: number
+  isDefectCodeKnown: boolean
+}
+
+export type ScanRow = ScannedUnit & ScanContext
+
+/** What a scan reads by: the serial, the station, its event id and its defect code. */
+export interface ScanKey {
+  serial: string
+  stationCode: string
+  clientEventId: string
+  defectCodeId: string | null
+}
+
+const UNIT_COLUMNS = `
+  u.id, u.serial, u.lot_id AS "lotId", u.state, u.current_step_id AS "currentStepId",
+  u.rework_count AS "reworkCount", u.rework_until_position AS "reworkUntilPosition",
+  u.finished_at AS "finishedAt", u.hold_reason AS "holdReason", u.hold_kind AS "holdKind",
+  u.held_from_state AS "heldFromState", u.run_count AS "runCount"`
+const CONTEXT_COLUMNS = (unitId: string, stepId: string, defectCodeId: string) => `
+  l.number AS "lotNumber", l.status AS "lotStatus", l.is_on_hold AS "lotIsOnHold",
+  l.hold_reason AS "lotHoldReason",
+  s.id AS "stationId", s.code AS "stationCode", s.name AS "stationName",
+  s.kind AS "stationKind", s.is_active AS "stationIsActive",
+  e.id AS "earlierId",
+  (SELECT count(*)::int FROM step_runs r WHERE r.unit_id = ${unitId} AND r.step_id = ${stepId}) AS "runsAtStep",
+  (${defectCodeId}::uuid IS NULL OR EXISTS (SELECT 1 FROM defect_codes d WHERE d.id = ${defectCodeId})) AS "isDefectCodeKnown"`
+
+/**
+ * Everything the unlocked scans of a batch need, without a transaction: one row per scan whose
+ * serial names a unit, with `index` its place in the batch (from 1).
+ */
+export const READ_SCANS = namedSql(
+  'scan-read-batch',
+  `
+  SELECT b.i::int AS "index", ${UNIT_COLUMNS}, ${CONTEXT_COLUMNS('u.id', 'u.current_step_id', 'b.defect')}
+    FROM unnest($1::text[], $2::text[], $3::uuid[], $4::uuid[])
+           WITH ORDINALITY AS b(serial, station, event, defect, i)
+    JOIN units u ON u.serial = b.serial
+    JOIN lots l ON l.id = u.lot_id
+    LEFT JOIN stations s ON s.code = b.station
+    LEFT JOIN step_runs e ON e.client_event_id = b.event`,
+)
+
+/** The values of READ_SCANS for the keys of a batch. */
+export const readScansValues = (keys: readonly ScanKey[]): unknown[] => [
+  keys.map((k) => k.serial),
+  keys.map((k) => k.stationCode),
+  keys.map((k) => k.clientEventId),
+  keys.map((k) => k.defectCodeId),
+]
+
+// A scan that consumes component lots, needs a second sign-off, or found the unit changed
+// between its read and its write runs in a transaction that locks the unit first (four round
+// trips: lock, context, write, commit, where the ORM took fifteen).
+export const LOCK_UNIT = namedSql(
+  'scan-lock-unit',
+  `SELECT ${UNIT_COLUMNS} FROM units u WHERE u.serial = $1 FOR UPDATE`,
+)
+
+// A statement of its own after the lock, so that under READ COMMITTED it sees whatever the
+// transaction we waited for committed (its step run, its event id).
+export const SCAN_CONTEXT = namedSql(
+  'scan-context',
+  `
+  SELECT ${CONTEXT_COLUMNS('$1', '$2', '$5')}
+    FROM lots l
+    LEFT JOIN stations s ON s.code = $3
+    LEFT JOIN step_runs e ON e.client_event_id = $4
+   WHERE l.id = $6`,
+)
+
+/** One measurement of a run, as stored. */
+export interface MeasurementRow {
+  checkId: string
+  valueNumber: number | null
+  valueText: string | null
+  valueBoolean: boolean | null
+  isDerived: boolean
+  isPass: boolean
+}
+
+/** Everything one scan writes, and the unit as it was read (the write's guard). */
+export interface RunWrite {
+  runId: string
+  unitId: string
+  stepId: string
+  stationId: string
+  operatorId: string | null
+  countersignedBy: string | null
+  attempt: number
+  isRework: boolean
+  result: 'pass' | 'fail'
+  note: string
+  clientEventId: string
+  at: Date
+  measurements: MeasurementRow[]
+  move: UnitMove
+  lotId: string
+  actorEmail: string | null
+  /** The audit row's `after`, as JSON text. */
+  audit: string
+  ip: string | null
+  requestId: string | null
+  read: { runCount: number; state: UnitState; reworkCount: number }
+  /** The nonconformance a failed run opens. */
+  nonconformance: { id: string; defectCodeId: string; failedChecks: string } | null
+}
+
+/**
+ * The one statement that writes the step runs of a batch: each unit's move with its run
+ * counters, the run, its measurements, the lots' days with a run (read by the Yield board,
+ * yieldQueries.ts), the lots' first start, the nonconformance of a fail and the audit row. A
+ * unit moves only if it is still at the run count, state, step and rework count its scan read,
+ * and everything else of a scan is written only if its unit moved: the statement answers the
+ * run ids of the scans that moved their unit. Two scans of one unit in a batch move it once.
+ */
+export const WRITE_RUNS = namedSql(
+  'scan-write-batch',
+  `
+  WITH b AS (
+    SELECT * FROM unnest(
+      $1::uuid[], $2::uuid[], $3::uuid[], $4::uuid[], $5::uuid[], $6::uuid[], $7::int[],
+      $8::bool[], $9::step_result[], $10::text[], $11::uuid[], $12::timestamptz[],
+      $13::unit_state[], $14::uuid[], $15::int[], $16::timestamptz[], $17::text[],
+      $18::unit_state[], $19::text[], $20::uuid[], $21::text[], $22::text[], $23::text[],
+      $24::text[], $25::int[], $26::unit_state[], $27::int[], $28::uuid[], $29::uuid[],
+      $30::text[]
+    ) AS b(run_id, unit_id, step_id, station_id, operator_id, countersigned_by, attempt,
+           is_rework, result, note, client_event_id, at,
+           new_state, new_step_id, rework_until_position, finished_at, hold_kind,
+           held_from_state, hold_reason, lot_id, actor_email, audit, ip,
+           request_id, read_run_count, read_state, read_rework_count, nc_id, defect_code_id,
+           failed_checks)
+  ), moved AS (
+    UPDATE units u SET state = b.new_state, current_step_id = b.new_step_id,
+                       rework_until_position = b.rework_until_position,
+                       finished_at = b.finished_at, hold_kind = b.hold_kind,
+                       held_from_state = b.held_from_state, hold_reason = b.hold_reason,
+                       updated_at = b.at,
+                       run_count = u.run_count + 1,
+                       fail_count = u.fail_count + CASE WHEN b.result = 'fail' THEN 1 ELSE 0 END,
+                       first_attempt_count = u.first_attempt_count + CASE WHEN b.attempt = 1 THEN 1 ELSE 0 END
+      FROM b
+     WHERE u.id = b.unit_id AND u.run_count = b.read_run_count
+       AND u.rework_count = b.read_rework_count
+       -- Not indexable on purpose: with '=' the planner may walk units_step_state_idx over
+       -- every unit queued at the step (a whole lot) instead of taking the primary key.
+       AND u.state IS NOT DISTINCT FROM b.read_state
+       AND u.current_step_id IS NOT DISTINCT FROM b.step_id
+    RETURNING b.*
+  ), run AS (
+    INSERT INTO step_runs (id, unit_id, step_id, station_id, operator_id, countersigned_by,
+                           attempt, is_rework, result, note, client_event_id, started_at, finished_at)
+    SELECT run_id, unit_id, step_id, station_id, operator_id, countersigned_by, attempt,
+           is_rework, result, note, client_event_id, at, at
+      FROM moved
+  ), measured AS (
+    INSERT INTO measurements (step_run_id, check_id, value_number, value_text, value_boolean,
+                              is_derived, is_pass)
+    SELECT m.*
+      FROM unnest($31::uuid[], $32::uuid[], $33::float8[], $34::text[], $35::bool[],
+                  $36::bool[], $37::bool[]) AS m(run_id, check_id, n, t, yes, is_derived, is_pass)
+     WHERE m.run_id IN (SELECT run_id FROM moved)
+  ), dated AS (
+    INSERT INTO lot_run_days (lot_id, day)
+    SELECT DISTINCT lot_id, (at AT TIME ZONE 'UTC')::date FROM moved
+    ON CONFLICT DO NOTHING
+  ), started AS (
+    UPDATE lots SET status = 'in_progress', updated_at = f.at
+      FROM (SELECT lot_id, min(at) AS at FROM moved GROUP BY lot_id) f
+     WHERE lots.id = f.lot_id AND lots.status = 'released'
+  ), audited AS (
+    INSERT INTO audit_events (at, actor_id, actor_email, action, entity, entity_id, after, ip, request_id)
+    SELECT at, operator_id, actor_email, 'step_run.record', 'unit', unit_id::text,
+           audit::jsonb, ip, request_id
+      FROM moved
+  ), opened AS (
+    INSERT INTO nonconformances (id, unit_id, step_run_id, defect_code_id, description,
+                                 failed_checks, opened_by, opened_at)
+    SELECT nc_id, unit_id, run_id, defect_code_id, note, failed_checks::jsonb, operator_id, at
+      FROM moved
+     WHERE nc_id IS NOT NULL
+  )
+  SELECT run_id AS "runId" FROM moved`,
+)
+
+/**
+ * The values of WRITE_RUNS for a batch. The scans go in the order of their units' ids, so two
+ * batches that share units lock them in the same order and cannot deadlock.
+ */
+export function writeRunsValues(batch: readonly RunWrite[]): unknown[] {
+  const w = [...batch].sort((a, b) => (a.unitId < b.unitId ? -1 : a.unitId > b.unitId ? 1 : 0))
+  const col = <T>(f: (x: RunWrite) => T) => w.map(f)
+  const ms = w.flatMap((x) => x.measurements.map((m) => ({ runId: x.runId, ...m })))
+  return [
+    col((x) => x.runId),
+    col((x) => x.unitId),
+    col((x) => x.stepId),
+    col((x) => x.stationId),
+    col((x) => x.operatorId),
+    col((x) => x.countersignedBy),
+    col((x) => x.attempt),
+    col((x) => x.isRework),
+    col((x) => x.result),
+    col((x) => x.note),
+    col((x) => x.clientEventId),
+    col((x) => x.at),
+    col((x) => x.move.state),
+    col((x) => x.move.currentStepId),
+    col((x) => x.move.reworkUntilPosition),
+    col((x) => x.move.finishedAt),
+    col((x) => x.move.holdKind),
+    col((x) => x.move.heldFromState),
+    col((x) => x.move.holdReason),
+    col((x) => x.lotId),
+    col((x) => x.actorEmail),
+    col((x) => x.audit),
+    col((x) => x.ip),
+    col((x) => x.requestId),
+    col((x) => x.read.runCount),
+    col((x) => x.read.state),
+    col((x) => x.read.reworkCount),
+    col((x) => x.nonconformance?.id ?? null),
+    col((x) => x.nonconformance?.defectCodeId ?? null),
+    col((x) => x.nonconformance?.failedChecks ?? null),
+    ms.map((m) => m.runId),
+    ms.map((m) => m.checkId),
+    ms.map((m) => m.valueNumber),
+    ms.map((m) => m.valueText),
+    ms.map((m) => m.valueBoolean),
+    ms.map((m) => m.isDerived),
+    ms.map((m) => m.isPass),
+  ]
+}
