@@ -73,10 +73,13 @@ export const READ_SCANS = namedSql(
   SELECT b.i::int AS "index", ${UNIT_COLUMNS}, ${CONTEXT_COLUMNS('u.id', 'u.current_step_id', 'b.defect')}
     FROM unnest($1::text[], $2::text[], $3::uuid[], $4::uuid[])
            WITH ORDINALITY AS b(serial, station, event, defect, i)
-    JOIN units u ON u.serial = b.serial
-    JOIN lots l ON l.id = u.lot_id
-    LEFT JOIN stations s ON s.code = b.station
-    LEFT JOIN step_runs e ON e.client_event_id = b.event`,
+    -- Each look-up is a LATERAL subquery with a LIMIT, which PostgreSQL cannot fold into a join:
+    -- it reckons an unnest() of a parameter at 100 rows, and for that many it would rather
+    -- hash-join whole tables (growing with every scan) than look each row up by its index.
+    CROSS JOIN LATERAL (SELECT * FROM units WHERE serial = b.serial LIMIT 1) u
+    CROSS JOIN LATERAL (SELECT * FROM lots WHERE id = u.lot_id LIMIT 1) l
+    LEFT JOIN LATERAL (SELECT * FROM stations WHERE code = b.station LIMIT 1) s ON true
+    LEFT JOIN LATERAL (SELECT id FROM step_runs WHERE client_event_id = b.event LIMIT 1) e ON true`,
 )
 
 /** The values of READ_SCANS for the keys of a batch. */
@@ -179,7 +182,9 @@ export const WRITE_RUNS = namedSql(
                        fail_count = u.fail_count + CASE WHEN b.result = 'fail' THEN 1 ELSE 0 END,
                        first_attempt_count = u.first_attempt_count + CASE WHEN b.attempt = 1 THEN 1 ELSE 0 END
       FROM b
-     WHERE u.id = b.unit_id AND u.run_count = b.read_run_count
+     -- '= ANY' beside the join makes the units come through their primary key: PostgreSQL
+     -- reckons b at 100 rows and would otherwise hash-join the whole table (see READ_SCANS).
+     WHERE u.id = ANY($2::uuid[]) AND u.id = b.unit_id AND u.run_count = b.read_run_count
        AND u.rework_count = b.read_rework_count
        -- Not indexable on purpose: with '=' the planner may walk units_step_state_idx over
        -- every unit queued at the step (a whole lot) instead of taking the primary key.
@@ -206,7 +211,7 @@ export const WRITE_RUNS = namedSql(
   ), started AS (
     UPDATE lots SET status = 'in_progress', updated_at = f.at
       FROM (SELECT lot_id, min(at) AS at FROM moved GROUP BY lot_id) f
-     WHERE lots.id = f.lot_id AND lots.status = 'released'
+     WHERE lots.id = ANY($20::uuid[]) AND lots.id = f.lot_id AND lots.status = 'released'
   ), audited AS (
     INSERT INTO audit_events (at, actor_id, actor_email, action, entity, entity_id, after, ip, request_id)
     SELECT at, operator_id, actor_email, 'step_run.record', 'unit', unit_id::text,
