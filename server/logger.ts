@@ -1,7 +1,7 @@
 import { pino } from 'pino'
 import { env } from './env'
 
-/** The one logger; pino-http derives a child per request carrying the request id. */
+/** The one logger; requestLog.ts logs each request with its id. */
 export const logger = pino({
   level: env.LOG_LEVEL ?? (env.isTest ? 'warn' : 'info'),
   base: { service: 'waymark' },

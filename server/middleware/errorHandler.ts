@@ -3,6 +3,7 @@ import { MulterError } from 'multer'
 import { UniqueConstraintError, ValidationError } from 'sequelize'
 import type { ApiErrorBody } from '../../shared/errors'
 import { AppError } from '../errors'
+import { logger } from '../logger'
 
 function toAppError(err: unknown): AppError | null {
   if (err instanceof AppError) return err
@@ -53,7 +54,10 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     res.status(known.status).json(body)
     return
   }
-  req.log.error({ err }, 'unhandled error')
+  logger.error(
+    { err, req: { id: req.id, method: req.method, url: req.originalUrl } },
+    'unhandled error',
+  )
   res
     .status(500)
     .json({ error: 'internal', message: `something went wrong (request ${String(req.id)})` })
