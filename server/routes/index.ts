@@ -52,9 +52,28 @@ void [alertRoutes]
 void [importRoutes, importMappingRoutes]
 void [customerRoutes, shipmentRoutes, unitDocumentRoutes, serviceCaseRoutes]
 
-/** The /api router: every router made with `apiRoutes`, at its base path. */
+/**
+ * The /api router: every router made with `apiRoutes`, at its base path. The routers are grouped
+ * by the first segment of their base and a request goes straight to its group: Express tries a
+ * router's layers one after another, and thirty mounts tried in turn cost every request (the
+ * scan's came twentieth) more than its own handler did.
+ */
 export function apiRouter(): Router {
+  const groups = new Map<string, Router>()
+  for (const { base, router } of apiRouters) {
+    const segment = firstSegment(base)
+    let group = groups.get(segment)
+    if (!group) groups.set(segment, (group = Router()))
+    group.use(base, router)
+  }
   const api = Router()
-  for (const { base, router } of apiRouters) api.use(base, router)
+  api.use((req, res, next) => {
+    const group = groups.get(firstSegment(req.path))
+    if (group) group(req, res, next)
+    else next()
+  })
   return api
 }
+
+/** `steps` of `/steps/abc`. */
+const firstSegment = (path: string) => path.split('/', 2)[1] ?? ''
