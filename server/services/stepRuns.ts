@@ -127,7 +127,12 @@ function measurementRows(
 // read of everything the scan needs, then one write that moves the unit only if it is still as
 // read (see WRITE_RUNS). The UPDATE takes the unit's row lock inside the write's own
 // transaction, so a second station waits for the first and then finds the unit changed. Scans
-// that arrive together share each statement: under load, many scans cost two round trips.
+// that arrive together share each statement: under load, many scans cost two round trips. Up to
+// eight batches of each statement run at once, so PostgreSQL can work on the second core while
+// this process builds the next batch (the plain pool caps them at ten connections in all);
+// scripts/bench/scan.ts did as well or better with eight than with two, four or five.
+const BATCHING = { maxInFlight: 8 }
+
 const readScan = coalesce(async (keys: ScanKey[]): Promise<(ScanRow | null)[]> => {
   const { rows } = await sqlPool().query<ScanRow & { index: number }>({
     ...READ_SCANS,
@@ -136,7 +141,7 @@ const readScan = coalesce(async (keys: ScanKey[]): Promise<(ScanRow | null)[]> =
   const found: (ScanRow | null)[] = keys.map(() => null)
   for (const { index, ...row } of rows) found[index - 1] = row
   return found
-})
+}, BATCHING)
 
 /** Writes the runs of a batch; answers, for each, whether its unit moved (and so was written). */
 const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
@@ -146,7 +151,7 @@ const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
   })
   const written = new Set(rows.map((r) => r.runId))
   return batch.map((w) => written.has(w.runId))
-})
+}, BATCHING)
 
 /** A scan decided: what it writes, and what to answer once it is written. */
 interface Decision {
