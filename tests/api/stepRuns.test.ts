@@ -5,11 +5,18 @@ import { formatSerial } from '../../shared/serials'
 import { sqlPool } from '../../server/db/pool'
 import { ComponentLot, db } from '../../server/models'
 import { recordStepRun } from '../../server/services/stepRuns'
-import { WRITE_RUNS, writeRunsValues } from '../../server/services/stepRunSql'
+import { READ_SCANS, WRITE_RUNS, writeRunsValues } from '../../server/services/stepRunSql'
 import { StepRunInput } from '../../shared/schemas/lots'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
+
+interface PlanNode {
+  'Node Type': string
+  'Relation Name'?: string
+  'Index Name'?: string
+  Plans?: PlanNode[]
+}
 
 async function count(sql: string, replacements: Record<string, unknown>): Promise<number> {
   const [row] = await db().query<{ n: string }>(sql, { replacements, type: QueryTypes.SELECT })
@@ -389,6 +396,45 @@ describe('step runs at the Floor', () => {
     }
     walk((rows[0]!['QUERY PLAN'] as { Plan: Record<string, unknown> }[])[0]!.Plan)
     expect(scans).toEqual([expect.objectContaining({ 'Index Name': 'units_pkey' })])
+  })
+
+  it('reads a batch of scans through indexes with the one plan the plain pool keeps', async () => {
+    // The plain pool keeps a general plan per statement (server/db/pool.ts). Made while the test
+    // database's tables are small, it must still find each row through its index: a plan that
+    // scanned units or step_runs whole would go on doing so as they grow.
+    const t = await lot(2)
+    const serials = t.units.map((u) => u.serial)
+    const client = await sqlPool().connect()
+    const plan = await (async () => {
+      try {
+        const name = `read_plan_${uniqueSuffix().replace(/\W/g, '')}`
+        await client.query(`PREPARE ${name}(text[], text[], uuid[], uuid[]) AS ${READ_SCANS.text}`)
+        const args = [serials, ['WND-1', 'WND-1'], [randomUUID(), randomUUID()], [null, null]]
+        const literal = (a: (string | null)[]) =>
+          `'{${a.map((v) => (v === null ? 'NULL' : `"${v}"`)).join(',')}}'`
+        const { rows } = await client.query<{ 'QUERY PLAN': { Plan: PlanNode }[] }>(
+          `EXPLAIN (FORMAT JSON) EXECUTE ${name}(${args.map(literal).join(', ')})`,
+        )
+        await client.query(`DEALLOCATE ${name}`)
+        return rows[0]!['QUERY PLAN'][0]!.Plan
+      } finally {
+        client.release()
+      }
+    })()
+    const scans: PlanNode[] = []
+    const walk = (node: PlanNode) => {
+      if (node['Relation Name']) scans.push(node)
+      for (const child of node.Plans ?? []) walk(child)
+    }
+    walk(plan)
+    const on = (table: string) => scans.filter((n) => n['Relation Name'] === table)
+    expect(on('units').map((n) => n['Index Name'])).toEqual(['units_serial_key'])
+    expect(
+      on('step_runs')
+        .map((n) => n['Index Name'])
+        .sort(),
+    ).toEqual(['step_runs_client_event_id_key', 'step_runs_unit_id_step_id_attempt_key'])
+    expect(scans.filter((n) => n['Node Type'] === 'Seq Scan')).toEqual([])
   })
 
   it('reworks a failed unit back to a chosen step, counting the rework and new attempts', async () => {
