@@ -38,7 +38,10 @@ export function buildApp(): Express {
     }),
   )
   app.use('/api', express.json({ limit: '1mb' }))
-  app.use('/api', sessionMiddleware(), passport.initialize(), passport.session())
+  // No passport.initialize(): since passport 0.5.1 authenticate(), which passport.session() is,
+  // gives the request login() and logout() itself; initialize() only adds a compatibility layer
+  // for strategies written for passport 0.4, at a cost on every request.
+  app.use('/api', sessionMiddleware(), passport.session())
   app.use('/api', csrfProtection)
   app.use('/api', apiRouter())
   app.use('/api', apiNotFound)
