@@ -8,6 +8,7 @@ import autocannon from 'autocannon'
 import express from 'express'
 import pg from 'pg'
 import { listenOnLoopback, percentile, signIn } from './lib'
+import { openPacer } from './paced'
 
 process.env.WAYMARK_DB ??= 'waymark_bench_test'
 process.env.NODE_ENV ??= 'test'
@@ -35,8 +36,9 @@ pg), GET /api/auth/me and POST /api/step-runs, each over loopback with autocanno
   saturation  --requests requests on --connections connections, each sending its next request
               as soon as the answer comes: the throughput. Its latency is mostly queueing, since
               with C connections the mean latency is C / throughput;
-  paced       --paced requests offered at the throughput target (half the baseline's), shared by
-              the same connections: the latency a station sees at that load.
+  paced       --paced requests due evenly at the throughput target (half the baseline's), over at
+              most --connections sockets, each timed from when it was due: the latency a
+              station sees at that load (paced.ts says why autocannon's rate option cannot).
 --profile writes a V8 CPU profile of the scan's saturation phase (open it in Chromium's DevTools).`)
   process.exit(0)
 }
@@ -62,7 +64,7 @@ await loadDemo({ onlyIfEmpty: false })
 const serials = await seedBenchLot(WARMUP + REQUESTS + PACED)
 
 interface Result {
-  result: autocannon.Result
+  non2xx: number
   times: number[]
   /** Wall-clock seconds from the first request to the last answer. */
   seconds: number
@@ -92,45 +94,51 @@ function postgresCpuSeconds(): number {
 }
 interface Load {
   amount: number
-  /** Requests per second shared by all connections; absent: as fast as the answers come. */
+  /** Requests per second, due evenly (see paced.ts); absent: as fast as the answers come. */
   rate?: number
 }
 
-function run(
+/** The CPU this process and PostgreSQL use while `go` runs, per 1000 of its requests. */
+async function withCpu(go: () => Promise<Omit<Result, 'cpu'>>): Promise<Result> {
+  const cpu0 = process.cpuUsage()
+  const pg0 = postgresCpuSeconds()
+  const out = await go()
+  const used = process.cpuUsage(cpu0)
+  const per = 1000 / Math.max(1, out.times.length)
+  return {
+    ...out,
+    cpu: {
+      node: ((used.user + used.system) / 1e6) * per,
+      postgres: (postgresCpuSeconds() - pg0) * per,
+    },
+  }
+}
+
+/** Closed loop: each of the connections sends its next request as soon as it is answered. */
+function saturate(
   url: string,
   bodies: (() => string) | null,
   headers: Record<string, string>,
-  load: Load,
-): Promise<Result> {
+  amount: number,
+): Promise<Omit<Result, 'cpu'>> {
   const times: number[] = []
-  const cpu0 = process.cpuUsage()
-  const pg0 = postgresCpuSeconds()
   const t0 = performance.now()
   let lastAt = t0
-  const measured = () => {
-    const used = process.cpuUsage(cpu0)
-    const per = 1000 / Math.max(1, times.length)
-    return {
-      // To the last answer: autocannon reports its end on its own one-second tick.
-      seconds: (lastAt - t0) / 1000,
-      cpu: {
-        node: ((used.user + used.system) / 1e6) * per,
-        postgres: (postgresCpuSeconds() - pg0) * per,
-      },
-    }
-  }
   return new Promise((resolve, reject) => {
     const instance = autocannon(
       {
         url,
         connections: CONNECTIONS,
-        amount: load.amount,
-        overallRate: load.rate,
+        amount,
         method: bodies ? 'POST' : 'GET',
         headers: { 'content-type': 'application/json', ...headers },
         requests: bodies ? [{ setupRequest: (req) => ({ ...req, body: bodies() }) }] : undefined,
       },
-      (err, result) => (err ? reject(err) : resolve({ result, times, ...measured() })),
+      (err, result) =>
+        err
+          ? reject(err)
+          : // To the last answer: autocannon reports its end on its own one-second tick.
+            resolve({ non2xx: result.non2xx, times, seconds: (lastAt - t0) / 1000 }),
     )
     // Every response's time, so p95 is computed exactly rather than read off a histogram.
     instance.on('response', (_client, _status, _bytes, responseTime) => {
@@ -139,6 +147,27 @@ function run(
     })
     instance.on('error', reject)
   })
+}
+
+async function run(
+  url: string,
+  bodies: (() => string) | null,
+  headers: Record<string, string>,
+  load: Load,
+): Promise<Result> {
+  if (!load.rate) return withCpu(() => saturate(url, bodies, headers, load.amount))
+  const pacer = await openPacer(
+    {
+      url,
+      method: bodies ? 'POST' : 'GET',
+      headers,
+      bodies: bodies ? Array.from({ length: load.amount }, bodies) : null,
+    },
+    load.rate,
+    load.amount,
+    CONNECTIONS,
+  )
+  return withCpu(() => pacer.run())
 }
 
 /** A warm-up run (not counted), then the measured one. */
@@ -168,7 +197,7 @@ const bareBody = () => JSON.stringify({ serial: 'X' })
 const baseline = await measure(bareUrl, bareBody, {}, { amount: REQUESTS })
 const perSecond = (r: Result) => r.times.length / r.seconds
 const pacedRate = Math.round(perSecond(baseline) / 2)
-// --paced 0 skips the paced runs (autocannon reads an amount of 0 as "no limit").
+// --paced 0 skips the paced runs.
 const paced = (go: () => Promise<Result>) => (PACED > 0 ? go() : Promise.resolve(null))
 const baselinePaced = await paced(() =>
   run(bareUrl, bareBody, {}, { amount: PACED, rate: pacedRate }),
@@ -218,7 +247,7 @@ const line = (name: string, r: Result) => {
   const ms = (p: number) => `${percentile(t, p).toFixed(1)} ms`
   return [
     `  ${name.padEnd(20)} ${perSecond(r).toFixed(0).padStart(5)} req/s`,
-    `p50 ${ms(50)}  p95 ${ms(95)}  p99 ${ms(99)}  non-2xx ${r.result.non2xx}`,
+    `p50 ${ms(50)}  p95 ${ms(95)}  p99 ${ms(99)}  non-2xx ${r.non2xx}`,
     `CPU per 1000: node ${r.cpu.node.toFixed(2)} s, postgres ${r.cpu.postgres.toFixed(2)} s`,
   ].join('   ')
 }
@@ -228,7 +257,9 @@ console.log(line('baseline (1 INSERT)', baseline))
 console.log(line('GET /api/auth/me', signedIn))
 console.log(line('POST /api/step-runs', scan))
 if (baselinePaced && scanPaced) {
-  console.log(`paced: ${PACED} requests at ${pacedRate} req/s (half the baseline's throughput)`)
+  console.log(
+    `paced: ${PACED} requests due evenly at ${pacedRate} req/s (half the baseline's throughput)`,
+  )
   console.log(line('baseline (1 INSERT)', baselinePaced))
   console.log(line('POST /api/step-runs', scanPaced))
 }
