@@ -157,10 +157,7 @@ const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
 interface Decision {
   write: RunWrite
   planned: PlannedConsumption[]
-  runId: string
   body: StepRunResultDto
-  lotId: string
-  stepId: string
 }
 
 /**
@@ -278,10 +275,10 @@ async function decide(
     },
     nonconformanceId: ncId,
   }
-  return { write, planned, runId, body, lotId: row.lotId, stepId: step.id }
+  return { write, planned, body }
 }
 
-type Recorded = { body: StepRunResultDto; lotId: string; stepId: string } | { repeatOf: string }
+type Recorded = Decision | { repeatOf: string }
 
 /**
  * The fast path: one read and one write on the plain pool, each shared with the scans that arrive
@@ -338,7 +335,7 @@ async function recordLocked(
   )
   if (written.length !== 1) throw new Error(`recordLocked: ${serial} did not move under its lock`)
   if (decision.planned.length > 0)
-    await applyConsumptions(decision.planned, unit.id, decision.runId, transaction)
+    await applyConsumptions(decision.planned, unit.id, decision.write.runId, transaction)
   return decision
 }
 
@@ -367,7 +364,7 @@ export async function recordStepRun(
         isRepeat: true,
         body: await resultOf((await StepRun.findByPk(out.repeatOf))!, input),
       }
-    return { isRepeat: false, body: out.body, lotId: out.lotId, stepId: out.stepId }
+    return { isRepeat: false, body: out.body, lotId: out.write.lotId, stepId: out.write.stepId }
   } catch (err) {
     // Two submissions of one event for two different serials can both pass the look-up; the
     // unique constraint lets one in, and the other gets the first one's answer.
