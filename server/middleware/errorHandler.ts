@@ -4,6 +4,7 @@ import { UniqueConstraintError, ValidationError } from 'sequelize'
 import type { ApiErrorBody } from '../../shared/errors'
 import { AppError } from '../errors'
 import { logger } from '../logger'
+import { requestFields } from './requestLog'
 
 function toAppError(err: unknown): AppError | null {
   if (err instanceof AppError) return err
@@ -54,10 +55,7 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     res.status(known.status).json(body)
     return
   }
-  logger.error(
-    { err, req: { id: req.id, method: req.method, url: req.originalUrl } },
-    'unhandled error',
-  )
+  logger.error({ err, req: requestFields(req) }, 'unhandled error')
   res
     .status(500)
     .json({ error: 'internal', message: `something went wrong (request ${String(req.id)})` })

@@ -11,6 +11,13 @@ declare module 'http' {
 
 const SANE_ID = /^[\w-]{8,64}$/
 
+/** What a log line says of its request. */
+export const requestFields = (req: Request) => ({
+  id: req.id,
+  method: req.method,
+  url: req.originalUrl,
+})
+
 /** A success is logged at debug, a refusal at info, a failure at error. */
 const levelOf = (status: number) => (status >= 500 ? 'error' : status >= 400 ? 'info' : 'debug')
 
@@ -35,7 +42,7 @@ export function requestLog(req: Request, res: Response, next: NextFunction): voi
     if (!logger.isLevelEnabled(level)) return
     logger[level](
       {
-        req: { id, method: req.method, url: req.originalUrl },
+        req: requestFields(req),
         res: { statusCode: res.statusCode },
         responseTime: Math.round(performance.now() - started),
       },
