@@ -331,9 +331,11 @@ if (baselinePaced && scanPaced) {
   console.log(line('baseline (1 INSERT)', baselinePaced, false))
   console.log(line('POST /api/step-runs', scanPaced, false))
 }
+const roundLine = (r: (typeof rounds)[number], i: number) =>
+  `${perSecond(r.baseline).toFixed(0)} / ${perSecond(r.scan).toFixed(0)} (${shares[i]!.toFixed(0)} %)`
+console.log(`rounds, baseline / scan req/s: ${rounds.map(roundLine).join(', ')}`)
 console.log(
-  `throughput: ${share.toFixed(0)} % of the baseline, the median of the rounds' ` +
-    `${shares.map((x) => `${x.toFixed(0)} %`).join(', ')} (target ≥ 50 %)`,
+  `throughput: ${share.toFixed(0)} % of the baseline, the median of the rounds (target ≥ 50 %)`,
 )
 console.log(
   `p95 at ${CONNECTIONS} connections: ${p95(scan).toFixed(1)} ms, baseline ${p95(baseline).toFixed(1)} ms` +
