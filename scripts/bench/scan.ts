@@ -281,6 +281,7 @@ const scanPaced = await paced(() =>
   run(scanUrl, scanBody, scanHeaders, { amount: PACED, rate: pacedRate }),
 )
 
+const plural = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`
 /** The middle value, or the mean of the two middle values of an even count. */
 function median(xs: readonly number[]): number {
   const s = [...xs].sort((a, b) => a - b)
@@ -318,7 +319,7 @@ const line = (name: string, r: Result, isClosed: boolean) => {
 const shares = rounds.map((r) => (100 * perSecond(r.scan)) / perSecond(r.baseline))
 const share = median(shares)
 console.log(
-  `\nsaturation: ${ROUNDS} rounds of ${PER_ROUND} requests each, ${CONNECTIONS} connections, ` +
+  `\nsaturation: ${plural(ROUNDS, 'round')} of ${PER_ROUND} requests each, ${plural(CONNECTIONS, 'connection')}, ` +
     `loopback, ${CORES} cores`,
 )
 console.log(line('baseline (1 INSERT)', baseline, true))
@@ -338,7 +339,7 @@ console.log(
   `throughput: ${share.toFixed(0)} % of the baseline, the median of the rounds (target ≥ 50 %)`,
 )
 console.log(
-  `p95 at ${CONNECTIONS} connections: ${p95(scan).toFixed(1)} ms, baseline ${p95(baseline).toFixed(1)} ms` +
+  `p95 at ${plural(CONNECTIONS, 'connection')}: ${p95(scan).toFixed(1)} ms, baseline ${p95(baseline).toFixed(1)} ms` +
     ` (target ≤ 25 ms)` +
     (scanPaced && baselinePaced
       ? `; at the paced rate: ${p95(scanPaced).toFixed(1)} ms, baseline ${p95(baselinePaced).toFixed(1)} ms`
