@@ -87,31 +87,39 @@ interface Result {
 }
 
 /**
- * CPU seconds used so far by PostgreSQL (user + system, from /proc): every live server process,
- * plus what the postmaster's ended children used, so a pool connection closed mid-run still counts.
+ * A /proc stat file read: the command name, and the CPU ticks (hundredths of a second) of the
+ * process or thread itself and of its ended children, each user + system.
+ */
+function procStat(path: string): { name: string; own: number; children: number } {
+  const stat = readFileSync(path, 'utf8')
+  const close = stat.lastIndexOf(')')
+  const fields = stat.slice(close + 2).split(' ')
+  return {
+    name: stat.slice(stat.indexOf('(') + 1, close),
+    own: Number(fields[11]) + Number(fields[12]),
+    children: Number(fields[13]) + Number(fields[14]),
+  }
+}
+
+/**
+ * CPU seconds used so far by PostgreSQL: every live server process, plus what the postmaster's
+ * ended children used, so a pool connection closed mid-run still counts.
  */
 function postgresCpuSeconds(): number {
   let ticks = 0
   for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
     try {
-      const stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
-      const close = stat.lastIndexOf(')')
-      if (!stat.slice(stat.indexOf('(') + 1, close).startsWith('postgres')) continue
-      const fields = stat.slice(close + 2).split(' ')
-      // utime, stime, and cutime, cstime (the ended children's, nonzero for the postmaster)
-      ticks += Number(fields[11]) + Number(fields[12]) + Number(fields[13]) + Number(fields[14])
+      const stat = procStat(`/proc/${pid}/stat`)
+      if (stat.name.startsWith('postgres')) ticks += stat.own + stat.children
     } catch {
       // the process ended while we read
     }
   }
   return ticks / 100
 }
-/** CPU seconds used so far by this process's main thread (user + system, from /proc). */
-function mainThreadCpuSeconds(): number {
-  const stat = readFileSync(`/proc/self/task/${process.pid}/stat`, 'utf8')
-  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
-  return (Number(fields[11]) + Number(fields[12])) / 100
-}
+
+/** CPU seconds used so far by this process's main thread. */
+const mainThreadCpuSeconds = () => procStat(`/proc/self/task/${process.pid}/stat`).own / 100
 
 interface Load {
   amount: number

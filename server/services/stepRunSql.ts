@@ -147,6 +147,66 @@ export interface RunWrite {
   nonconformance: { id: string; defectCodeId: string; failedChecks: string } | null
 }
 
+/** A column of a batched statement: its name, its SQL type, and its value for one element. */
+type Column<T> = readonly [name: string, type: string, value: (x: T) => unknown]
+
+/** What WRITE_RUNS takes of each scan, one array parameter per column, in this order. */
+const RUN_COLUMNS: readonly Column<RunWrite>[] = [
+  ['run_id', 'uuid', (x) => x.runId],
+  ['unit_id', 'uuid', (x) => x.unitId],
+  ['step_id', 'uuid', (x) => x.stepId],
+  ['station_id', 'uuid', (x) => x.stationId],
+  ['operator_id', 'uuid', (x) => x.operatorId],
+  ['countersigned_by', 'uuid', (x) => x.countersignedBy],
+  ['attempt', 'int', (x) => x.attempt],
+  ['is_rework', 'bool', (x) => x.isRework],
+  ['result', 'step_result', (x) => x.result],
+  ['note', 'text', (x) => x.note],
+  ['client_event_id', 'uuid', (x) => x.clientEventId],
+  ['at', 'timestamptz', (x) => x.at],
+  ['new_state', 'unit_state', (x) => x.move.state],
+  ['new_step_id', 'uuid', (x) => x.move.currentStepId],
+  ['rework_until_position', 'int', (x) => x.move.reworkUntilPosition],
+  ['finished_at', 'timestamptz', (x) => x.move.finishedAt],
+  ['hold_kind', 'text', (x) => x.move.holdKind],
+  ['held_from_state', 'unit_state', (x) => x.move.heldFromState],
+  ['hold_reason', 'text', (x) => x.move.holdReason],
+  ['lot_id', 'uuid', (x) => x.lotId],
+  ['actor_email', 'text', (x) => x.actorEmail],
+  ['audit', 'text', (x) => x.audit],
+  ['ip', 'text', (x) => x.ip],
+  ['request_id', 'text', (x) => x.requestId],
+  ['read_run_count', 'int', (x) => x.read.runCount],
+  ['read_state', 'unit_state', (x) => x.read.state],
+  ['read_rework_count', 'int', (x) => x.read.reworkCount],
+  ['nc_id', 'uuid', (x) => x.nonconformance?.id ?? null],
+  ['defect_code_id', 'uuid', (x) => x.nonconformance?.defectCodeId ?? null],
+  ['failed_checks', 'text', (x) => x.nonconformance?.failedChecks ?? null],
+]
+
+/** What WRITE_RUNS takes of each measurement, after the scans' columns. */
+const MEASUREMENT_COLUMNS: readonly Column<MeasurementRow & { runId: string }>[] = [
+  ['run_id', 'uuid', (m) => m.runId],
+  ['check_id', 'uuid', (m) => m.checkId],
+  ['n', 'float8', (m) => m.valueNumber],
+  ['t', 'text', (m) => m.valueText],
+  ['yes', 'bool', (m) => m.valueBoolean],
+  ['is_derived', 'bool', (m) => m.isDerived],
+  ['is_pass', 'bool', (m) => m.isPass],
+]
+
+/** `unnest($k::type[], …) AS alias(name, …)` of columns whose parameters start at $first. */
+const unnestOf = <T>(columns: readonly Column<T>[], first: number, alias: string) =>
+  `unnest(${columns.map(([, type], i) => `$${first + i}::${type}[]`).join(', ')})
+     AS ${alias}(${columns.map(([name]) => name).join(', ')})`
+
+/** The array parameter of one of the scans' columns, such as `$2::uuid[]` for `unit_id`. */
+function runParameter(name: string): string {
+  const i = RUN_COLUMNS.findIndex(([n]) => n === name)
+  if (i < 0) throw new Error(`WRITE_RUNS has no column ${name}`)
+  return `$${i + 1}::${RUN_COLUMNS[i]![1]}[]`
+}
+
 /**
  * The one statement that writes the step runs of a batch: each unit's move with its run
  * counters, the run, its measurements, the lots' days with a run (read by the Yield board,
@@ -159,19 +219,7 @@ export const WRITE_RUNS = namedSql(
   'scan-write-batch',
   `
   WITH b AS (
-    SELECT * FROM unnest(
-      $1::uuid[], $2::uuid[], $3::uuid[], $4::uuid[], $5::uuid[], $6::uuid[], $7::int[],
-      $8::bool[], $9::step_result[], $10::text[], $11::uuid[], $12::timestamptz[],
-      $13::unit_state[], $14::uuid[], $15::int[], $16::timestamptz[], $17::text[],
-      $18::unit_state[], $19::text[], $20::uuid[], $21::text[], $22::text[], $23::text[],
-      $24::text[], $25::int[], $26::unit_state[], $27::int[], $28::uuid[], $29::uuid[],
-      $30::text[]
-    ) AS b(run_id, unit_id, step_id, station_id, operator_id, countersigned_by, attempt,
-           is_rework, result, note, client_event_id, at,
-           new_state, new_step_id, rework_until_position, finished_at, hold_kind,
-           held_from_state, hold_reason, lot_id, actor_email, audit, ip,
-           request_id, read_run_count, read_state, read_rework_count, nc_id, defect_code_id,
-           failed_checks)
+    SELECT * FROM ${unnestOf(RUN_COLUMNS, 1, 'b')}
   ), moved AS (
     UPDATE units u SET state = b.new_state, current_step_id = b.new_step_id,
                        rework_until_position = b.rework_until_position,
@@ -184,7 +232,7 @@ export const WRITE_RUNS = namedSql(
       FROM b
      -- '= ANY' beside the join makes the units come through their primary key: PostgreSQL
      -- reckons b at 100 rows and would otherwise hash-join the whole table (see READ_SCANS).
-     WHERE u.id = ANY($2::uuid[]) AND u.id = b.unit_id AND u.run_count = b.read_run_count
+     WHERE u.id = ANY(${runParameter('unit_id')}) AND u.id = b.unit_id AND u.run_count = b.read_run_count
        AND u.rework_count = b.read_rework_count
        -- Not indexable on purpose: with '=' the planner may walk units_step_state_idx over
        -- every unit queued at the step (a whole lot) instead of taking the primary key.
@@ -201,8 +249,7 @@ export const WRITE_RUNS = namedSql(
     INSERT INTO measurements (step_run_id, check_id, value_number, value_text, value_boolean,
                               is_derived, is_pass)
     SELECT m.*
-      FROM unnest($31::uuid[], $32::uuid[], $33::float8[], $34::text[], $35::bool[],
-                  $36::bool[], $37::bool[]) AS m(run_id, check_id, n, t, yes, is_derived, is_pass)
+      FROM ${unnestOf(MEASUREMENT_COLUMNS, RUN_COLUMNS.length + 1, 'm')}
      WHERE m.run_id IN (SELECT run_id FROM moved)
   ), dated AS (
     INSERT INTO lot_run_days (lot_id, day)
@@ -211,7 +258,7 @@ export const WRITE_RUNS = namedSql(
   ), started AS (
     UPDATE lots SET status = 'in_progress', updated_at = f.at
       FROM (SELECT lot_id, min(at) AS at FROM moved GROUP BY lot_id) f
-     WHERE lots.id = ANY($20::uuid[]) AND lots.id = f.lot_id AND lots.status = 'released'
+     WHERE lots.id = ANY(${runParameter('lot_id')}) AND lots.id = f.lot_id AND lots.status = 'released'
   ), audited AS (
     INSERT INTO audit_events (at, actor_id, actor_email, action, entity, entity_id, after, ip, request_id)
     SELECT at, operator_id, actor_email, 'step_run.record', 'unit', unit_id::text,
@@ -233,45 +280,9 @@ export const WRITE_RUNS = namedSql(
  */
 export function writeRunsValues(batch: readonly RunWrite[]): unknown[] {
   const w = [...batch].sort((a, b) => (a.unitId < b.unitId ? -1 : a.unitId > b.unitId ? 1 : 0))
-  const col = <T>(f: (x: RunWrite) => T) => w.map(f)
   const ms = w.flatMap((x) => x.measurements.map((m) => ({ runId: x.runId, ...m })))
   return [
-    col((x) => x.runId),
-    col((x) => x.unitId),
-    col((x) => x.stepId),
-    col((x) => x.stationId),
-    col((x) => x.operatorId),
-    col((x) => x.countersignedBy),
-    col((x) => x.attempt),
-    col((x) => x.isRework),
-    col((x) => x.result),
-    col((x) => x.note),
-    col((x) => x.clientEventId),
-    col((x) => x.at),
-    col((x) => x.move.state),
-    col((x) => x.move.currentStepId),
-    col((x) => x.move.reworkUntilPosition),
-    col((x) => x.move.finishedAt),
-    col((x) => x.move.holdKind),
-    col((x) => x.move.heldFromState),
-    col((x) => x.move.holdReason),
-    col((x) => x.lotId),
-    col((x) => x.actorEmail),
-    col((x) => x.audit),
-    col((x) => x.ip),
-    col((x) => x.requestId),
-    col((x) => x.read.runCount),
-    col((x) => x.read.state),
-    col((x) => x.read.reworkCount),
-    col((x) => x.nonconformance?.id ?? null),
-    col((x) => x.nonconformance?.defectCodeId ?? null),
-    col((x) => x.nonconformance?.failedChecks ?? null),
-    ms.map((m) => m.runId),
-    ms.map((m) => m.checkId),
-    ms.map((m) => m.valueNumber),
-    ms.map((m) => m.valueText),
-    ms.map((m) => m.valueBoolean),
-    ms.map((m) => m.isDerived),
-    ms.map((m) => m.isPass),
+    ...RUN_COLUMNS.map(([, , value]) => w.map(value)),
+    ...MEASUREMENT_COLUMNS.map(([, , value]) => ms.map(value)),
   ]
 }

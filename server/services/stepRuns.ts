@@ -58,17 +58,9 @@ function noSuchUnit(serial: string): AppError {
 }
 
 /** Finds a unit by what was scanned; a mistyped serial (bad check character) is a 400. */
-export async function findUnitByScan(
-  scanned: string,
-  transaction?: Transaction,
-  lock = false,
-): Promise<Unit> {
+export async function findUnitByScan(scanned: string): Promise<Unit> {
   const serial = codeFromScan(scanned)
-  const unit = await Unit.findOne({
-    where: { serial },
-    transaction,
-    lock: lock && transaction ? transaction.LOCK.UPDATE : undefined,
-  })
+  const unit = await Unit.findOne({ where: { serial } })
   if (unit) return unit
   throw noSuchUnit(serial)
 }
