@@ -18,7 +18,10 @@ async function main(): Promise<void> {
   const app = buildApp()
   const workers = env.WAYMARK_WORKERS === 'on' ? await startWorkers() : null
   const server: Server = app.listen(env.PORT, env.HOST, () => {
-    const url = `http://${env.HOST}:${env.PORT}`
+    // PORT=0 takes a free port: say which one, so a supervisor or a test can find it.
+    const address = server.address()
+    const port = typeof address === 'object' && address ? address.port : env.PORT
+    const url = `http://${env.HOST}:${port}`
     const lines = [
       '',
       `Waymark is ready at ${url}`,
