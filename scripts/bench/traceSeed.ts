@@ -140,9 +140,9 @@ export async function seedTraceHistory(
     [clIds, clCodes, clParts],
   )
   await q(
-    `INSERT INTO consumptions (id, unit_id, component_lot_id, bom_line_id, step_run_id, quantity,
-       item_serial, created_at)
-     SELECT gen_random_uuid(), bu.id, cl.id, bl.id, sr.id, bl.quantity,
+    `INSERT INTO consumptions (id, unit_id, component_lot_id, part_id, bom_line_id, step_run_id,
+       quantity, item_serial, created_at)
+     SELECT gen_random_uuid(), bu.id, cl.id, cl.part_id, bl.id, sr.id, bl.quantity,
        CASE WHEN bl.trace_level = 'serial' THEN u.serial END, sr.finished_at
      FROM bench_units bu
      JOIN units u ON u.id = bu.id

@@ -13,6 +13,8 @@ export class Consumption extends Model<
   declare id: CreationOptional<string>
   declare unitId: string
   declare componentLotId: string
+  /** The component lot's part, kept here so that a part serial is unique across its lots. */
+  declare partId: string
   declare bomLineId: string
   declare stepRunId: string
   declare quantity: number
@@ -26,6 +28,7 @@ export function initConsumption(sequelize: Sequelize): void {
       id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
       unitId: { type: DataTypes.UUID, allowNull: false },
       componentLotId: { type: DataTypes.UUID, allowNull: false },
+      partId: { type: DataTypes.UUID, allowNull: false },
       bomLineId: { type: DataTypes.UUID, allowNull: false },
       stepRunId: { type: DataTypes.UUID, allowNull: false },
       quantity: { type: DataTypes.DOUBLE, allowNull: false },

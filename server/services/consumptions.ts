@@ -1,8 +1,9 @@
+import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../shared/links'
 import type { StepRunInput } from '../../shared/schemas/lots'
 import { AppError } from '../errors'
-import { BomLine, ComponentLot, Consumption, Part } from '../models'
+import { BomLine, ComponentLot, Consumption, db, Part } from '../models'
 import { todayIso } from './componentLots'
 
 /** Why a component lot cannot be fitted on a line, in the operator's words; null when it can. */
@@ -27,6 +28,20 @@ export function componentLotRefusal(
 
 type Scan = StepRunInput['consumptions'][number]
 
+/** The serial of the unit a part's item serial is fitted to, whichever lot it came from. */
+async function unitHoldingSerial(
+  partId: string,
+  itemSerial: string,
+  transaction: Transaction,
+): Promise<string | null> {
+  const [row] = await db().query<{ serial: string }>(
+    `SELECT u.serial FROM consumptions c JOIN units u ON u.id = c.unit_id
+      WHERE c.part_id = :partId AND c.item_serial = :itemSerial LIMIT 1`,
+    { replacements: { partId, itemSerial }, type: QueryTypes.SELECT, transaction },
+  )
+  return row ? `unit ${row.serial}` : null
+}
+
 export interface PlannedConsumption {
   line: BomLine
   lot: ComponentLot
@@ -36,7 +51,7 @@ export interface PlannedConsumption {
 /**
  * Matches the scanned component lots to the bill-of-materials lines fitted at this step, locks
  * each lot and checks it may be fitted. A missing scan is a 400 naming the line; a lot that
- * may not be used is a 409 saying why.
+ * may not be used, or a part serial already fitted to a unit, is a 409 saying why.
  */
 export async function planConsumptions(
   lines: readonly BomLine[],
@@ -70,6 +85,20 @@ export async function planConsumptions(
         `${field}: scan the serial of the ${line.part!.partNumber} fitted`,
         { [field]: 'scan the item’s serial' },
       )
+    if (line.traceLevel === 'serial' && itemSerial) {
+      const isTwice = planned.some(
+        (p) => p.lot.partId === lot.partId && p.itemSerial === itemSerial,
+      )
+      const holder = isTwice
+        ? 'another line of this run'
+        : await unitHoldingSerial(lot.partId, itemSerial, transaction)
+      if (holder)
+        throw AppError.conflict(
+          'item_serial_used',
+          `${line.part!.partNumber} serial ${itemSerial} is already fitted to ${holder}`,
+          { [field]: `already fitted to ${holder}` },
+        )
+    }
     planned.push({ line, lot, itemSerial: line.traceLevel === 'serial' ? itemSerial : null })
   }
   return planned
@@ -83,21 +112,13 @@ export async function applyConsumptions(
   transaction: Transaction,
 ): Promise<void> {
   for (const { line, lot, itemSerial } of planned) {
-    if (
-      itemSerial &&
-      (await Consumption.findOne({ where: { componentLotId: lot.id, itemSerial }, transaction }))
-    )
-      throw AppError.conflict(
-        'item_serial_used',
-        `${line.part!.partNumber} serial ${itemSerial} is already fitted to another unit`,
-        {
-          [`consumptions.${line.id}`]: 'already fitted to another unit',
-        },
-      )
+    // The unique index on (part_id, item_serial) has the last word when two scans of one serial
+    // pass planConsumptions at once: the second waits for the first, then fails (stepRuns.ts).
     await Consumption.create(
       {
         unitId,
         componentLotId: lot.id,
+        partId: lot.partId,
         bomLineId: line.id,
         stepRunId,
         quantity: line.quantity,

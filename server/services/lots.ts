@@ -5,6 +5,7 @@ import type { UnitState } from '../../shared/lots'
 import type { LotCreateInput, LotDto, LotUpdateInput } from '../../shared/schemas/lots'
 import { AppError } from '../errors'
 import { db, Lot, Product, Revision, RouteStep, Unit } from '../models'
+import { inTransaction } from '../db/retry'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
 import { lotPrintFilename, requestDocument } from './documents'
@@ -71,9 +72,14 @@ export async function listLots(filter: { status?: string }): Promise<LotDto[]> {
   return lots.map((l) => toLotDto(l, counts.get(l.id)))
 }
 
-/** Locks a lot row for the rest of the transaction. */
+/**
+ * Locks a lot row for the rest of the transaction. A lot is locked before any of its units (the
+ * scan does the same, stepRuns.ts), so a hold and the first scans of a lot cannot deadlock. NO
+ * KEY UPDATE, not UPDATE: a scan's foreign-key check on the lot (KEY SHARE, as it writes
+ * lot_run_days) comes after it has its unit, and must not wait for a hold that waits for the unit.
+ */
 async function lockLot(id: string, transaction: Transaction): Promise<Lot> {
-  const lot = await Lot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+  const lot = await Lot.findByPk(id, { transaction, lock: transaction.LOCK.NO_KEY_UPDATE })
   if (!lot) throw AppError.notFound(`lot ${id}`)
   return lot
 }
@@ -233,19 +239,23 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
   })
 }
 
-/** Puts a lot on hold; its open units follow, remembering the state to go back to. */
+/** Locks the units `where` selects, in the order of their ids (so two holds cannot deadlock). */
+function lockUnits(where: Record<string, unknown>, transaction: Transaction): Promise<Unit[]> {
+  return Unit.findAll({ where, order: [['id', 'ASC']], transaction, lock: transaction.LOCK.UPDATE })
+}
+
+/**
+ * Puts a lot on hold; its open units follow, remembering the state to go back to. The audit row
+ * names the units held, as a containment's does.
+ */
 export async function holdLot(id: string, reason: string, actor: Actor): Promise<LotDto> {
-  return db().transaction(async (transaction) => {
+  return inTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (lot.isOnHold) throw AppError.conflict('lot_on_hold', `lot ${lot.number} is already on hold`)
     if (lot.status === 'closed')
       throw AppError.conflict('lot_closed', `lot ${lot.number} is closed`)
     await lot.update({ isOnHold: true, holdReason: reason }, { transaction })
-    const units = await Unit.findAll({
-      where: { lotId: id, state: { [Op.in]: OPEN_UNIT_STATES } },
-      transaction,
-      lock: transaction.LOCK.UPDATE,
-    })
+    const units = await lockUnits({ lotId: id, state: { [Op.in]: OPEN_UNIT_STATES } }, transaction)
     for (const u of units)
       await u.update(
         {
@@ -258,7 +268,12 @@ export async function holdLot(id: string, reason: string, actor: Actor): Promise
       )
     await recordAudit(
       actor,
-      { action: 'lot.hold', entity: 'lot', entityId: id, after: { reason, units: units.length } },
+      {
+        action: 'lot.hold',
+        entity: 'lot',
+        entityId: id,
+        after: { reason, units: units.map((u) => u.serial) },
+      },
       transaction,
     )
     return getLot(id, transaction)
@@ -267,16 +282,12 @@ export async function holdLot(id: string, reason: string, actor: Actor): Promise
 
 /** Lifts a lot's hold; units it held go back to where they were, others stay as they are. */
 export async function unholdLot(id: string, reason: string, actor: Actor): Promise<LotDto> {
-  return db().transaction(async (transaction) => {
+  return inTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (!lot.isOnHold)
       throw AppError.conflict('lot_not_on_hold', `lot ${lot.number} is not on hold`)
     await lot.update({ isOnHold: false, holdReason: '' }, { transaction })
-    const units = await Unit.findAll({
-      where: { lotId: id, state: 'on_hold', holdKind: 'lot' },
-      transaction,
-      lock: transaction.LOCK.UPDATE,
-    })
+    const units = await lockUnits({ lotId: id, state: 'on_hold', holdKind: 'lot' }, transaction)
     for (const u of units)
       await u.update(
         { state: u.heldFromState ?? 'queued', heldFromState: null, holdKind: null, holdReason: '' },
@@ -284,7 +295,12 @@ export async function unholdLot(id: string, reason: string, actor: Actor): Promi
       )
     await recordAudit(
       actor,
-      { action: 'lot.unhold', entity: 'lot', entityId: id, after: { reason, units: units.length } },
+      {
+        action: 'lot.unhold',
+        entity: 'lot',
+        entityId: id,
+        after: { reason, units: units.map((u) => u.serial) },
+      },
       transaction,
     )
     return getLot(id, transaction)

@@ -98,6 +98,15 @@ export const LOCK_UNIT = namedSql(
   `SELECT ${UNIT_COLUMNS} FROM units u WHERE u.serial = $1 FOR UPDATE`,
 )
 
+// The first scans of a released lot move it to in progress (WRITE_RUNS' 'started'), which locks
+// the lot; they take that lock first, before the unit's, as a hold does (lots.ts), so the two
+// cannot deadlock. Under READ COMMITTED a scan that waited here finds the lot in progress and no
+// row: it holds no lock on the lot, and the scans after it do not queue behind each other.
+export const LOCK_RELEASED_LOT = namedSql(
+  'scan-lock-released-lot',
+  `SELECT id FROM lots WHERE id = $1 AND status = 'released' FOR NO KEY UPDATE`,
+)
+
 // A statement of its own after the lock, so that under READ COMMITTED it sees whatever the
 // transaction we waited for committed (its step run, its event id).
 export const SCAN_CONTEXT = namedSql(

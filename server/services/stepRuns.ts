@@ -10,6 +10,7 @@ import { AppError } from '../errors'
 import { sqlPool } from '../db/pool'
 import { coalesce } from '../db/coalesce'
 import { isUniqueViolation, txQuery } from '../db/txSql'
+import { retryOnConflict } from '../db/retry'
 import { db, Nonconformance, StepRun, Unit } from '../models'
 import type { Actor } from './audit'
 import { applyConsumptions, planConsumptions } from './consumptions'
@@ -20,6 +21,7 @@ import { unitAfterRun, unitSummary } from './unitMoves'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 import {
+  LOCK_RELEASED_LOT,
   LOCK_UNIT,
   READ_SCANS,
   readScansValues,
@@ -189,7 +191,13 @@ async function decide(
       refusal?.message ?? `${row.serial} has no step to do`,
     )
   // Known before any check is evaluated, so such a scan does that work once, under the lock.
-  if (!transaction && (step.bomLines.length > 0 || step.requiresSignoff)) return 'needs_lock'
+  // A lot's first scans move it to in progress, which locks the lot: a lot is locked before its
+  // units (as a hold does, lots.ts), so they go the locked way, which takes the lot first.
+  if (
+    !transaction &&
+    (step.bomLines.length > 0 || step.requiresSignoff || row.lotStatus === 'released')
+  )
+    return 'needs_lock'
   const checks = step.checks
   checkTypedValues(checks, input.values)
   const results = evaluateChecks(checks, input.values, step.windings)
@@ -272,17 +280,22 @@ async function decide(
 
 type Recorded = Decision | { repeatOf: string }
 
+/** What the locked path must lock before the unit: the unit's lot, if the read saw it released. */
+interface LockFirst {
+  lotId: string | null
+}
+
 /**
  * The fast path: one read and one write on the plain pool, each shared with the scans that arrive
- * at the same time. Answers null when the scan needs the
- * locked path: it consumes component lots or needs a second sign-off, or the unit changed
- * between the read and the write (the write then changed nothing).
+ * at the same time. Answers what to lock first when the scan needs the locked path: it consumes
+ * component lots, needs a second sign-off or is among its lot's first (it moves the lot to in
+ * progress), or the unit changed between the read and the write (the write then changed nothing).
  */
 async function recordUnlocked(
   input: StepRunInput,
   actor: Actor,
   at: Date,
-): Promise<Recorded | null> {
+): Promise<Recorded | LockFirst> {
   const serial = codeFromScan(input.serial)
   const row = await readScan({
     serial,
@@ -291,19 +304,29 @@ async function recordUnlocked(
     defectCodeId: input.defectCodeId,
   })
   if (!row) throw noSuchUnit(serial)
+  // A lot never goes back to released, so a lot read in progress (or closed) needs no lock.
+  const lockFirst = { lotId: row.lotStatus === 'released' ? row.lotId : null }
   const decision = await decide(row, input, actor, at, null)
-  if (decision === 'needs_lock') return null
+  if (decision === 'needs_lock') return lockFirst
   if ('repeatOf' in decision) return decision
-  return (await writeRun(decision.write)) ? decision : null
+  return (await writeRun(decision.write)) ? decision : lockFirst
 }
 
-/** The locked path: the unit's row lock first, then the context, the write and its consumptions. */
+/**
+ * The locked path: the lot's row lock while it may still be released, then the unit's, then the
+ * context, the write and its consumptions.
+ */
 async function recordLocked(
   input: StepRunInput,
   actor: Actor,
   transaction: Transaction,
   at: Date,
+  lockFirst: LockFirst,
 ): Promise<Recorded> {
+  // Only WRITE_RUNS' move of a released lot to in progress locks a lot; taking that lock before
+  // the unit's keeps the one order (lot, then units) that a hold takes too. Once the lot is in
+  // progress the statement finds no row and locks nothing, so later scans do not queue on it.
+  if (lockFirst.lotId) await txQuery(transaction, LOCK_RELEASED_LOT, [lockFirst.lotId])
   // The row lock on the unit serialises every submission for it: a second station waits here,
   // then finds the unit moved on; a retried submission finds its own step run.
   const serial = codeFromScan(input.serial)
@@ -331,6 +354,13 @@ async function recordLocked(
   return decision
 }
 
+/** One try at a scan: the fast path, else one transaction on the locked path. */
+async function recordOnce(input: StepRunInput, actor: Actor, at: Date): Promise<Recorded> {
+  const out = await recordUnlocked(input, actor, at)
+  if ('write' in out || 'repeatOf' in out) return out
+  return db().transaction((t) => recordLocked(input, actor, t, at, out))
+}
+
 /** The answer to a submission, and for a new run the lot and step it was recorded at. */
 export type RecordedStepRun =
   | { isRepeat: true; body: StepRunResultDto }
@@ -348,9 +378,13 @@ export async function recordStepRun(
   at: Date = new Date(),
 ): Promise<RecordedStepRun> {
   try {
-    const out =
-      (await recordUnlocked(input, actor, at)) ??
-      (await db().transaction((t) => recordLocked(input, actor, t, at)))
+    const out = await retryOnConflict(() => recordOnce(input, actor, at)).catch((err) => {
+      // Two stations fitted one part serial at once: the unique index let the first in and made
+      // the second wait for it. Now that it is committed, the scan decided again is refused by
+      // planConsumptions, which names the unit; once only, whatever happens.
+      if (!isUniqueViolation(err, 'consumptions_part_serial_key')) throw err
+      return recordOnce(input, actor, at)
+    })
     if ('repeatOf' in out)
       return {
         isRepeat: true,

@@ -57,13 +57,14 @@ describe('ending a containment and deciding its units', () => {
     )
     const lotB = (await ComponentLot.findOne({ where: { internalCode: b.componentLotCode } }))!
     await db().query(
-      `INSERT INTO consumptions (id, unit_id, component_lot_id, bom_line_id, step_run_id, quantity, created_at)
-       VALUES (:id, :unitId, :lotId, :lineId, :runId, 1, now())`,
+      `INSERT INTO consumptions (id, unit_id, component_lot_id, part_id, bom_line_id, step_run_id, quantity, created_at)
+       VALUES (:id, :unitId, :lotId, :partId, :lineId, :runId, 1, now())`,
       {
         replacements: {
           id: randomUUID(),
           unitId: unit!.id,
           lotId: lotB.id,
+          partId: lotB.partId,
           lineId: b.rev.bom[0]!.id,
           runId: unit!.run_id,
         },
