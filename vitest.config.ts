@@ -6,7 +6,8 @@ import { defineConfig } from 'vitest/config'
 
 const fromRoot = (path: string) => fileURLToPath(new URL(path, import.meta.url))
 
-// Four projects; scripts/test.ts runs them as phases (unit = unit + unit-dom, then api, e2e).
+// Five projects; scripts/test.ts runs them as phases (unit = unit + unit-dom, then api, faults,
+// e2e).
 // vitest 4 has no environmentMatchGlobs, so component tests get their own project.
 export default defineConfig({
   plugins: [
@@ -46,6 +47,18 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 20000,
           hookTimeout: 20000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          // Stops and kills services of a stack of its own (tests/faults/support/stack.ts).
+          name: 'faults',
+          include: ['tests/faults/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 180000,
+          hookTimeout: 240000,
         },
       },
       {

@@ -1,17 +1,22 @@
 import { parseArgs } from 'node:util'
-import { loadDemo } from '../server/db/seed/demo'
+import { loadDemo, loadPeopleAndFloor } from '../server/db/seed/demo'
 import { env } from '../server/env'
 import { closeDb } from '../server/models'
 import { closeDocumentsQueue } from '../server/queues/documents'
 import { closeMailQueue } from '../server/queues/mail'
 
-const HELP = `Usage: tsx scripts/seed.ts [--if-empty]
+const HELP = `Usage: tsx scripts/seed.ts [--if-empty] [--minimal]
 
 Loads the invented demo scenario (Ferncastle Power) into the database named by WAYMARK_DB.
-  --if-empty  do nothing when the database already has users (what npm start uses)`
+  --if-empty  do nothing when the database already has users (what npm start uses)
+  --minimal   only the demo people and stations, no recipes, lots or papers (the fault tests)`
 
 const { values } = parseArgs({
-  options: { 'if-empty': { type: 'boolean' }, help: { type: 'boolean' } },
+  options: {
+    'if-empty': { type: 'boolean' },
+    minimal: { type: 'boolean' },
+    help: { type: 'boolean' },
+  },
 })
 if (values.help) {
   console.log(HELP)
@@ -19,10 +24,15 @@ if (values.help) {
 }
 
 try {
-  const loaded = await loadDemo({ onlyIfEmpty: values['if-empty'] ?? false })
-  console.log(
-    `seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`,
-  )
+  if (values.minimal) {
+    await loadPeopleAndFloor()
+    console.log(`seed: ${env.WAYMARK_DB}: demo people and stations loaded`)
+  } else {
+    const loaded = await loadDemo({ onlyIfEmpty: values['if-empty'] ?? false })
+    console.log(
+      `seed: ${env.WAYMARK_DB}: ${loaded ? 'demo scenario loaded' : 'already has data, left as it is'}`,
+    )
+  }
 } finally {
   await Promise.all([closeDb(), closeDocumentsQueue(), closeMailQueue()])
 }

@@ -1,4 +1,4 @@
-// `npm test`: services, a fresh test database, checks, client build, then unit, api and e2e.
+// `npm test`: services, a fresh test database, checks, client build, then unit, api, faults, e2e.
 // The last line printed is always `tests: N passed, M failed`.
 import { ensurePackages } from './lib/debian'
 import { ServiceError } from './lib/proc'
@@ -9,11 +9,13 @@ import { bin, flagValue, prepareDatabase, runStep } from './lib/steps'
 import type { Phase } from './lib/vitestRun'
 import { PHASES, runVitestPhase } from './lib/vitestRun'
 
-const HELP = `usage: npm test [-- --only unit|api|e2e[,…]] [-- --skip-checks]
+const HELP = `usage: npm test [-- --only unit|api|faults|e2e[,…]] [-- --skip-checks]
 
 Starts the services, resets and seeds the "waymark_test" database (waymark_laneN_test with
 WAYMARK_TEST_LANE=N, for a second checkout testing at the same time), runs typecheck and lint,
-builds the client (the e2e tests serve dist/), then vitest's unit, api and e2e projects.
+builds the client (the e2e tests serve dist/), then vitest's unit, api, faults and e2e
+projects. The faults phase stops and kills PostgreSQL and Redis of a stack of its own, started
+on free ports; it never touches the shared services.
 Exits non-zero when any test or step fails or no test ran.
 
   --only <phases>  run only these phases (comma-separated); unit skips the database
@@ -62,7 +64,9 @@ async function run(
     PORT: '0',
   }
 
-  const needsDb = phases.some((p) => p !== 'unit')
+  // The faults phase makes a database of its own (tests/faults/support/stack.ts).
+  const usesDb = (p: Phase) => p !== 'unit' && p !== 'faults'
+  const needsDb = phases.some(usesDb)
   const isDbReady =
     !needsDb || (await step('database', prepareDatabase(config, env, ['--reset'], [])))
   if (!argv.includes('--skip-checks')) {
@@ -84,7 +88,7 @@ async function run(
     ))
 
   for (const phase of phases) {
-    if (phase !== 'unit' && !isDbReady) {
+    if (usesDb(phase) && !isDbReady) {
       console.log(`\n==> vitest ${phase}: skipped (database not ready)`)
       continue
     }

@@ -46,6 +46,13 @@ const EnvSchema = z.object({
   WAYMARK_MAIL_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(5),
   WAYMARK_MAIL_BACKOFF_MS: z.coerce.number().int().min(10).default(30_000),
   WAYMARK_WORKERS: z.enum(['on', 'off']).default('on'),
+  // How long a worker's hold on a job lasts, and how often workers look for jobs whose holder
+  // died; BullMQ's defaults. The fault tests shorten them to see a killed worker's job run again.
+  WAYMARK_JOB_LOCK_MS: z.coerce.number().int().min(1000).default(30_000),
+  WAYMARK_JOB_STALL_CHECK_MS: z.coerce.number().int().min(500).default(30_000),
+  // Test only (NODE_ENV=test): a pause after each traveler page, so a test can catch a render
+  // half done. Ignored in any other mode.
+  WAYMARK_TEST_RENDER_PAUSE_MS: z.coerce.number().int().min(0).max(10_000).default(0),
 })
 
 interface DbCredentials {

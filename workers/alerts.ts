@@ -4,6 +4,7 @@ import { logger } from '../server/logger'
 import { ALERTS_QUEUE, alertJobKey, alertsQueue, enqueueAlertCheck } from '../server/queues/alerts'
 import type { AlertJob } from '../server/queues/alerts'
 import { redisPrefix } from '../server/redis'
+import { jobLocks } from './locks'
 import { evaluateLotStep, lotStepsRunSince } from '../server/services/alerts'
 
 export { ALERTS_QUEUE, enqueueAlertCheck }
@@ -39,11 +40,13 @@ export async function sweepAlerts(since: Date): Promise<number> {
 export function startAlertsWorker(connection: Redis): {
   worker: Worker<AlertJob>
   stop: () => void
+  sweepNow: () => void
 } {
   const worker = new Worker<AlertJob>(ALERTS_QUEUE, (job) => processAlertJob(job.data), {
     connection,
     prefix: redisPrefix,
     concurrency: 2,
+    ...jobLocks(),
   })
   let since = new Date(Date.now() - FIRST_SWEEP_LOOKBACK_MS)
   let isSweeping = false
@@ -63,5 +66,5 @@ export function startAlertsWorker(connection: Redis): {
   sweep()
   const timer = setInterval(sweep, SWEEP_EVERY_MS)
   timer.unref()
-  return { worker, stop: () => clearInterval(timer) }
+  return { worker, stop: () => clearInterval(timer), sweepNow: sweep }
 }

@@ -4,6 +4,7 @@ import { logger } from '../server/logger'
 import { DOCUMENTS_QUEUE, enqueueDocument } from '../server/queues/documents'
 import type { DocumentJob } from '../server/queues/documents'
 import { redisPrefix } from '../server/redis'
+import { jobLocks } from './locks'
 import { failDocument, pendingDocumentIds, renderDocument } from '../server/services/documentRender'
 
 export { DOCUMENTS_QUEUE, enqueueDocument }
@@ -22,22 +23,29 @@ export async function sweepDocuments(olderThanMs = 30_000): Promise<number> {
 export function startDocumentsWorker(connection: Redis): {
   worker: Worker<DocumentJob>
   stop: () => void
+  sweepNow: () => void
 } {
   const worker = new Worker<DocumentJob>(
     DOCUMENTS_QUEUE,
     async (job) => {
       await renderDocument(job.data.documentId, (percent) => job.updateProgress(percent))
     },
-    { connection, prefix: redisPrefix, concurrency: 2 },
+    { connection, prefix: redisPrefix, concurrency: 2, ...jobLocks() },
   )
   worker.on('failed', (job, err) => {
     if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
-      void failDocument(job.data.documentId, err.message)
+      failDocument(job.data.documentId, err.message).catch((e: unknown) =>
+        logger.error({ err: e, documentId: job.data.documentId }, 'could not mark document failed'),
+      )
   })
-  const sweep = () =>
-    void sweepDocuments().catch((err: unknown) => logger.warn({ err }, 'document sweep failed'))
+  const sweep = (olderThanMs?: number) =>
+    void sweepDocuments(olderThanMs).catch((err: unknown) =>
+      logger.warn({ err }, 'document sweep failed'),
+    )
   sweep() // on start-up: pick up what was requested while no worker or no Redis was there
   const timer = setInterval(sweep, SWEEP_EVERY_MS)
   timer.unref()
-  return { worker, stop: () => clearInterval(timer) }
+  // Redis is back: every row still queued lost its job (or it waits; the job id makes a second
+  // enqueue a no-op), whatever its age.
+  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

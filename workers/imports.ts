@@ -4,6 +4,7 @@ import { logger } from '../server/logger'
 import { enqueueImport, enqueueImportCheck, IMPORTS_QUEUE } from '../server/queues/imports'
 import type { ImportJob } from '../server/queues/imports'
 import { redisPrefix } from '../server/redis'
+import { jobLocks } from './locks'
 import { checkImport, failImport, pendingImports, processImport } from '../server/services/imports'
 
 export { enqueueImport, IMPORTS_QUEUE }
@@ -26,6 +27,7 @@ export async function sweepImports(olderThanMs = 30_000): Promise<number> {
 export function startImportsWorker(connection: Redis): {
   worker: Worker<ImportJob>
   stop: () => void
+  sweepNow: () => void
 } {
   const worker = new Worker<ImportJob>(
     IMPORTS_QUEUE,
@@ -35,16 +37,20 @@ export function startImportsWorker(connection: Redis): {
       else await processImport(job.data.importId, report)
     },
     // One file at a time: rows of two files for one unit must not race for its step.
-    { connection, prefix: redisPrefix, concurrency: 1 },
+    { connection, prefix: redisPrefix, concurrency: 1, ...jobLocks() },
   )
   worker.on('failed', (job, err) => {
     if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
-      void failImport(job.data.importId, err.message)
+      failImport(job.data.importId, err.message).catch((e: unknown) =>
+        logger.error({ err: e, importId: job.data.importId }, 'could not mark import failed'),
+      )
   })
-  const sweep = () =>
-    void sweepImports().catch((err: unknown) => logger.warn({ err }, 'import sweep failed'))
+  const sweep = (olderThanMs?: number) =>
+    void sweepImports(olderThanMs).catch((err: unknown) =>
+      logger.warn({ err }, 'import sweep failed'),
+    )
   sweep() // on start-up: pick up what was requested while no worker or no Redis was there
   const timer = setInterval(sweep, SWEEP_EVERY_MS)
   timer.unref()
-  return { worker, stop: () => clearInterval(timer) }
+  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

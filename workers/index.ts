@@ -29,6 +29,21 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   ]
   for (const w of workers)
     w.on('failed', (job, err) => logger.error({ err, job: job?.id, queue: w.name }, 'job failed'))
+  // Jobs asked for while Redis was away wait as rows in PostgreSQL (documents, e-mails, imports
+  // `queued`; step runs for the alerts). Sweep them as soon as Redis answers again, rather than
+  // at the next timed sweep minutes later.
+  let isRedisDown = false
+  const down = () => {
+    isRedisDown = true
+  }
+  connection.on('close', down)
+  connection.on('error', down)
+  connection.on('ready', () => {
+    if (!isRedisDown) return
+    isRedisDown = false
+    logger.info('redis is back; sweeping the jobs that waited in the database')
+    for (const queue of [documents, mail, alerts, imports]) queue.sweepNow()
+  })
   logger.info({ queues: workers.map((w) => w.name) }, 'workers started')
   return {
     close: async () => {

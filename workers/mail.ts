@@ -4,6 +4,7 @@ import { logger } from '../server/logger'
 import { enqueueMail, MAIL_QUEUE } from '../server/queues/mail'
 import type { MailJob } from '../server/queues/mail'
 import { redisPrefix } from '../server/redis'
+import { jobLocks } from './locks'
 import { failEmail, pendingEmailIds, sendEmail } from '../server/services/mailDelivery'
 
 export { enqueueMail, MAIL_QUEUE }
@@ -19,11 +20,16 @@ export async function sweepMail(olderThanMs = 120_000): Promise<number> {
 }
 
 /** Sends queued e-mails; the row records each attempt, the result and, at the end, any failure. */
-export function startMailWorker(connection: Redis): { worker: Worker<MailJob>; stop: () => void } {
+export function startMailWorker(connection: Redis): {
+  worker: Worker<MailJob>
+  stop: () => void
+  sweepNow: () => void
+} {
   const worker = new Worker<MailJob>(MAIL_QUEUE, (job) => sendEmail(job.data.emailId), {
     connection,
     prefix: redisPrefix,
     concurrency: 2,
+    ...jobLocks(),
   })
   worker.on('failed', (job, err) => {
     if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
@@ -31,10 +37,11 @@ export function startMailWorker(connection: Redis): { worker: Worker<MailJob>; s
         logger.error({ err: e, emailId: job.data.emailId }, 'could not mark e-mail failed'),
       )
   })
-  const sweep = () =>
-    void sweepMail().catch((err: unknown) => logger.warn({ err }, 'mail sweep failed'))
+  const sweep = (olderThanMs?: number) =>
+    void sweepMail(olderThanMs).catch((err: unknown) => logger.warn({ err }, 'mail sweep failed'))
   sweep() // on start-up: pick up what was queued while no worker or no Redis was there
   const timer = setInterval(sweep, SWEEP_EVERY_MS)
   timer.unref()
-  return { worker, stop: () => clearInterval(timer) }
+  // Redis is back: a queued row's job was lost or still waits (the job id dedupes), whatever its age.
+  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

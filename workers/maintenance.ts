@@ -2,6 +2,7 @@ import { Queue, Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
 import { redisPrefix } from '../server/redis'
+import { jobLocks } from './locks'
 import { sweepExpiredSessions } from '../server/services/sessions'
 
 /** Housekeeping that every deployment needs once, not once per API process. */
@@ -41,6 +42,6 @@ export function startMaintenanceWorker(connection: Redis): Worker<MaintenanceJob
       }
       return null
     },
-    { connection, prefix: redisPrefix, concurrency: 1 },
+    { connection, prefix: redisPrefix, concurrency: 1, ...jobLocks() },
   )
 }

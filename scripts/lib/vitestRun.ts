@@ -4,11 +4,16 @@ import { join } from 'node:path'
 import type { ServiceConfig } from './serviceConfig'
 import { bin, runStep } from './steps'
 
-export type Phase = 'unit' | 'api' | 'e2e'
-export const PHASES: readonly Phase[] = ['unit', 'api', 'e2e']
+export type Phase = 'unit' | 'api' | 'faults' | 'e2e'
+export const PHASES: readonly Phase[] = ['unit', 'api', 'faults', 'e2e']
 
 /** vitest projects per phase; `unit-dom` holds the component tests under tests/unit/src. */
-const PROJECTS: Record<Phase, string[]> = { unit: ['unit', 'unit-dom'], api: ['api'], e2e: ['e2e'] }
+const PROJECTS: Record<Phase, string[]> = {
+  unit: ['unit', 'unit-dom'],
+  api: ['api'],
+  faults: ['faults'],
+  e2e: ['e2e'],
+}
 
 export interface PhaseResult {
   phase: Phase

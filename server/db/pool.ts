@@ -1,14 +1,19 @@
 import pg from 'pg'
 import { env, requireSetting } from '../env'
+import { logger } from '../logger'
 
 let pool: pg.Pool | undefined
+
+/** How long a request waits for a database connection before it answers 503 (both pools). */
+export const CONNECT_TIMEOUT_MS = 5_000
 
 /**
  * A plain pg pool beside Sequelize's, for statements that need no ORM and no transaction of
  * their own: the session store, the session user, and the scan's unlocked fast path.
  */
 export function sqlPool(): pg.Pool {
-  pool ??= new pg.Pool({
+  if (pool) return pool
+  pool = new pg.Pool({
     connectionString: requireSetting(env.databaseUrl, 'the database URL'),
     max: 10,
     // Every statement prepared on this pool (the scan's, the session user's) is a look-up by
@@ -20,7 +25,17 @@ export function sqlPool(): pg.Pool {
     // not made again until the table's statistics change: so no sequential scan where an index
     // serves. Unnamed statements, such as the session store's, are planned for their values.
     options: '-c plan_cache_mode=force_generic_plan -c enable_seqscan=off',
+    // While the database is away a request fails within seconds with a 503 rather than waiting:
+    // for a connection (a refused one fails at once; a lost network would not), and for the reply
+    // to a statement, all of which are look-ups that take milliseconds.
+    connectionTimeoutMillis: CONNECT_TIMEOUT_MS,
+    query_timeout: 10_000,
+    keepAlive: true,
   })
+  // An idle connection that the server drops (a restart, pg_terminate_backend) is reported here;
+  // with no listener that would end the process. The pool has already let it go, and the next
+  // query opens a new one.
+  pool.on('error', (err) => logger.warn({ err: err.message }, 'database connection lost (idle)'))
   return pool
 }
 

@@ -1,4 +1,5 @@
 import pg from 'pg'
+import { CONNECT_TIMEOUT_MS } from '../db/pool'
 import { env, requireSetting } from '../env'
 import { logger } from '../logger'
 
@@ -88,6 +89,10 @@ async function listen(): Promise<void> {
   if (listener || isStopped) return
   const client = new pg.Client({
     connectionString: requireSetting(env.databaseUrl, 'the database URL'),
+    // A connection attempt while the database is away must fail, and be tried again, in bounded
+    // time; keep-alive notices a listener whose server vanished without closing the socket.
+    connectionTimeoutMillis: CONNECT_TIMEOUT_MS,
+    keepAlive: true,
   })
   listener = client
   const lost = (err?: unknown) => {

@@ -2,12 +2,20 @@ import type { NextFunction, Request, Response } from 'express'
 import { MulterError } from 'multer'
 import { UniqueConstraintError, ValidationError } from 'sequelize'
 import type { ApiErrorBody } from '../../shared/errors'
+import { isDatabaseUnavailable } from '../db/unavailable'
 import { AppError } from '../errors'
 import { logger } from '../logger'
 import { requestFields } from './requestLog'
 
 function toAppError(err: unknown): AppError | null {
   if (err instanceof AppError) return err
+  // Down, restarting or the connection lost: nothing was acknowledged, so the client may retry.
+  if (isDatabaseUnavailable(err))
+    return new AppError(
+      503,
+      'database_unavailable',
+      'the database is not reachable; try again in a moment',
+    )
   if (err instanceof UniqueConstraintError) {
     const fields = Object.fromEntries(err.errors.map((e) => [e.path ?? '_', 'already in use']))
     return AppError.conflict('duplicate', 'a record with this value exists', fields)
@@ -49,6 +57,10 @@ function toAppError(err: unknown): AppError | null {
 export function errorHandler(err: unknown, req: Request, res: Response, _next: NextFunction): void {
   const known = toAppError(err)
   if (known) {
+    if (known.code === 'database_unavailable') {
+      logger.warn({ err: (err as Error).message, req: requestFields(req) }, 'database unavailable')
+      res.set('Retry-After', '1')
+    }
     const body: ApiErrorBody = { error: known.code, message: known.message }
     if (known.fields) body.fields = known.fields
     if (known.details) body.details = known.details

@@ -1,6 +1,7 @@
 import { Sequelize } from 'sequelize'
 import { env, requireSetting } from '../env'
 import { logger } from '../logger'
+import { CONNECT_TIMEOUT_MS } from '../db/pool'
 import { AuditEvent, initAuditEvent } from './AuditEvent'
 import { BomLine, initBomLine } from './BomLine'
 import { Check, initCheck } from './Check'
@@ -82,7 +83,11 @@ export function db(): Sequelize {
   instance = new Sequelize(requireSetting(env.databaseUrl, 'the database URL'), {
     dialect: 'postgres',
     logging: (sql) => logger.trace({ sql }, 'sql'),
-    pool: { max: 20, idle: 10_000 },
+    // Bounded waits, so a request fails with a 503 within seconds while the database is away: for
+    // a free connection (acquire), and for a new one to be made. A connection that errors is
+    // dropped by Sequelize and made again on next use.
+    pool: { max: 20, idle: 10_000, acquire: CONNECT_TIMEOUT_MS },
+    dialectOptions: { connectionTimeoutMillis: CONNECT_TIMEOUT_MS, keepAlive: true },
     define: { underscored: true },
   })
   for (const init of [

@@ -12,7 +12,8 @@ import { loadDemoRecipes } from './loadRecipes'
 /** The actor the audit log names for demo rows. */
 export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, requestId: null }
 
-async function loadPeopleAndFloor(): Promise<void> {
+/** The demo people (one per role) and stations: what a test stack that builds its own data needs. */
+export async function loadPeopleAndFloor(): Promise<void> {
   const passwordHash = await hashPassword(DEMO_PASSWORD)
   await db().transaction(async (transaction) => {
     for (const u of DEMO_USERS) {

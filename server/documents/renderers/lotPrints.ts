@@ -20,8 +20,22 @@ async function lotWithUnits(doc: Document) {
   return { lot, rev, units, issuedAt: lot.releasedAt ?? lot.createdAt }
 }
 
+/**
+ * In tests only, a pause after each page (WAYMARK_TEST_RENDER_PAUSE_MS), so that a fault test can
+ * kill a worker while its render is half done and see the job run again.
+ */
+function withTestPause(progress: Progress): Progress {
+  const pauseMs = env.isTest ? env.WAYMARK_TEST_RENDER_PAUSE_MS : 0
+  if (!pauseMs) return progress
+  return async (fraction) => {
+    await progress(fraction)
+    if (fraction < 1) await new Promise((resolve) => setTimeout(resolve, pauseMs))
+  }
+}
+
 /** One traveler page per unit of the document's lot. */
-export async function renderTravelers(doc: Document, progress: Progress): Promise<Buffer> {
+export async function renderTravelers(doc: Document, report: Progress): Promise<Buffer> {
+  const progress = withTestPause(report)
   const { lot, rev, units, issuedAt } = await lotWithUnits(doc)
   return travelersPdf(
     {
