@@ -1,7 +1,7 @@
 import { HIGH_VOLTAGE_KINDS } from '../../shared/stations'
 import type { StationKind } from '../../shared/stations'
 import type { CheckDto } from '../../shared/schemas/recipes'
-import { checkLimitWords, limitNumber } from './limitWords'
+import { checkLimitWords, limitNumber } from '../../shared/recipes/limitText'
 import { MM, pdfBuffer } from './pdf'
 import { drawLine, drawText, textHeight } from './pdfText'
 import { customerPaper, INK, PAPER_STYLE, PaperWriter, SHEET, SHEET_WIDTH } from './paper'

@@ -1,6 +1,6 @@
 import type { CheckDto, StepDto } from '../../shared/schemas/recipes'
 import { HIGH_VOLTAGE_KINDS } from '../../shared/stations'
-import { checkLimitWords } from './limitWords'
+import { checkLimitWords } from '../../shared/recipes/limitText'
 import { FONT, MM } from './pdf'
 import { textHeight } from './pdfText'
 import type { TextStyle } from './pdfText'

@@ -1,5 +1,5 @@
 import type { CheckDto } from '../../shared/schemas/recipes'
-import { checkLimitWords } from './limitWords'
+import { checkLimitWords } from '../../shared/recipes/limitText'
 import { FONT, MM } from './pdf'
 import { drawLine, drawText, textHeight } from './pdfText'
 import type { TextStyle } from './pdfText'

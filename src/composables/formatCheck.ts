@@ -1,24 +1,12 @@
+import { limitText } from '@shared/recipes/limitText'
 import type { CheckDto } from '@shared/schemas/recipes'
 
-type Limits = Pick<CheckDto, 'lower' | 'upper' | 'unit' | 'decimals'>
-type PassShape = Limits & Pick<CheckDto, 'kind' | 'choices'>
+type PassShape = Pick<CheckDto, 'lower' | 'upper' | 'unit' | 'decimals' | 'kind' | 'choices'>
 
 /** A number with the check's decimals, or an em dash. */
 export function formatValue(value: number | null | undefined, decimals: number): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—'
   return value.toFixed(decimals)
-}
-
-/** "11.40 to 12.60 µH", "exactly 6 turns", "at least 11.40 µH", "at most 12.60 µH" or "no limits". */
-export function formatLimits(check: Limits): string {
-  const unit = check.unit ? ` ${check.unit}` : ''
-  const lower = formatValue(check.lower, check.decimals)
-  const upper = formatValue(check.upper, check.decimals)
-  if (check.lower !== null && check.lower === check.upper) return `exactly ${lower}${unit}`
-  if (check.lower !== null && check.upper !== null) return `${lower} to ${upper}${unit}`
-  if (check.lower !== null) return `at least ${lower}${unit}`
-  if (check.upper !== null) return `at most ${upper}${unit}`
-  return 'no limits'
 }
 
 /**
@@ -37,7 +25,7 @@ export function describePass(check: PassShape): string {
   if (check.kind === 'numeric')
     return check.lower === null && check.upper === null
       ? 'any reading (no limits yet)'
-      : formatLimits(check)
+      : limitText(check, 'recipe')
   if (check.kind === 'boolean') return 'answered yes'
   if (check.kind === 'text') return 'filled in'
   const passing = (check.choices ?? [])

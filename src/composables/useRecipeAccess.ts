@@ -15,7 +15,7 @@ export function useRecipeAccess() {
     canEditDefectCodes: has('editDefectCodes'),
     canEditParts: has('editParts'),
     canReadParts: has('readParts'),
-    canEditReceiving: has('editComponentLots'),
+    canEditComponentLots: has('editComponentLots'),
     canSetLotStatus: has('setComponentLotStatus'),
     canPrintLabels: has('printLotLabels'),
     /**

@@ -91,9 +91,9 @@ export const router = createRouter({
     },
     {
       path: '/receiving',
-      name: 'receiving',
+      name: 'componentLots',
       meta: { roles: rolesOf('receiving') },
-      component: () => import('@/views/Receiving/ReceivingView.vue'),
+      component: () => import('@/views/ComponentLots/ComponentLotsView.vue'),
     },
     {
       path: '/import',

@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
-import { reactive, ref } from 'vue'
-import type { AuditEventDto } from '@shared/schemas/audit'
+import { reactive } from 'vue'
 import { auditApi } from '@/api/audit'
+import { usePagedList } from '@/composables/usePagedList'
 
 /** The filters of the audit screen; empty strings mean "any". */
 export interface AuditFilters {
@@ -11,39 +11,18 @@ export interface AuditFilters {
 }
 
 export const useAuditStore = defineStore('audit', () => {
-  /** Events of the current page, newest first. */
-  const rows = ref<AuditEventDto[]>([])
-  /** Events matching the filters, over all pages. */
-  const total = ref(0)
-  const page = ref(1)
-  const pageSize = ref(50)
   const filters = reactive<AuditFilters>({ entity: '', action: '', actor: '' })
-  /** True while a page is being fetched. */
-  const isLoading = ref(false)
 
-  /** Fetches the current page with the current filters; throws ApiError. */
-  async function fetchPage() {
-    isLoading.value = true
-    try {
-      const result = await auditApi.list({
-        page: page.value,
-        pageSize: pageSize.value,
+  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+    (paging) =>
+      auditApi.list({
+        ...paging,
         entity: filters.entity.trim(),
         action: filters.action.trim(),
         actor: filters.actor.trim(),
-      })
-      rows.value = result.rows
-      total.value = result.total
-    } finally {
-      isLoading.value = false
-    }
-  }
+      }),
+    50,
+  )
 
-  /** Applies changed filters from the first page. */
-  async function search() {
-    page.value = 1
-    await fetchPage()
-  }
-
-  return { rows, total, page, pageSize, filters, isLoading, fetchPage, search }
+  return { rows, total, page, pageSize, filters, isLoading, loadError, fetchPage, search }
 })

@@ -9,6 +9,7 @@ import type {
   ComponentLotUpdateInput,
 } from '@shared/schemas/receiving'
 import { componentLotsApi } from '@/api/componentLots'
+import { usePagedList } from '@/composables/usePagedList'
 
 export type ComponentLotSort = (typeof COMPONENT_LOT_SORTS)[number]
 
@@ -21,43 +22,22 @@ export interface ComponentLotFilters {
 
 /** Component lots as received by stores, paged, sorted and filtered on the server. */
 export const useComponentLotsStore = defineStore('componentLots', () => {
-  /** Lots of the current page. */
-  const rows = ref<ComponentLotDto[]>([])
-  /** Lots matching the filters, over all pages. */
-  const total = ref(0)
-  const page = ref(1)
-  const pageSize = ref(25)
   const sort = ref<ComponentLotSort>('receivedOn')
   const order = ref<'asc' | 'desc'>('desc')
   const filters = reactive<ComponentLotFilters>({ q: '', partId: '', status: '' })
-  /** True while a page is being fetched. */
-  const isLoading = ref(false)
 
-  /** Fetches the current page with the current filters and sort; throws ApiError. */
-  async function fetchPage() {
-    isLoading.value = true
-    try {
-      const result = await componentLotsApi.list({
-        page: page.value,
-        pageSize: pageSize.value,
+  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+    (paging) =>
+      componentLotsApi.list({
+        ...paging,
         sort: sort.value,
         order: order.value,
         q: filters.q.trim() || undefined,
         partId: filters.partId || undefined,
         status: filters.status || undefined,
-      })
-      rows.value = result.rows
-      total.value = result.total
-    } finally {
-      isLoading.value = false
-    }
-  }
-
-  /** Applies changed filters or sort from the first page. */
-  async function search() {
-    page.value = 1
-    await fetchPage()
-  }
+      }),
+    25,
+  )
 
   function put(lot: ComponentLotDto) {
     rows.value = rows.value.map((l) => (l.id === lot.id ? lot : l))
@@ -87,6 +67,7 @@ export const useComponentLotsStore = defineStore('componentLots', () => {
     order,
     filters,
     isLoading,
+    loadError,
     fetchPage,
     search,
     create,

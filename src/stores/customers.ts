@@ -5,7 +5,7 @@ import type {
   CustomerDto,
   CustomerUpdateInput,
 } from '@shared/schemas/shipping'
-import { customersApi } from '@/api/shipping'
+import { customersApi } from '@/api/customers'
 
 export const useCustomersStore = defineStore('customers', () => {
   /** Every customer, by name. */

@@ -2,7 +2,7 @@ import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { DocumentDto } from '@shared/schemas/lots'
 import type { DocumentEmailDraftDto, DocumentEmailInput } from '@shared/schemas/shipping'
-import { documentsApi } from '@/api/shipping'
+import { documentsApi } from '@/api/documents'
 
 /** E-mailing a finished document (certificate, packing slip, lot report) to a customer. */
 export const useDocumentMailStore = defineStore('documentMail', () => {

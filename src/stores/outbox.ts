@@ -1,19 +1,12 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { EmailDto, EmailStatus, EmailSummaryDto } from '@shared/schemas/outbox'
+import type { EmailDto, EmailStatus } from '@shared/schemas/outbox'
 import { outboxApi } from '@/api/outbox'
+import { usePagedList } from '@/composables/usePagedList'
 
 export const useOutboxStore = defineStore('outbox', () => {
-  /** E-mails of the current page, newest first. */
-  const rows = ref<EmailSummaryDto[]>([])
-  /** E-mails matching the filter, over all pages. */
-  const total = ref(0)
-  const page = ref(1)
-  const pageSize = ref(50)
   /** The status filter; an empty string means any status. */
   const status = ref<EmailStatus | ''>('')
-  /** True while a page is being fetched. */
-  const isLoading = ref(false)
   /** The id of the e-mail open in the detail panel, or null when it is closed. */
   const openId = ref<string | null>(null)
   /** The open e-mail once it has loaded. */
@@ -21,27 +14,14 @@ export const useOutboxStore = defineStore('outbox', () => {
   /** True while the open e-mail is being fetched. */
   const isCurrentLoading = ref(false)
 
-  /** Fetches the current page with the current filter; throws ApiError. */
-  async function fetchPage() {
-    isLoading.value = true
-    try {
-      const result = await outboxApi.list({
-        page: page.value,
-        pageSize: pageSize.value,
+  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+    (paging) =>
+      outboxApi.list({
+        ...paging,
         status: status.value || undefined,
-      })
-      rows.value = result.rows
-      total.value = result.total
-    } finally {
-      isLoading.value = false
-    }
-  }
-
-  /** Applies a changed filter from the first page. */
-  async function search() {
-    page.value = 1
-    await fetchPage()
-  }
+      }),
+    50,
+  )
 
   /** Opens one e-mail in the detail panel; throws ApiError and closes the panel on failure. */
   async function open(id: string) {
@@ -95,6 +75,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     pageSize,
     status,
     isLoading,
+    loadError,
     openId,
     current,
     isCurrentLoading,

@@ -3,47 +3,27 @@ import { ref } from 'vue'
 import type { PartDto, PartInput } from '@shared/schemas/recipes'
 import type { PART_SORTS } from '@shared/schemas/receiving'
 import { partsApi } from '@/api/parts'
+import { usePagedList } from '@/composables/usePagedList'
 
 export type PartSort = (typeof PART_SORTS)[number]
 
 /** The parts list, paged, searched and sorted on the server; also the search behind part pickers. */
 export const usePartsStore = defineStore('parts', () => {
-  /** Parts of the current page. */
-  const rows = ref<PartDto[]>([])
-  /** Parts matching the search, over all pages. */
-  const total = ref(0)
-  const page = ref(1)
-  const pageSize = ref(25)
   /** Text searched in part number and description. */
   const q = ref('')
   const sort = ref<PartSort>('partNumber')
   const order = ref<'asc' | 'desc'>('asc')
-  /** True while a page is being fetched. */
-  const isLoading = ref(false)
 
-  /** Fetches the current page; throws ApiError. */
-  async function fetchPage() {
-    isLoading.value = true
-    try {
-      const result = await partsApi.list({
-        page: page.value,
-        pageSize: pageSize.value,
+  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+    (paging) =>
+      partsApi.list({
+        ...paging,
         q: q.value.trim() || undefined,
         sort: sort.value,
         order: order.value,
-      })
-      rows.value = result.rows
-      total.value = result.total
-    } finally {
-      isLoading.value = false
-    }
-  }
-
-  /** Applies a changed search or sort from the first page. */
-  async function search() {
-    page.value = 1
-    await fetchPage()
-  }
+      }),
+    25,
+  )
 
   /** The first parts matching `text`, for a picker; leaves the list untouched. */
   async function lookup(text: string): Promise<PartDto[]> {
@@ -73,6 +53,7 @@ export const usePartsStore = defineStore('parts', () => {
     sort,
     order,
     isLoading,
+    loadError,
     fetchPage,
     search,
     lookup,

@@ -9,7 +9,8 @@ import type {
   ServiceCaseUpdateInput,
 } from '@shared/schemas/shipping'
 import { revisionsApi } from '@/api/revisions'
-import { documentsApi, serviceCasesApi } from '@/api/shipping'
+import { documentsApi } from '@/api/documents'
+import { serviceCasesApi } from '@/api/serviceCases'
 
 export const useServiceStore = defineStore('service', () => {
   /** Cases, open ones first. */

@@ -8,7 +8,7 @@ import type {
   ShippableUnitDto,
 } from '@shared/schemas/shipping'
 import { ApiError } from '@/api/client'
-import { shipmentsApi } from '@/api/shipping'
+import { shipmentsApi } from '@/api/shipments'
 
 /** One scan at the packing bench, as the list beside the scan box shows it. */
 export interface PackScan {

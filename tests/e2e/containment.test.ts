@@ -1,37 +1,17 @@
-import { join } from 'node:path'
-import type { Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { Unit } from '../../server/models'
 import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
 import type { TestLot } from '../api/support/floor'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure } from './support/browser'
-import type { TestBrowser } from './support/browser'
-
-async function signInByApi(page: Page, email: string): Promise<void> {
-  await page.evaluate(async (email) => {
-    const csrf = (await (await fetch('/api/auth/csrf')).json()).csrfToken
-    const res = await fetch('/api/auth/login', {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
-      body: JSON.stringify({ email, password: 'waymark-demo' }),
-    })
-    if (!res.ok) throw new Error(`sign-in failed: ${res.status}`)
-  }, email)
-}
+import { openPage, picturesOf, signInByApi, useE2eApp } from './support/setup'
 
 describe('ending a containment on the recall page', { timeout: 120_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
+  const e2e = useE2eApp()
   // A lot of its own, so the demo's lots stay as the other tests expect them.
   let t: TestLot
   let serials: string[]
 
   beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
     await resetSignInLimits()
     const [engineer, lead, stores, operator] = await Promise.all(
       ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
@@ -47,17 +27,11 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
       .expect(200)
   }, 90_000)
 
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
-
   it('lets a lead reject the lot and then scrap one of its held units', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'containment-end')
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInByApi(page, 'lead@ferncastle.example')
-    await page.goto(`${app.baseUrl}/trace?lot=${t.componentLotCode}`)
+    const page = await openPage(e2e, 'containment-end')
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await signInByApi(page, 'lead')
+    await page.goto(`${e2e.app.baseUrl}/trace?lot=${t.componentLotCode}`)
     await page.locator('[data-test=recall-code]').waitFor()
     await page.locator('[data-test=end-containment]').click()
     const confirm = page.locator('[data-test=end-confirm]')
@@ -66,7 +40,7 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
     await page.locator('[data-test=end-rejected]').click()
     await page.locator('#end-reason').fill('cores measured 30 % under their rated factor')
     expect(await confirm.isDisabled()).toBe(false)
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'containment-end-dialog.png') })
+    await picturesOf(page)('containment-end-dialog')
     await confirm.click()
     await page.locator('.el-overlay-dialog').first().waitFor({ state: 'hidden' })
     await page.getByRole('status').filter({ hasText: 'Containment ended, lot rejected' }).waitFor()
@@ -74,12 +48,12 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
     const decide = page.locator(`[data-test=decide-${serials[1]}]`)
     await decide.waitFor()
     expect(await page.locator('[data-test^=decide-]').count()).toBe(3)
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'containment-rejected.png') })
+    await picturesOf(page)('containment-rejected')
     await decide.click()
     const dialog = page.getByRole('dialog', { name: `Decide on ${serials[1]}` })
     await dialog.getByText('fitted at').waitFor()
     await page.waitForTimeout(400) // the dialog's opening animation, for the picture only
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'containment-decide-dialog.png') })
+    await picturesOf(page)('containment-decide-dialog')
     await dialog.locator('.wm-choice', { hasText: 'Scrap' }).click()
     await dialog.getByRole('button', { name: 'Scrap' }).click()
     await expect

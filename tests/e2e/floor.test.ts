@@ -1,42 +1,17 @@
-import { mkdirSync } from 'node:fs'
-import { join } from 'node:path'
 import type { Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { LotDto, LotGridDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { ComponentLotDto, PageDto } from '../../shared/schemas/receiving'
 import type { ProductDto } from '../../shared/schemas/recipes'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure } from './support/browser'
-import type { TestBrowser } from './support/browser'
-
-const PASSWORD = 'waymark-demo'
-
-/** Calls the API from inside the page, with the page's session cookie and a CSRF token. */
-async function callApi<T>(page: Page, path: string, method = 'GET', body?: unknown): Promise<T> {
-  return page.evaluate(
-    async ({ path, method, body }) => {
-      const headers: Record<string, string> = { Accept: 'application/json' }
-      if (method !== 'GET') {
-        headers['Content-Type'] = 'application/json'
-        headers['X-CSRF-Token'] = (await (await fetch('/api/auth/csrf')).json()).csrfToken
-      }
-      const response = await fetch(`/api${path}`, {
-        method,
-        headers,
-        body: body === undefined ? undefined : JSON.stringify(body),
-      })
-      if (!response.ok)
-        throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`)
-      return response.status === 204 ? null : response.json()
-    },
-    { path, method, body },
-  ) as Promise<T>
-}
-
-async function signInByApi(page: Page, email: string): Promise<void> {
-  await callApi(page, '/auth/login', 'POST', { email, password: PASSWORD })
-}
+import {
+  DEMO_PASSWORD,
+  callApi,
+  demoEmail,
+  openPage,
+  picturesOf,
+  signInByApi,
+  useE2eApp,
+} from './support/setup'
 
 /** The id of the focused element's `data-field`, or its id. */
 function focusedField(page: Page): Promise<string | null> {
@@ -116,41 +91,27 @@ async function prepareJob(page: Page): Promise<Job> {
 }
 
 describe('Floor station screen', { timeout: 90_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('records a winding step with the keyboard alone, and the lot grid shows it passed first time', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'floor-keyboard')
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    const picture = (name: string) =>
-      page.screenshot({ path: join(E2E_RESULTS_DIR, `${name}.png`) })
+    const page = await openPage(e2e, 'floor-keyboard')
+    const picture = picturesOf(page)
 
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInByApi(page, 'lead@ferncastle.example')
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await signInByApi(page, 'lead')
     const job = await prepareJob(page)
     await callApi(page, '/auth/logout', 'POST')
 
     // From here on the operator uses the keyboard only.
-    await page.goto(`${app.baseUrl}/floor/WND-1`)
+    await page.goto(`${e2e.app.baseUrl}/floor/WND-1`)
     await page.waitForURL(/\/signin\?next=/)
     const email = page.locator('input[name="email"]')
     await email.waitFor()
     for (let i = 0; i < 10 && !(await email.evaluate((el) => el === document.activeElement)); i++)
       await page.keyboard.press('Tab')
-    await page.keyboard.type('operator@ferncastle.example')
+    await page.keyboard.type(demoEmail('operator'))
     await page.keyboard.press('Tab')
-    await page.keyboard.type(PASSWORD)
+    await page.keyboard.type(DEMO_PASSWORD)
     await page.keyboard.press('Enter')
     await page.waitForURL(/\/floor\/WND-1$/)
     await waitForFocus(page, 'scan')
@@ -215,9 +176,9 @@ describe('Floor station screen', { timeout: 90_000 }, () => {
 
     // The lead sees the unit's winding cell as passed first time.
     await callApi(page, '/auth/logout', 'POST')
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInByApi(page, 'lead@ferncastle.example')
-    await page.goto(`${app.baseUrl}/lots/${job.lotId}`)
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await signInByApi(page, 'lead')
+    await page.goto(`${e2e.app.baseUrl}/lots/${job.lotId}`)
     const cell = page.locator(
       `tr[data-serial="${job.serial}"] td[data-step="${job.windingStepId}"] .grid-cell`,
     )

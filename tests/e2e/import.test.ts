@@ -1,44 +1,28 @@
-import { mkdirSync } from 'node:fs'
-import { join } from 'node:path'
 import type { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { closeImportsQueue } from '../../server/queues/imports'
 import { newQueueConnection } from '../../server/redis'
 import { startImportsWorker } from '../../workers/imports'
 import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { releasedTestLot, windingRun } from '../api/support/floor'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import {
-  E2E_RESULTS_DIR,
-  launchBrowser,
-  screenshotOnFailure,
-  signInThroughForm,
-} from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 describe('Bench import screen', { timeout: 120_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
   let connection: Redis
   let worker: { worker: Worker; stop: () => void }
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
+  const e2e = useE2eApp({
     // The import job needs a worker; the app server runs none, so one runs in this process.
-    connection = newQueueConnection()
-    worker = startImportsWorker(connection)
-  }, 60_000)
-
-  afterAll(async () => {
-    worker?.stop()
-    await worker?.worker.close()
-    await connection?.quit()
-    await closeImportsQueue()
-    await browser?.close()
-    await app?.close()
+    before: async () => {
+      connection = newQueueConnection()
+      worker = startImportsWorker(connection)
+    },
+    after: async () => {
+      worker?.stop()
+      await worker?.worker.close()
+      await connection?.quit()
+      await closeImportsQueue()
+    },
   })
 
   it('uploads a rack file, shows the dry run with its problems in words, imports and shows progress', async () => {
@@ -58,16 +42,11 @@ describe('Bench import screen', { timeout: 120_000 }, () => {
       `NOPE-1,2026-12-02 09:15,jmarsh,350.0`,
     ].join('\n')
 
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'import')
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    const picture = (name: string) =>
-      page.screenshot({ path: join(E2E_RESULTS_DIR, `${name}.png`), fullPage: true })
+    const page = await openPage(e2e, 'import')
+    const picture = picturesOf(page, true)
 
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInThroughForm(page, 'engineer@ferncastle.example', 'waymark-demo')
-    await page.waitForURL((u) => !u.pathname.startsWith('/signin'))
-    await page.goto(`${app.baseUrl}/import`)
+    await signInAs(e2e, page, 'engineer')
+    await page.goto(`${e2e.app.baseUrl}/import`)
     await page.locator('[data-test="import-station"]').click()
     await page.getByRole('option', { name: /^LDT-1 · / }).click()
     await expect.poll(() => page.locator('[data-test="hv-caution"]').count()).toBe(1)

@@ -1,17 +1,8 @@
-import { mkdirSync } from 'node:fs'
 import { randomInt } from 'node:crypto'
 import type { Locator, Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import {
-  E2E_RESULTS_DIR,
-  launchBrowser,
-  screenshotOnFailure,
-  signInThroughForm,
-} from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { openPage, picturesOf, signInHere, useE2eApp } from './support/setup'
 
 const CODE_CHARACTERS = 'ABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789'
 
@@ -72,27 +63,15 @@ async function addNumericCheck(page: Page, card: Locator, check: NumericCheck): 
 }
 
 describe('Recipes screen', { timeout: 90_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('lets an engineer build a two-step route with three checks and release it', async () => {
     const code = uniqueProductCode()
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'recipes-release')
+    const page = await openPage(e2e, 'recipes-release')
 
-    await page.goto(`${app.baseUrl}/recipes`)
+    await page.goto(`${e2e.app.baseUrl}/recipes`)
     await page.waitForURL(/\/signin\?next=/)
-    await signInThroughForm(page, 'engineer@ferncastle.example', 'waymark-demo')
+    await signInHere(page, 'engineer')
     await page.waitForURL(/\/recipes$/)
     await page.getByRole('heading', { name: 'Recipes', exact: true }).waitFor()
 
@@ -217,8 +196,7 @@ describe('Recipes screen', { timeout: 90_000 }, () => {
     await page.mouse.move(0, 0)
     await page.evaluate(() => window.scrollTo(0, 0))
     await page.waitForTimeout(400)
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    await page.screenshot({ path: `${E2E_RESULTS_DIR}/recipes-released.png` })
+    await picturesOf(page)('recipes-released')
     await page.close()
   })
 })

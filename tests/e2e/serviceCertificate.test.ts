@@ -1,7 +1,6 @@
-import { join } from 'node:path'
 import type { Redis } from 'ioredis'
 import { QueryTypes } from 'sequelize'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { startSmtpFake } from '../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { db, Email } from '../../server/models'
@@ -10,10 +9,7 @@ import { closeMailQueue } from '../../server/queues/mail'
 import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../workers/documents'
 import { startMailWorker } from '../../workers/mail'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure } from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { DEMO_PASSWORD, demoEmail, openPage, picturesOf, useE2eApp } from './support/setup'
 
 /** A unit of the demo shipment, and the contact e-mail of the customer it went to. */
 async function shippedSerial(): Promise<{ serial: string; contact: string }> {
@@ -32,49 +28,43 @@ async function shippedSerial(): Promise<{ serial: string; contact: string }> {
 }
 
 describe('Customer service e-mails a certificate from a trace', { timeout: 180_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
   let fake: Awaited<ReturnType<typeof startSmtpFake>>
   let connection: Redis
   let documents: ReturnType<typeof startDocumentsWorker>
   let mail: ReturnType<typeof startMailWorker>
 
-  beforeAll(async () => {
+  const e2e = useE2eApp({
     // The workers and the SMTP fake run in this process, as `npm start` runs them beside the app.
-    fake = await startSmtpFake({ port: 0 })
-    setSmtpPortForTests(fake.port)
-    connection = newQueueConnection()
-    documents = startDocumentsWorker(connection)
-    mail = startMailWorker(connection)
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    documents?.stop()
-    mail?.stop()
-    await Promise.all([documents?.worker.close(), mail?.worker.close()])
-    await closeDocumentsQueue()
-    await closeMailQueue()
-    await connection?.quit()
-    closeMail()
-    await fake?.close()
-    await app?.close()
+    before: async () => {
+      fake = await startSmtpFake({ port: 0 })
+      setSmtpPortForTests(fake.port)
+      connection = newQueueConnection()
+      documents = startDocumentsWorker(connection)
+      mail = startMailWorker(connection)
+    },
+    after: async () => {
+      documents?.stop()
+      mail?.stop()
+      await Promise.all([documents?.worker.close(), mail?.worker.close()])
+      await closeDocumentsQueue()
+      await closeMailQueue()
+      await connection?.quit()
+      closeMail()
+      await fake?.close()
+    },
   })
 
   it('scans a shipped serial, opens its history, e-mails a certificate and finds it in the Outbox', async () => {
     const { serial, contact } = await shippedSerial()
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'service-certificate')
-    await page.goto(`${app.baseUrl}/signin`)
-    await page.getByLabel('E-mail').fill('service@ferncastle.example')
-    await page.getByLabel('Password').fill('waymark-demo')
+    const page = await openPage(e2e, 'service-certificate')
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await page.getByLabel('E-mail').fill(demoEmail('service'))
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
     await page.keyboard.press('Enter')
     await page.waitForURL((u) => u.pathname !== '/signin')
 
     // The keyboard alone, as a hand scanner types: the scan box has the focus on arrival.
-    await page.goto(`${app.baseUrl}/trace`)
+    await page.goto(`${e2e.app.baseUrl}/trace`)
     await page.waitForFunction(
       () => document.activeElement?.getAttribute('data-field') === 'trace-scan',
     )
@@ -96,7 +86,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
       .poll(() => dialog.locator('input, textarea').first().inputValue())
       .toContain(contact.toLowerCase().split('@')[1]!)
     await page.waitForTimeout(400) // the dialog's fade-in, for the picture only
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'service-certificate-email.png') })
+    await picturesOf(page)('service-certificate-email')
     await dialog.getByRole('button', { name: 'Queue e-mail' }).click()
     await page.getByText('E-mail queued').waitFor()
 
@@ -111,8 +101,8 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     expect(received!.subject).toContain(serial)
     expect(received!.attachments.map((a) => a.contentType)).toContain('application/pdf')
 
-    await page.goto(`${app.baseUrl}/outbox`)
+    await page.goto(`${e2e.app.baseUrl}/outbox`)
     await page.getByText(received!.subject).first().waitFor()
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'service-certificate-outbox.png') })
+    await picturesOf(page)('service-certificate-outbox')
   })
 })

@@ -1,29 +1,23 @@
-import { mkdirSync } from 'node:fs'
-import { join } from 'node:path'
 import type { Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { Unit } from '../../server/models'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import {
-  E2E_RESULTS_DIR,
-  launchBrowser,
-  screenshotOnFailure,
-  signInThroughForm,
-} from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { screenshotOnFailure } from './support/browser'
+import { picturesOf, signInHere, useE2eApp } from './support/setup'
 
 describe('Shipping screen', () => {
-  let app: AppServer
-  let browser: TestBrowser
   let page: Page
   let passed: string[]
   let unfinished: string
   let customerName: string
 
+  const e2e = useE2eApp({ before: prepare, timeout: 120_000 })
   beforeAll(async () => {
+    page = await e2e.browser.newPage()
+  })
+
+  async function prepare() {
     await resetSignInLimits()
     // Units to ship, made through the same API the Floor uses: two pass both steps, one stops
     // after the first.
@@ -42,20 +36,12 @@ describe('Shipping screen', () => {
     await service
       .post('/api/customers', { name: customerName, contactEmail: 'buyer@quarrymoor.example' })
       .expect(201)
-    app = await startAppServer()
-    browser = await launchBrowser()
-    page = await browser.newPage()
-  }, 120_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  }
 
   it('packs by scanning serials with the keyboard alone, refuses an unfinished unit, ships', async () => {
     screenshotOnFailure(page, 'shipping')
-    await page.goto(`${app.baseUrl}/shipping`)
-    await signInThroughForm(page, 'service@ferncastle.example', 'waymark-demo')
+    await page.goto(`${e2e.app.baseUrl}/shipping`)
+    await signInHere(page, 'service')
     await page.waitForURL((u) => u.pathname === '/shipping')
     const scanBox = page.locator('[data-test="ship-scan"]')
     await scanBox.waitFor()
@@ -70,7 +56,7 @@ describe('Shipping screen', () => {
       expect(await log.first().textContent()).toContain('added')
     }
     // A traveler URL works as well as a bare serial; an unfinished unit is listed as refused.
-    await page.keyboard.type(`${app.baseUrl}/u/${unfinished}`)
+    await page.keyboard.type(`${e2e.app.baseUrl}/u/${unfinished}`)
     await page.keyboard.press('Enter')
     await expect.poll(() => log.count()).toBe(3)
     expect(await log.first().getAttribute('class')).toContain('is-refused')
@@ -88,8 +74,7 @@ describe('Shipping screen', () => {
     await page.keyboard.type(customerName.slice(0, 14))
     await page.getByRole('option', { name: customerName }).click()
     await page.locator('input[placeholder="their PO number"]').fill('QS-5512')
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'shipping-packed.png') })
+    await picturesOf(page)('shipping-packed')
     await page.locator('[data-test="ship-confirm"]').click()
 
     const drawer = page.locator('.el-drawer')
@@ -98,6 +83,6 @@ describe('Shipping screen', () => {
     for (const s of passed)
       expect((await Unit.findOne({ where: { serial: s } }))!.state).toBe('shipped')
     expect((await Unit.findOne({ where: { serial: unfinished } }))!.state).toBe('in_progress')
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'shipping-shipped.png') })
+    await picturesOf(page)('shipping-shipped')
   }, 90_000)
 })

@@ -1,28 +1,14 @@
 import { randomBytes } from 'node:crypto'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import { launchBrowser, screenshotOnFailure, signInThroughForm } from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { signInThroughForm } from './support/browser'
+import { openPage, signInHere, useE2eApp } from './support/setup'
 
 describe('Sign-in', { timeout: 60_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('says so when the password is wrong, and stays on the sign-in page', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'signin-wrong-password')
-    await page.goto(`${app.baseUrl}/signin`)
+    const page = await openPage(e2e, 'signin-wrong-password')
+    await page.goto(`${e2e.app.baseUrl}/signin`)
     // NOTE: failed sign-ins are rate limited per account for 15 minutes. A fresh address each
     // run keeps repeated runs from locking out the demo accounts the other tests sign in with;
     // the server answers an unknown account and a wrong password alike, on purpose.
@@ -36,11 +22,10 @@ describe('Sign-in', { timeout: 60_000 }, () => {
   })
 
   it('shows an operator only the areas of their role, and Sign out ends the session', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'signin-operator')
-    await page.goto(`${app.baseUrl}/`)
+    const page = await openPage(e2e, 'signin-operator')
+    await page.goto(`${e2e.app.baseUrl}/`)
     await page.waitForURL(/\/signin/)
-    await signInThroughForm(page, 'operator@ferncastle.example', 'waymark-demo')
+    await signInHere(page, 'operator')
     const nav = page.getByRole('navigation', { name: 'Areas' })
     await nav.waitFor({ state: 'attached' })
     expect(await nav.textContent()).not.toContain('Users')
@@ -48,22 +33,21 @@ describe('Sign-in', { timeout: 60_000 }, () => {
 
     // Typing the address does not help either: the guard sends the operator to their first
     // area, the Floor's station picker.
-    await page.goto(`${app.baseUrl}/admin/users`)
+    await page.goto(`${e2e.app.baseUrl}/admin/users`)
     await page.waitForURL(/\/floor$/)
     expect(new URL(page.url()).pathname).toBe('/floor')
 
     await page.getByRole('button', { name: 'Sign out' }).click()
     await page.waitForURL(/\/signin/)
-    await page.goto(`${app.baseUrl}/`)
+    await page.goto(`${e2e.app.baseUrl}/`)
     await page.waitForURL(/\/signin/)
     await page.close()
   })
 
   it('signs out from a data screen without an error left behind', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'signin-sign-out')
-    await page.goto(`${app.baseUrl}/admin/stations`)
-    await signInThroughForm(page, 'lead@ferncastle.example', 'waymark-demo')
+    const page = await openPage(e2e, 'signin-sign-out')
+    await page.goto(`${e2e.app.baseUrl}/admin/stations`)
+    await signInHere(page, 'lead')
     await page.locator('.el-table__row').first().waitFor()
     // A lead may look at stations but not change them.
     expect(await page.getByRole('button', { name: 'New station' }).count()).toBe(0)

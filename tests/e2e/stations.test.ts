@@ -1,39 +1,18 @@
-import { mkdirSync } from 'node:fs'
 import { randomBytes } from 'node:crypto'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import {
-  E2E_RESULTS_DIR,
-  launchBrowser,
-  screenshotOnFailure,
-  signInThroughForm,
-} from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { openPage, picturesOf, signInHere, useE2eApp } from './support/setup'
 
 describe('Stations screen', { timeout: 60_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('lets an admin add a station through the form and shows it in the table', async () => {
     const code = `E2E-${randomBytes(2).toString('hex').toUpperCase()}`
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'stations-add')
+    const page = await openPage(e2e, 'stations-add')
 
     // A deep link while signed out goes to sign-in and comes back afterwards.
-    await page.goto(`${app.baseUrl}/admin/stations`)
+    await page.goto(`${e2e.app.baseUrl}/admin/stations`)
     await page.waitForURL(/\/signin\?next=/)
-    await signInThroughForm(page, 'admin@ferncastle.example', 'waymark-demo')
+    await signInHere(page, 'admin')
     await page.waitForURL(/\/admin\/stations$/)
     await page.getByRole('heading', { name: 'Stations' }).waitFor()
 
@@ -54,16 +33,14 @@ describe('Stations screen', { timeout: 60_000 }, () => {
     // Let the dialog finish closing and the message finish sliding in, for a still picture.
     await dialog.waitFor({ state: 'hidden' })
     await page.waitForTimeout(400)
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    await page.screenshot({ path: `${E2E_RESULTS_DIR}/stations.png` })
+    await picturesOf(page)('stations')
     await page.close()
   })
 
   it('shows a taken code under the Code field', async () => {
     // The browser context still holds the admin session of the test above.
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'stations-duplicate')
-    await page.goto(`${app.baseUrl}/admin/stations`)
+    const page = await openPage(e2e, 'stations-duplicate')
+    await page.goto(`${e2e.app.baseUrl}/admin/stations`)
     await page.locator('.el-table__row').first().waitFor()
     const takenCode = (await page.locator('.el-table__row .wm-code').first().textContent())!.trim()
 

@@ -1,30 +1,8 @@
-import { mkdirSync, readFileSync } from 'node:fs'
-import { join } from 'node:path'
-import type { Page } from 'playwright-core'
+import { readFileSync } from 'node:fs'
 import { QueryTypes } from 'sequelize'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { db } from '../../server/models'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure } from './support/browser'
-import type { TestBrowser } from './support/browser'
-
-const PASSWORD = 'waymark-demo'
-
-async function signInByApi(page: Page, email: string): Promise<void> {
-  await page.evaluate(
-    async ({ email, password }) => {
-      const csrf = (await (await fetch('/api/auth/csrf')).json()).csrfToken
-      const res = await fetch('/api/auth/login', {
-        method: 'POST',
-        headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
-        body: JSON.stringify({ email, password }),
-      })
-      if (!res.ok) throw new Error(`sign-in failed: ${res.status}`)
-    },
-    { email, password: PASSWORD },
-  )
-}
+import { openPage, picturesOf, signInByApi, useE2eApp } from './support/setup'
 
 /** The seeded unit with the richest history: a nonconformance if any, then the most runs. */
 async function busiestSerial(): Promise<string> {
@@ -42,30 +20,16 @@ async function busiestSerial(): Promise<string> {
 }
 
 describe('Trace for customer service', { timeout: 120_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('finds a serial typed at the keyboard, corrects a mistyped one and downloads the PDF', async () => {
     const serial = await busiestSerial()
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'trace')
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    const picture = (name: string) =>
-      page.screenshot({ path: join(E2E_RESULTS_DIR, `${name}.png`) })
+    const page = await openPage(e2e, 'trace')
+    const picture = picturesOf(page)
 
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInByApi(page, 'service@ferncastle.example')
-    await page.goto(`${app.baseUrl}/trace`)
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await signInByApi(page, 'service')
+    await page.goto(`${e2e.app.baseUrl}/trace`)
     // The scan box has the focus on arrival: a wedge scanner (or a person) just types.
     await page.waitForFunction(
       () => document.activeElement?.getAttribute('data-field') === 'trace-scan',
@@ -110,7 +74,7 @@ describe('Trace for customer service', { timeout: 120_000 }, () => {
     }
 
     // The traveler's QR link opens the same trace for service.
-    await page.goto(`${app.baseUrl}/u/${serial}`)
+    await page.goto(`${e2e.app.baseUrl}/u/${serial}`)
     await page.waitForURL(/\/trace\?serial=/)
     await expect.poll(() => page.locator('[data-test=trace-serial]').textContent()).toBe(serial)
     await page.close()
@@ -123,11 +87,10 @@ describe('Trace for customer service', { timeout: 120_000 }, () => {
        GROUP BY cl.internal_code ORDER BY count(*) DESC LIMIT 1`,
       { type: QueryTypes.SELECT },
     )
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'trace-contain')
-    await page.goto(`${app.baseUrl}/signin`)
-    await signInByApi(page, 'lead@ferncastle.example')
-    await page.goto(`${app.baseUrl}/trace?lot=${row!.code}`)
+    const page = await openPage(e2e, 'trace-contain')
+    await page.goto(`${e2e.app.baseUrl}/signin`)
+    await signInByApi(page, 'lead')
+    await page.goto(`${e2e.app.baseUrl}/trace?lot=${row!.code}`)
     await page.locator('[data-test=recall-code]').waitFor()
     await page.locator('[data-test=contain]').click()
     const confirm = page.locator('[data-test=contain-confirm]')
@@ -135,7 +98,7 @@ describe('Trace for customer service', { timeout: 120_000 }, () => {
     expect(await confirm.isDisabled()).toBe(true) // no reason yet
     await page.locator('#contain-reason').fill('supplier reports cracked cores in this batch')
     expect(await confirm.isDisabled()).toBe(false)
-    await page.screenshot({ path: join(E2E_RESULTS_DIR, 'trace-contain-dialog.png') })
+    await picturesOf(page)('trace-contain-dialog')
     await page.getByRole('button', { name: 'Cancel' }).click()
     const [still] = await db().query<{ status: string }>(
       'SELECT status FROM component_lots WHERE internal_code = :code',

@@ -1,18 +1,8 @@
-import { mkdirSync } from 'node:fs'
-import { join } from 'node:path'
 import type { Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
 import { MISCOUNT_ORDER_REF } from '../../server/db/seed/demoMiscountLot'
-import { startAppServer } from './support/appServer'
-import type { AppServer } from './support/appServer'
-import {
-  E2E_RESULTS_DIR,
-  launchBrowser,
-  screenshotOnFailure,
-  signInThroughForm,
-} from './support/browser'
-import type { TestBrowser } from './support/browser'
+import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */
 function demoLots(page: Page): Promise<LotDto[]> {
@@ -20,28 +10,13 @@ function demoLots(page: Page): Promise<LotDto[]> {
 }
 
 describe('Yield board', { timeout: 120_000 }, () => {
-  let app: AppServer
-  let browser: TestBrowser
-
-  beforeAll(async () => {
-    app = await startAppServer()
-    browser = await launchBrowser()
-  }, 60_000)
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.close()
-  })
+  const e2e = useE2eApp()
 
   it('shows a lead the miscount lot and names the winding bench that caused it', async () => {
-    const page = await browser.newPage()
-    screenshotOnFailure(page, 'yield-board')
-    mkdirSync(E2E_RESULTS_DIR, { recursive: true })
-    const picture = (name: string, fullPage = false) =>
-      page.screenshot({ path: join(E2E_RESULTS_DIR, `${name}.png`), fullPage })
+    const page = await openPage(e2e, 'yield-board')
+    const picture = picturesOf(page)
 
-    await page.goto(`${app.baseUrl}/signin?next=/yield`)
-    await signInThroughForm(page, 'lead@ferncastle.example', 'waymark-demo')
+    await signInAs(e2e, page, 'lead', '/yield')
     await page.waitForURL(/\/yield$/)
     await page.getByRole('heading', { name: 'Yield board' }).waitFor()
     // The navigation offers the area to the lead.
@@ -84,7 +59,7 @@ describe('Yield board', { timeout: 120_000 }, () => {
     await page.emulateMedia({ media: 'screen' })
 
     // The lot page carries the same panel.
-    await page.goto(`${app.baseUrl}/lots/${lot.id}`)
+    await page.goto(`${e2e.app.baseUrl}/lots/${lot.id}`)
     const onLot = page.locator('article[data-verdict]')
     await onLot.waitFor()
     expect(await onLot.getByRole('status').textContent()).toContain('WND-2')

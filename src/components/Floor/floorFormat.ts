@@ -1,31 +1,5 @@
 import type { CheckDto } from '@shared/schemas/recipes'
 
-type Limits = Pick<CheckDto, 'lower' | 'upper' | 'unit' | 'decimals' | 'nominal'>
-
-/** A number with at most the check's decimals and no padding zeros: 81, 9.9, 0.857. */
-export function plainNumber(value: number, decimals: number): string {
-  return new Intl.NumberFormat('en-GB', {
-    maximumFractionDigits: decimals,
-    useGrouping: false,
-  }).format(value)
-}
-
-/**
- * Limits as the bench reads them: "81 – 135 µH", "= 6 turns", "≥ 85 %", "≤ 5 mA"; empty
- * when the check has no limits.
- */
-export function limitsText(check: Limits): string {
-  const unit = check.unit ? ` ${check.unit}` : ''
-  const { lower, upper, decimals } = check
-  if (lower !== null && upper !== null) {
-    if (lower === upper) return `= ${plainNumber(lower, decimals)}${unit}`
-    return `${plainNumber(lower, decimals)} – ${plainNumber(upper, decimals)}${unit}`
-  }
-  if (lower !== null) return `≥ ${plainNumber(lower, decimals)}${unit}`
-  if (upper !== null) return `≤ ${plainNumber(upper, decimals)}${unit}`
-  return ''
-}
-
 /** A computed value with the check's decimals and unit, or a prompt when inputs are missing. */
 export function derivedText(value: unknown, check: Pick<CheckDto, 'decimals' | 'unit'>): string {
   if (typeof value !== 'number' || !Number.isFinite(value)) return 'waiting for readings'

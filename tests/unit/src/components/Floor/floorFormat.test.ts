@@ -1,24 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { derivedText, isScannedLink, limitsText } from '@/components/Floor/floorFormat'
-import { numericCheck } from './fixtures'
-
-describe('limitsText', () => {
-  it('writes both limits with a dash and no padding zeros', () => {
-    expect(limitsText(numericCheck())).toBe('81 – 135 µH')
-    expect(limitsText(numericCheck({ lower: 9.9, upper: 10.1, unit: 'V', decimals: 2 }))).toBe(
-      '9.9 – 10.1 V',
-    )
-  })
-
-  it('writes an exact count, a floor and a ceiling', () => {
-    expect(limitsText(numericCheck({ lower: 6, upper: 6, unit: 'turns', decimals: 0 }))).toBe(
-      '= 6 turns',
-    )
-    expect(limitsText(numericCheck({ lower: 85, upper: null, unit: '%' }))).toBe('≥ 85 %')
-    expect(limitsText(numericCheck({ lower: null, upper: 5, unit: 'mA' }))).toBe('≤ 5 mA')
-    expect(limitsText(numericCheck({ lower: null, upper: null }))).toBe('')
-  })
-})
+import { derivedText, isScannedLink } from '@/components/Floor/floorFormat'
 
 describe('derivedText', () => {
   it('shows the check’s decimals and unit, or that readings are missing', () => {

@@ -1,7 +1,7 @@
 import type { ComponentLotStatus } from '@shared/recipes/definitions'
 
 /** Human labels for component lot statuses. */
-export const LOT_STATUS_LABELS: Record<ComponentLotStatus, string> = {
+export const COMPONENT_LOT_STATUS_LABELS: Record<ComponentLotStatus, string> = {
   available: 'Available',
   quarantined: 'Quarantined',
   used_up: 'Used up',
