@@ -26,6 +26,9 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/users', who: ['admin'] },
   { method: 'patch', path: '/api/users/:id', who: ['admin'] },
   { method: 'get', path: '/api/audit-events', who: ['admin'] },
+  // Draft revisions (in this list, GET /revisions/:id and its /bom) only for PERMISSIONS
+  // .readDraftRecipes (engineer, lead, admin); others get released/obsolete ones and a 404 for a
+  // draft: tested in security.test.ts, since this table checks 401/403 only.
   { method: 'get', path: '/api/products', who: 'signed_in' },
   { method: 'post', path: '/api/products', who: ['engineer'] },
   { method: 'patch', path: '/api/products/:id', who: ['engineer'] },
