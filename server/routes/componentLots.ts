@@ -11,6 +11,7 @@ import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'
 import { AppError } from '../errors'
 import { actorOf } from '../middleware/access'
+import { sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
 import {
   attachCertificate,
@@ -84,12 +85,11 @@ componentLotRoutes.put(
 componentLotRoutes.get('/:id/certificate', PERMISSIONS.readComponentLots, async (req, res) => {
   const cert = await certificateOf(id(req.params))
   const file = await getFile(cert.storageKey)
-  res.type(cert.contentType)
-  res.setHeader(
-    'Content-Disposition',
-    `inline; filename="${cert.filename.replace(/["\\\r\n]/g, '_')}"`,
-  )
-  res.send(file.body)
+  await sendStoredFile(res, {
+    body: file.body,
+    contentType: cert.contentType,
+    filename: cert.filename,
+  })
 })
 
 componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req, res) => {
