@@ -22,15 +22,26 @@ export function toUploadDto(u: Upload): UploadDto {
 /** Longest file name kept, in characters; names are shown in lists and sent in headers. */
 export const FILE_NAME_MAX = 120
 
+/** C0, DEL and C1 controls; bidi embeddings, overrides and isolates (a name shown reversed). */
+function isUnsafeChar(c: string): boolean {
+  const n = c.codePointAt(0)!
+  return (
+    n < 0x20 ||
+    (n >= 0x7f && n <= 0x9f) ||
+    (n >= 0x202a && n <= 0x202e) ||
+    (n >= 0x2066 && n <= 0x2069)
+  )
+}
+
 /**
  * Reduces a file name a person or a mail sender gave to a safe base name: no folders (either
  * slash), no control or bidirectional-override characters, no leading dots or spaces, at most
  * FILE_NAME_MAX characters with the extension kept. `fallback` when nothing is left.
  */
 export function safeFileName(name: string, fallback: string): string {
-  const base = (name.normalize('NFC').split(/[\\/]/).pop() ?? '')
-    // C0, DEL, C1 controls; bidi embeddings, overrides and isolates (a name shown reversed).
-    .replace(/[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g, '')
+  const base = Array.from(name.normalize('NFC').split(/[\\/]/).pop() ?? '')
+    .filter((c) => !isUnsafeChar(c))
+    .join('')
     .trim()
     .replace(/^[.\s]+/, '')
   if (!base) return fallback
