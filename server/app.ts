@@ -5,6 +5,7 @@ import express from 'express'
 import type { Express } from 'express'
 import helmet from 'helmet'
 import { env } from './env'
+import type { TrustProxy } from './env'
 import { csrfProtection } from './middleware/csrf'
 import { apiNotFound, errorHandler } from './middleware/errorHandler'
 import { passport } from './middleware/passport'
@@ -15,12 +16,22 @@ import { apiRouter } from './routes'
 
 const distDir = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist')
 
-/** Builds the Express app: middleware, the API, the built client, then the error handler. */
-export function buildApp(): Express {
+/**
+ * Builds the Express app: middleware, the API, the built client, then the error handler.
+ * `trustProxy` defaults to the TRUST_PROXY setting (tests pass another).
+ */
+export function buildApp(options: { trustProxy?: TrustProxy } = {}): Express {
   db() // fail fast on a missing database setting, before the first request
   const app = express()
   app.disable('x-powered-by')
-  if (env.isProduction) app.set('trust proxy', 'loopback')
+  // Off by default: req.ip is then the socket's address, whatever X-Forwarded-For claims, so a
+  // client cannot pick the address that the password limits and the audit log see.
+  const trustProxy = options.trustProxy ?? env.trustProxy
+  try {
+    app.set('trust proxy', trustProxy)
+  } catch (err) {
+    throw new Error(`TRUST_PROXY: ${(err as Error).message}`, { cause: err })
+  }
   app.use(requestLog)
   app.use(
     helmet({

@@ -53,7 +53,30 @@ const EnvSchema = z.object({
   // Test only (NODE_ENV=test): a pause after each traveler page, so a test can catch a render
   // half done. Ignored in any other mode.
   WAYMARK_TEST_RENDER_PAUSE_MS: z.coerce.number().int().min(0).max(10_000).default(0),
+  // Whom to believe about the client's address (X-Forwarded-For) and scheme: off unless the app
+  // runs behind the shop's own proxy. See parseTrustProxy.
+  TRUST_PROXY: z.string().trim().default(''),
 })
+
+/** What Express's `trust proxy` setting takes: off, a hop count, or addresses/CIDRs/names. */
+export type TrustProxy = false | number | string
+
+/**
+ * Reads TRUST_PROXY: empty, `false` or `off` trusts no proxy (the client's address is the
+ * socket's); a number trusts that many hops; anything else is Express's list of proxy addresses
+ * (`loopback`, `uniquelocal`, `10.0.0.5`, `10.0.0.0/8`, comma-separated). `true` is refused: it
+ * would believe whatever address a client writes into the header.
+ */
+export function parseTrustProxy(text: string): TrustProxy {
+  const value = text.trim()
+  if (value === '' || /^(false|off|0)$/i.test(value)) return false
+  if (/^\d+$/.test(value)) return Number(value)
+  if (/^true$/i.test(value))
+    throw new Error(
+      'TRUST_PROXY=true would believe any client: name the proxy (e.g. loopback, 10.0.0.5) or a hop count',
+    )
+  return value
+}
 
 interface DbCredentials {
   owner: { user: string; password: string }
@@ -87,6 +110,7 @@ function loadEnv() {
   return {
     ...raw,
     isProduction: raw.NODE_ENV === 'production',
+    trustProxy: parseTrustProxy(raw.TRUST_PROXY),
     isTest: raw.NODE_ENV === 'test',
     databaseUrl,
     ownerDatabaseUrl: ownerUrl,

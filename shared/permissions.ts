@@ -7,6 +7,12 @@ import type { Role } from './roles'
 export const PERMISSIONS = {
   editRecipes: ['engineer'],
   readReleaseCheck: ['engineer', 'lead', 'admin'],
+  /**
+   * Draft revisions and their bills of materials: the engineers who write them, and the lead and
+   * admin, who already see what stops a release. Everyone signed in reads released and obsolete
+   * revisions (what is built and was built).
+   */
+  readDraftRecipes: ['engineer', 'lead', 'admin'],
   readParts: ['engineer', 'stores', 'lead', 'admin'],
   editParts: ['engineer', 'stores'],
   editDefectCodes: ['engineer'],

@@ -64,6 +64,8 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     const body: ApiErrorBody = { error: known.code, message: known.message }
     if (known.fields) body.fields = known.fields
     if (known.details) body.details = known.details
+    // For middleware that judges the answer after it is sent (the password limiters).
+    res.locals.errorCode = known.code
     res.status(known.status).json(body)
     return
   }

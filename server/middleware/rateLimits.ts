@@ -1,16 +1,34 @@
 import { rateLimit } from 'express-rate-limit'
-import type { Request } from 'express'
+import type { Request, RequestHandler, Response } from 'express'
 import { RedisStore } from 'rate-limit-redis'
 import type { RedisReply } from 'rate-limit-redis'
 import { AppError } from '../errors'
 import { redisConnection, redisPrefix } from '../redis'
 
 const WINDOW_MS = 15 * 60 * 1000
-/** Failed sign-ins allowed per address and per account in 15 minutes. */
-export const SIGN_IN_LIMITS = { perIp: 30, perAccount: 8, windowMs: WINDOW_MS }
+/**
+ * Wrong passwords allowed per client address and per account in 15 minutes, counted together
+ * wherever a password is typed: sign-in and a second person's countersign at the bench.
+ */
+export const PASSWORD_LIMITS = { perIp: 30, perAccount: 8, windowMs: WINDOW_MS }
+/** The same limits under the name the sign-in tests know. */
+export const SIGN_IN_LIMITS = PASSWORD_LIMITS
 
-// Counters live in Redis so that every API process counts the same attempts.
-function store(name: string) {
+/**
+ * The error codes that mean "a password was wrong" (or the limit was already reached): only
+ * these answers count against the limits, so a scan refused for another reason does not use up
+ * the budget of the engineer whose countersign it carried.
+ */
+const PASSWORD_REFUSALS = new Set([
+  'invalid_credentials',
+  'countersign_rejected',
+  'too_many_attempts',
+])
+
+// Counters live in Redis so that every API process counts the same attempts. Each limiter gets
+// its own store object (express-rate-limit refuses to share one), but the same key prefix, so
+// every password check in the app adds to the same two counters.
+function store(name: 'ip' | 'account') {
   return new RedisStore({
     prefix: `${redisPrefix}:rl:${name}:`,
     sendCommand: (command: string, ...args: string[]) =>
@@ -18,35 +36,66 @@ function store(name: string) {
   })
 }
 
-function accountKey(req: Request): string {
-  const email: unknown = (req.body as { email?: unknown } | undefined)?.email
-  return typeof email === 'string' ? email.trim().toLowerCase() : 'none'
-}
+const normalEmail = (email: unknown) =>
+  typeof email === 'string' ? email.trim().toLowerCase() : null
 
 const tooMany = () => {
   throw new AppError(
     429,
     'too_many_attempts',
-    'too many sign-in attempts: wait 15 minutes or ask an admin',
+    'too many wrong passwords: wait 15 minutes or ask an admin',
   )
 }
 
-/** Limits failed sign-ins per client address and, separately, per e-mail address tried. */
-export function signInLimiters() {
+/** Whether the answer refused a password; read by the limiters once the response is sent. */
+function wasPasswordRefused(res: Response): boolean {
+  const code: unknown = (res.locals as { errorCode?: unknown }).errorCode
+  return typeof code === 'string' && PASSWORD_REFUSALS.has(code)
+}
+
+/**
+ * The one limiter of password checks: per client address and, separately, per account tried.
+ * `accountOf` reads the e-mail of the account whose password the request carries, or null when
+ * it carries none (then the request is not counted and does not touch Redis). A request is
+ * counted first and the count given back unless the answer refused the password, so parallel
+ * guesses cannot slip past the limit; over the limit even the right password gets a 429.
+ */
+export function passwordLimiters(accountOf: (req: Request) => string | null): RequestHandler[] {
   const common = {
     windowMs: WINDOW_MS,
+    skip: (req: Request) => accountOf(req) === null,
     skipSuccessfulRequests: true,
+    requestWasSuccessful: (_req: Request, res: Response) => !wasPasswordRefused(res),
     standardHeaders: 'draft-8' as const,
     legacyHeaders: false,
     handler: tooMany,
   }
   return [
-    rateLimit({ ...common, limit: SIGN_IN_LIMITS.perIp, store: store('ip') }),
+    rateLimit({ ...common, limit: PASSWORD_LIMITS.perIp, store: store('ip') }),
     rateLimit({
       ...common,
-      limit: SIGN_IN_LIMITS.perAccount,
+      limit: PASSWORD_LIMITS.perAccount,
       store: store('account'),
-      keyGenerator: accountKey,
+      keyGenerator: (req) => accountOf(req) ?? 'none',
     }),
   ]
+}
+
+/** Limits failed sign-ins per client address and per e-mail address tried. */
+export function signInLimiters(): RequestHandler[] {
+  return passwordLimiters(
+    (req) => normalEmail((req.body as { email?: unknown } | undefined)?.email) ?? 'none',
+  )
+}
+
+/**
+ * Limits a second person's password typed at the bench (a step's countersign, a use-as-is or
+ * keep decision), counted with sign-ins. Requests without a countersign pass untouched.
+ */
+export function countersignLimiters(): RequestHandler[] {
+  return passwordLimiters((req) => {
+    const countersign: unknown = (req.body as { countersign?: unknown } | undefined)?.countersign
+    if (typeof countersign !== 'object' || countersign === null) return null
+    return normalEmail((countersign as { email?: unknown }).email) ?? 'none'
+  })
 }

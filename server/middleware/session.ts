@@ -72,13 +72,14 @@ export function sessionMiddleware() {
     resave: false,
     saveUninitialized: false,
     rolling: false,
-    proxy: env.isProduction,
+    // Undefined: the Secure flag follows req.secure, i.e. Express's `trust proxy` (TRUST_PROXY).
+    proxy: undefined,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',
-      // Secure in production. Behind a TLS proxy ('auto') the flag follows X-Forwarded-Proto, so
-      // the same build still signs in on a plain-http loopback demo, where a Secure cookie
-      // would never come back and every form would fail its CSRF check.
+      // Secure in production. Behind a TLS proxy named in TRUST_PROXY ('auto') the flag follows
+      // X-Forwarded-Proto, so the same build still signs in on a plain-http loopback demo, where
+      // a Secure cookie would never come back and every form would fail its CSRF check.
       secure: env.isHttps ? true : env.isProduction ? 'auto' : false,
       maxAge: SESSION_MAX_AGE_MS,
     },

@@ -11,6 +11,7 @@ import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'
 import { AppError } from '../errors'
 import { actorOf } from '../middleware/access'
+import { readUpload, sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
 import {
   attachCertificate,
@@ -29,10 +30,12 @@ export const componentLotRoutes = apiRoutes('/component-lots')
 const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk.
-const upload = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },
-}).single('file')
+const upload = readUpload(
+  multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },
+  }).single('file'),
+)
 
 componentLotRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
   res.json(await listComponentLots(parse(ComponentLotQuery, req.query)))
@@ -84,12 +87,11 @@ componentLotRoutes.put(
 componentLotRoutes.get('/:id/certificate', PERMISSIONS.readComponentLots, async (req, res) => {
   const cert = await certificateOf(id(req.params))
   const file = await getFile(cert.storageKey)
-  res.type(cert.contentType)
-  res.setHeader(
-    'Content-Disposition',
-    `inline; filename="${cert.filename.replace(/["\\\r\n]/g, '_')}"`,
-  )
-  res.send(file.body)
+  await sendStoredFile(res, {
+    body: file.body,
+    contentType: cert.contentType,
+    filename: cert.filename,
+  })
 })
 
 componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req, res) => {

@@ -2,6 +2,7 @@ import { IdParam } from '../../shared/schemas/common'
 import { PERMISSIONS } from '../../shared/permissions'
 import { DocumentEmailInput } from '../../shared/schemas/shipping'
 import { actorOf, signedInUser } from '../middleware/access'
+import { sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
 import { documentEmailDraft, emailDocument } from '../services/documentEmail'
 import { documentFile, getDocument } from '../services/documents'
@@ -16,12 +17,11 @@ documentRoutes.get('/:id', PERMISSIONS.readLots, async (req, res) => {
 documentRoutes.get('/:id/file', PERMISSIONS.readLots, async (req, res) => {
   const doc = await documentFile(parse(IdParam, req.params.id))
   const file = await getFile(doc.storageKey)
-  res.type('application/pdf')
-  res.setHeader(
-    'Content-Disposition',
-    `inline; filename="${doc.filename.replace(/["\\\r\n]/g, '_')}"`,
-  )
-  res.send(file.body)
+  await sendStoredFile(res, {
+    body: file.body,
+    contentType: 'application/pdf',
+    filename: doc.filename,
+  })
 })
 
 // Who may e-mail depends on the kind (documentEmail.ts); the route lets in every role that may

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { StepRunInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
+import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
 import { enqueueAlertCheck } from '../queues/alerts'
 import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
@@ -26,7 +27,8 @@ floorRoutes.get('/stations/:code/recent', use, async (req, res) => {
 export const stepRunRoutes = apiRoutes('/step-runs')
 
 // 201 for a new step run; 200 with the first answer when the same clientEventId comes again.
-stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, async (req, res) => {
+// A scan carrying a second signature counts against the password limits; others pass.
+stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, ...countersignLimiters(), async (req, res) => {
   const recorded = await recordStepRun(parse(StepRunInput, req.body), actorOf(req))
   res.status(recorded.isRepeat ? 200 : 201).json(recorded.body)
   // After the answer, so the operator never waits on Redis; a repeat changed nothing to judge.

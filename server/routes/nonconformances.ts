@@ -3,6 +3,7 @@ import { IdParam } from '../../shared/schemas/common'
 import { DispositionInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf, signedInUser } from '../middleware/access'
+import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
 import { disposeNonconformance, listNonconformances } from '../services/nonconformances'
 import { apiRoutes } from './registry'
@@ -21,6 +22,7 @@ nonconformanceRoutes.get('/', PERMISSIONS.readNonconformances, async (req, res) 
 nonconformanceRoutes.post(
   '/:id/disposition',
   PERMISSIONS.disposeNonconformances,
+  ...countersignLimiters(),
   async (req, res) => {
     const actor = { ...actorOf(req), role: signedInUser(req).role }
     res.json(

@@ -4,6 +4,7 @@ import { IdParam } from '../../shared/schemas/common'
 import { OutboxQuery } from '../../shared/schemas/outbox'
 import { DraftUpdateInput } from '../../shared/schemas/trace'
 import { actorOf } from '../middleware/access'
+import { sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
 import { emailAttachment, getEmail, listEmails, sendDraft, updateDraft } from '../services/outbox'
 import { getFile } from '../storage'
@@ -26,13 +27,7 @@ outboxRoutes.get('/:id/attachments/:index', PERMISSIONS.readOutbox, async (req, 
   )
   const file = await getFile(a.storageKey)
   // Always a download: a received attachment is whatever a sender put in, HTML included.
-  res.type(a.contentType)
-  res.setHeader('X-Content-Type-Options', 'nosniff')
-  res.setHeader(
-    'Content-Disposition',
-    `attachment; filename="${a.filename.replace(/["\\\r\n]/g, '_')}"`,
-  )
-  res.send(file.body)
+  await sendStoredFile(res, { body: file.body, contentType: a.contentType, filename: a.filename })
 })
 
 // Drafts (recall letters) wait for a person: edit them, then send.

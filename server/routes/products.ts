@@ -1,7 +1,7 @@
 import { IdParam } from '../../shared/schemas/common'
 import { ProductCreateInput, ProductUpdateInput } from '../../shared/schemas/recipes'
-import { PERMISSIONS } from '../../shared/permissions'
-import { actorOf } from '../middleware/access'
+import { can, PERMISSIONS } from '../../shared/permissions'
+import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { createProduct, listProducts, updateProduct } from '../services/products'
 import { createRevision } from '../services/revisions'
@@ -10,8 +10,8 @@ import { apiRoutes } from './registry'
 export const productRoutes = apiRoutes('/products')
 const edit = PERMISSIONS.editRecipes
 
-productRoutes.get('/', 'signed_in', async (_req, res) => {
-  res.json(await listProducts())
+productRoutes.get('/', 'signed_in', async (req, res) => {
+  res.json(await listProducts(can(signedInUser(req).role, 'readDraftRecipes')))
 })
 
 productRoutes.post('/', edit, async (req, res) => {

@@ -11,6 +11,7 @@ import { AppError } from '../errors'
 import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { createBomLine, listBom } from '../services/bom'
+import { assertRevisionReadable } from '../services/revisionAccess'
 import {
   copyRevision,
   deleteRevision,
@@ -30,8 +31,9 @@ const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
   const rev = await getRevision(id(req.params))
-  // Operators, stores and service see what is built: released (or retired) revisions only.
-  if (rev.status === 'draft' && !can(signedInUser(req).role, 'readReleaseCheck'))
+  // Operators, stores and service see what is built: released (or retired) revisions only; a
+  // draft is answered as absent, so its existence does not show either.
+  if (rev.status === 'draft' && !can(signedInUser(req).role, 'readDraftRecipes'))
     throw AppError.notFound(`revision ${rev.id}`)
   res.json(rev)
 })
@@ -78,7 +80,9 @@ revisionRoutes.put('/:id/steps/order', edit, async (req, res) => {
 })
 
 revisionRoutes.get('/:id/bom', 'signed_in', async (req, res) => {
-  res.json(await listBom(id(req.params)))
+  const revisionId = id(req.params)
+  await assertRevisionReadable(revisionId, signedInUser(req).role)
+  res.json(await listBom(revisionId))
 })
 
 revisionRoutes.post('/:id/bom', edit, async (req, res) => {

@@ -9,6 +9,7 @@ import {
 } from '../../shared/schemas/trace'
 import { unitHistoryPdf } from '../documents/unitHistory'
 import { actorOf, signedInUser } from '../middleware/access'
+import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
 import { containedUnit, decideContainedUnit, endContainment } from '../services/containment'
 import { containComponentLot, recallCsv, recallScope } from '../services/recall'
@@ -83,6 +84,7 @@ traceRoutes.get('/units/:serial/containment', PERMISSIONS.traceUnits, async (req
 traceRoutes.post(
   '/units/:serial/containment-decision',
   PERMISSIONS.disposeNonconformances,
+  ...countersignLimiters(),
   async (req, res) => {
     const input = parse(ContainedUnitDecisionInput, req.body)
     const actor = { ...actorOf(req), role: signedInUser(req).role }

@@ -1,4 +1,3 @@
-import { stringify } from 'csv-stringify/sync'
 import ExcelJS from 'exceljs'
 import { QueryTypes } from 'sequelize'
 import type { ExportFormat } from '../../shared/schemas/exports'
@@ -6,6 +5,7 @@ import type { CheckDto } from '../../shared/schemas/recipes'
 import type { YieldSummaryQuery } from '../../shared/schemas/yield'
 import { AppError } from '../errors'
 import { db, Lot } from '../models'
+import { safeText, writeCsv } from './csv'
 import { toRevisionDto } from './recipePresenters'
 import { loadRevision } from './revisionAccess'
 import { summarizeYield } from './yield'
@@ -34,32 +34,11 @@ export const withUnit = (label: string, unit: string | null | undefined) =>
   unit ? `${label} (${unit})` : label
 
 /**
- * Text that a spreadsheet would read as a formula (=, +, -, @, tab, CR at the start) gets a
- * leading apostrophe, the usual defence against formula injection through exported data
- * (OWASP "CSV Injection"). Numbers are never touched.
- */
-export function safeText(text: string): string {
-  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text
-}
-
-function csvCell(v: CellValue): string | number {
-  if (v === null) return ''
-  if (v instanceof Date) return v.toISOString()
-  return typeof v === 'string' ? safeText(v) : v
-}
-
-/**
  * RFC 4180 CSV: CRLF line ends, fields with a comma, quote or line break quoted, quotes doubled.
  * A UTF-8 byte-order mark first, so that spreadsheet programs read µ and Ω correctly.
  */
 export function toCsv(table: ExportTable): Buffer {
-  const text = stringify(
-    [table.columns.map((c) => c.header), ...table.rows.map((r) => r.map(csvCell))],
-    {
-      record_delimiter: 'windows',
-      quoted_match: /^\s|\s$/,
-    },
-  )
+  const text = writeCsv([table.columns.map((c) => c.header), ...table.rows])
   return Buffer.from(`\ufeff${text}`, 'utf8')
 }
 

@@ -46,6 +46,7 @@ import { importRowEventId } from './importIds'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 import { findUnitByScan, recordStepRun } from './stepRuns'
+import { safeFileName } from './uploads'
 
 const CHUNK = 1000
 
@@ -239,7 +240,7 @@ export async function uploadBenchFile(
   const station = await stationByCode(stationCode)
   const table = parseBenchCsv(await assertText(file.buffer))
   const stored = await putFile('imports', file.buffer, 'text/csv')
-  const filename = file.originalname.split(/[\\/]/).pop()!.slice(0, 200) || 'bench.csv'
+  const filename = safeFileName(file.originalname, 'bench.csv')
   const imp = await db().transaction(async (transaction) => {
     const upload = await Upload.create(
       {

@@ -9,25 +9,29 @@ import { db, Product, Revision } from '../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
 
-function toProductDto(p: Product): ProductDto {
+function toProductDto(p: Product, includeDrafts = true): ProductDto {
   return {
     id: p.id,
     code: p.code,
     name: p.name,
     description: p.description,
     revisions: [...(p.revisions ?? [])]
+      .filter((r) => includeDrafts || r.status !== 'draft')
       .sort((a, b) => a.letter.length - b.letter.length || a.letter.localeCompare(b.letter))
       .map((r) => ({ id: r.id, letter: r.letter, status: r.status })),
   }
 }
 
-/** Every product with its revisions' letters and states, by code. */
-export async function listProducts(): Promise<ProductDto[]> {
+/**
+ * Every product with its revisions' letters and states, by code; without `includeDrafts` the
+ * draft revisions are left out (see PERMISSIONS.readDraftRecipes).
+ */
+export async function listProducts(includeDrafts: boolean): Promise<ProductDto[]> {
   const products = await Product.findAll({
     include: [{ model: Revision, as: 'revisions' }],
     order: [['code', 'ASC']],
   })
-  return products.map(toProductDto)
+  return products.map((p) => toProductDto(p, includeDrafts))
 }
 
 /** Adds a product with an empty draft revision A to start its recipe in. */

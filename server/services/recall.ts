@@ -1,6 +1,5 @@
 import { Op, QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
-import { stringify } from 'csv-stringify/sync'
 import { codeFromScan } from '../../shared/links'
 import type { UnitState } from '../../shared/lots'
 import { CONTAINABLE_STATES, RECALL_GROUP_LABELS } from '../../shared/schemas/trace'
@@ -16,6 +15,7 @@ import { ComponentLot, db, Email, Part, Unit } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { moveComponentLotStatus } from './componentLots'
+import { writeCsv } from './csv'
 import { draftEmail } from './outbox'
 import { RECALL_SCOPE_SQL } from './traceQueries'
 
@@ -121,22 +121,9 @@ export async function recallScope(scanned: string, transaction?: Transaction) {
 
 /** The recall scope as CSV, one row per unit, for a spreadsheet or a customer. */
 export function recallCsv(scope: RecallScopeDto): string {
-  return stringify(
-    scope.units.map((u) => [
-      u.serial,
-      RECALL_GROUP_LABELS[u.group],
-      u.state,
-      u.lotNumber,
-      u.customerName,
-      u.shipmentNumber ?? '',
-      u.shippedOn ?? '',
-      scope.componentLot.internalCode,
-      scope.componentLot.supplierLotCode,
-      u.quantity,
-    ]),
-    {
-      header: true,
-      columns: [
+  return writeCsv(
+    [
+      [
         'serial',
         'where',
         'state',
@@ -148,7 +135,20 @@ export function recallCsv(scope: RecallScopeDto): string {
         'supplier_lot',
         'quantity_fitted',
       ],
-    },
+      ...scope.units.map((u) => [
+        u.serial,
+        RECALL_GROUP_LABELS[u.group],
+        u.state,
+        u.lotNumber,
+        u.customerName,
+        u.shipmentNumber ?? '',
+        u.shippedOn ?? '',
+        scope.componentLot.internalCode,
+        scope.componentLot.supplierLotCode,
+        u.quantity,
+      ]),
+    ],
+    'unix',
   )
 }
 

@@ -1,4 +1,6 @@
 import type { Transaction } from 'sequelize'
+import { can } from '../../shared/permissions'
+import type { Role } from '../../shared/roles'
 import { AppError } from '../errors'
 import { BomLine, Check, Part, Product, Revision, RouteStep, User, Winding } from '../models'
 
@@ -16,6 +18,16 @@ export async function loadRevision(id: string, transaction?: Transaction): Promi
   const rev = await Revision.findByPk(id, { include: FULL_REVISION, transaction })
   if (!rev) throw AppError.notFound(`revision ${id}`)
   return rev
+}
+
+/**
+ * A 404 unless the revision exists and `role` may read it: drafts only for the roles of
+ * `readDraftRecipes`, the same answer as for a revision that does not exist.
+ */
+export async function assertRevisionReadable(id: string, role: Role): Promise<void> {
+  const rev = await Revision.findByPk(id, { attributes: ['id', 'status'] })
+  if (!rev || (rev.status === 'draft' && !can(role, 'readDraftRecipes')))
+    throw AppError.notFound(`revision ${id}`)
 }
 
 /**

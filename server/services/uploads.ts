@@ -19,6 +19,43 @@ export function toUploadDto(u: Upload): UploadDto {
   }
 }
 
+/** Longest file name kept, in characters; names are shown in lists and sent in headers. */
+export const FILE_NAME_MAX = 120
+
+/** C0, DEL and C1 controls; bidi embeddings, overrides and isolates (a name shown reversed). */
+function isUnsafeChar(c: string): boolean {
+  const n = c.codePointAt(0)!
+  return (
+    n < 0x20 ||
+    (n >= 0x7f && n <= 0x9f) ||
+    (n >= 0x202a && n <= 0x202e) ||
+    (n >= 0x2066 && n <= 0x2069)
+  )
+}
+
+/**
+ * Reduces a file name a person or a mail sender gave to a safe base name: no folders (either
+ * slash), no control or bidirectional-override characters, no leading dots or spaces, at most
+ * FILE_NAME_MAX characters with the extension kept. `fallback` when nothing is left.
+ */
+export function safeFileName(name: string, fallback: string): string {
+  const base = Array.from(name.normalize('NFC').split(/[\\/]/).pop() ?? '')
+    .filter((c) => !isUnsafeChar(c))
+    .join('')
+    .trim()
+    .replace(/^[.\s]+/, '')
+  if (!base) return fallback
+  // Counted in code points, so a cut never splits a character in two.
+  const chars = Array.from(base)
+  if (chars.length <= FILE_NAME_MAX) return base
+  const dot = chars.lastIndexOf('.')
+  const ext = dot > 0 && chars.length - dot <= 16 ? chars.slice(dot) : []
+  return `${chars
+    .slice(0, FILE_NAME_MAX - ext.length)
+    .join('')
+    .trimEnd()}${ext.join('')}`
+}
+
 /**
  * Checks a file's real type from its first bytes, stores it in the object store under its
  * sha256 and records it. A renamed executable or a text file called .pdf is a 415.
@@ -36,8 +73,8 @@ export async function storeUpload(
       `file: the content is ${type?.mime ?? 'not a known type'}; send ${allowed.join(', ')}`,
     )
   const stored = await putFile(folder, file.buffer, type.mime)
-  // Keep the name a person gave, minus any path, for the download.
-  const filename = file.originalname.split(/[\\/]/).pop()!.slice(0, 200) || `file.${type.ext}`
+  // Keep the name a person gave, reduced to a safe base name, for the download.
+  const filename = safeFileName(file.originalname, `file.${type.ext}`)
   return Upload.create(
     {
       storageKey: stored.key,

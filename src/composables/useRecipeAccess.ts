@@ -22,6 +22,6 @@ export function useRecipeAccess() {
      * Drafts are the engineers' work in progress; those who may see what stops a release see
      * drafts too. Operators and service read released revisions only.
      */
-    canReadDrafts: has('readReleaseCheck'),
+    canReadDrafts: has('readDraftRecipes'),
   }
 }

@@ -6,7 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { resetSignInLimits } from './support/client'
 
 // The production build as `npm start` serves it: a separate process with NODE_ENV=production,
-// signed in over plain-http loopback and through a TLS proxy's X-Forwarded-Proto header.
+// signed in over plain-http loopback and through a TLS proxy's X-Forwarded-Proto header (the
+// proxy named in TRUST_PROXY).
 function freePort(): Promise<number> {
   return new Promise((resolve) => {
     const s = createServer().listen(0, '127.0.0.1', () => {
@@ -28,6 +29,8 @@ describe('production mode', () => {
       env: {
         ...process.env,
         NODE_ENV: 'production',
+        // The proxy in front of the app runs on this host; without this the header is ignored.
+        TRUST_PROXY: 'loopback',
         PORT: String(port),
         HOST: '127.0.0.1',
         WAYMARK_WORKERS: 'off',
