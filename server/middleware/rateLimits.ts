@@ -1,8 +1,10 @@
-import { rateLimit } from 'express-rate-limit'
+import { MemoryStore, rateLimit } from 'express-rate-limit'
+import type { IncrementResponse, Options, Store } from 'express-rate-limit'
 import type { Request, RequestHandler, Response } from 'express'
 import { RedisStore } from 'rate-limit-redis'
 import type { RedisReply } from 'rate-limit-redis'
 import { AppError } from '../errors'
+import { logger } from '../logger'
 import { redisConnection, redisPrefix } from '../redis'
 
 const WINDOW_MS = 15 * 60 * 1000
@@ -25,15 +27,79 @@ const PASSWORD_REFUSALS = new Set([
   'too_many_attempts',
 ])
 
+/**
+ * Counts in Redis and, while Redis cannot be reached, in this process's memory: a Redis outage
+ * must neither stop people signing in or countersigning at the bench (scans go on recording) nor
+ * lift the limits. During an outage each API process counts on its own, so the limits hold per
+ * process; the Redis counters take over again with the next request once it answers.
+ */
+export class RedisOrMemoryStore implements Store {
+  private readonly memory = new MemoryStore()
+  private isDown = false
+
+  constructor(
+    private readonly redis: Store,
+    private readonly name: string,
+  ) {}
+
+  init(options: Options): void {
+    void this.redis.init?.(options)
+    this.memory.init(options)
+  }
+
+  private async either<T>(onRedis: () => Promise<T> | T, onMemory: () => Promise<T> | T) {
+    try {
+      const value = await onRedis()
+      if (this.isDown) logger.info({ limiter: this.name }, 'password limits counted in redis again')
+      this.isDown = false
+      return value
+    } catch (err) {
+      if (!this.isDown)
+        logger.warn(
+          { err: (err as Error).message, limiter: this.name },
+          'redis unreachable: password limits counted in this process until it returns',
+        )
+      this.isDown = true
+      return onMemory()
+    }
+  }
+
+  increment(key: string): Promise<IncrementResponse> {
+    return this.either(
+      () => this.redis.increment(key),
+      () => this.memory.increment(key),
+    )
+  }
+
+  decrement(key: string): Promise<void> {
+    return this.either(
+      () => this.redis.decrement(key),
+      () => this.memory.decrement(key),
+    )
+  }
+
+  resetKey(key: string): Promise<void> {
+    return this.either(
+      () => this.redis.resetKey(key),
+      () => this.memory.resetKey(key),
+    )
+  }
+
+  shutdown(): void {
+    this.memory.shutdown()
+  }
+}
+
 // Counters live in Redis so that every API process counts the same attempts. Each limiter gets
 // its own store object (express-rate-limit refuses to share one), but the same key prefix, so
 // every password check in the app adds to the same two counters.
-function store(name: 'ip' | 'account') {
-  return new RedisStore({
+function store(name: 'ip' | 'account'): Store {
+  const redis = new RedisStore({
     prefix: `${redisPrefix}:rl:${name}:`,
     sendCommand: (command: string, ...args: string[]) =>
       redisConnection().call(command, ...args) as Promise<RedisReply>,
   })
+  return new RedisOrMemoryStore(redis, name)
 }
 
 const normalEmail = (email: unknown) =>

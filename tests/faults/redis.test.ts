@@ -132,6 +132,9 @@ describe('jobs while Redis goes away', () => {
     const health = await operator.get('/api/health')
     expect(health.status).toBe(503)
     expect(health.body).toMatchObject({ status: 'degraded', db: 'ok', redis: 'down' })
+    // People can still sign in: the password limits count in the API's memory meanwhile.
+    const late = await signedIn(app!.baseUrl, 'operator')
+    expect((await late.get('/api/auth/me')).status).toBe(200)
 
     // Scans record: eight passes and two failures at winding, a first-pass yield of 80 % against
     // the recipe's 90 % threshold with 10 first attempts (FPY_MIN_FIRST_ATTEMPTS): an alert is due.
