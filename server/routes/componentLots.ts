@@ -11,6 +11,7 @@ import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'
 import { AppError } from '../errors'
 import { actorOf } from '../middleware/access'
+import { multipartUpload } from '../middleware/requestChecks'
 import { parse } from '../middleware/validate'
 import {
   attachCertificate,
@@ -29,10 +30,12 @@ export const componentLotRoutes = apiRoutes('/component-lots')
 const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk.
-const upload = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },
-}).single('file')
+const upload = multipartUpload(
+  multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },
+  }).single('file'),
+)
 
 componentLotRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
   res.json(await listComponentLots(parse(ComponentLotQuery, req.query)))

@@ -9,6 +9,7 @@ import {
 } from '../../shared/schemas/imports'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
+import { multipartUpload } from '../middleware/requestChecks'
 import { parse } from '../middleware/validate'
 import {
   getImport,
@@ -30,10 +31,12 @@ const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk. One byte
 // over the limit is enough for multer to answer 413.
-const upload = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: IMPORT_MAX_BYTES, files: 1 },
-}).single('file')
+const upload = multipartUpload(
+  multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: IMPORT_MAX_BYTES, files: 1 },
+  }).single('file'),
+)
 
 importRoutes.get('/', use, async (_req, res) => {
   res.json(await listImports())
