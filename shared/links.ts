@@ -11,9 +11,34 @@ export function componentLotUrl(baseUrl: string, code: string): string {
 /**
  * The code inside what a scanner typed: a bare code, or one of our URLs (`…/u/<serial>`,
  * `…/c/<code>`). Trims, drops a trailing slash and upper-cases, since codes are upper-case.
+ *
+ * This is the one place scan text is decoded, and only the URL's segment is: a bare code is
+ * taken as typed (`50%OFF` stays `50%OFF`, and is then not a code), and a segment that is not
+ * valid percent-encoding is kept as it was. It never throws.
  */
 export function codeFromScan(scanned: string): string {
   const text = scanned.trim().replace(/\/+$/, '')
-  const match = /\/(?:u|c)\/([^/?#]+)(?:[?#].*)?$/.exec(text)
-  return decodeURIComponent(match ? match[1]! : text).toUpperCase()
+  const match = /\/(?:u|c)\/([^/?#]+)(?:[?#].*)?$/i.exec(text)
+  return (match ? decodedSegment(match[1]!) : text).toUpperCase()
+}
+
+function decodedSegment(segment: string): string {
+  try {
+    return decodeURIComponent(segment)
+  } catch {
+    return segment
+  }
+}
+
+/** The shape every code we issue has (serials, component lot codes, station codes). */
+const CODE_SHAPE = /^[A-Z0-9][A-Z0-9-]*$/
+
+/** Whether text (as `codeFromScan` returns it) could be one of our codes: letters, digits, hyphens. */
+export function isCode(text: string): boolean {
+  return CODE_SHAPE.test(text)
+}
+
+/** Whether scanned text names a code once read: `not a serial` when it does not. */
+export function isScannedCode(scanned: string): boolean {
+  return isCode(codeFromScan(scanned))
 }

@@ -42,10 +42,27 @@ function toAppError(err: unknown): AppError | null {
   // Errors raised by middleware (body parser, csrf-sync) carry an HTTP status of their own.
   if (status === 403 && e.code === 'csrf_invalid')
     return new AppError(403, 'csrf_invalid', e.message ?? 'bad token')
-  if (status === 413) return AppError.tooLarge('the request body is too large')
+  if (status === 413)
+    return new AppError(413, 'too_large', 'body: the request body is over 1 MB', {
+      body: 'over 1 MB',
+    })
   if (status === 400 && e.type === 'entity.parse.failed')
-    return AppError.badRequest('the body is not valid JSON')
-  if (status === 415) return AppError.unsupportedType('send JSON')
+    return AppError.badRequest('body: not valid JSON', { body: 'not valid JSON' })
+  if (status === 415) {
+    const problem = `send JSON in UTF-8 (${e.message ?? 'unsupported'})`
+    return new AppError(415, 'unsupported_type', `body: ${problem}`, { body: problem })
+  }
+  // A path Express could not decode, should one get past the registry's path guard.
+  if (err instanceof URIError)
+    return AppError.badRequest('path: not valid percent-encoding', {
+      path: 'not valid percent-encoding',
+    })
+  // Any other client error of the body parser (a length that does not match the body, an
+  // unknown content encoding): its status, never a 500.
+  if (status !== undefined && status >= 400 && status < 500 && e.type)
+    return new AppError(status, 'bad_request', `body: ${e.message ?? 'unreadable'}`, {
+      body: e.message ?? 'unreadable',
+    })
   return null
 }
 

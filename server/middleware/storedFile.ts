@@ -1,30 +1,6 @@
-import type { RequestHandler, Response } from 'express'
+import type { Response } from 'express'
 import { fileTypeFromBuffer } from 'file-type'
-import { MulterError } from 'multer'
-import { AppError } from '../errors'
 import { safeFileName } from '../services/uploads'
-
-/**
- * Wraps a multer middleware so that a multipart body it cannot read (a malformed part header,
- * a cut-off form: busboy's plain errors) is a 400 naming the `file` field rather than a 500.
- * Multer's own errors (size limits) keep their meaning in the error handler.
- */
-export function readUpload(middleware: RequestHandler): RequestHandler {
-  return (req, res, next) => {
-    void middleware(req, res, (err?: unknown) => {
-      if (!err || err instanceof MulterError || err instanceof AppError) {
-        next(err)
-        return
-      }
-      const why = err instanceof Error ? err.message : 'unreadable'
-      next(
-        AppError.badRequest(`file: the upload could not be read (${why})`, {
-          file: 'the upload could not be read',
-        }),
-      )
-    })
-  }
-}
 
 /** What a stored file's bytes may be served as when nothing better is known. */
 const OPAQUE = 'application/octet-stream'

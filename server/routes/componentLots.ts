@@ -11,7 +11,8 @@ import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'
 import { AppError } from '../errors'
 import { actorOf } from '../middleware/access'
-import { readUpload, sendStoredFile } from '../middleware/storedFile'
+import { sendStoredFile } from '../middleware/storedFile'
+import { multipartUpload } from '../middleware/requestChecks'
 import { parse } from '../middleware/validate'
 import {
   attachCertificate,
@@ -30,7 +31,7 @@ export const componentLotRoutes = apiRoutes('/component-lots')
 const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk.
-const upload = readUpload(
+const upload = multipartUpload(
   multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1 },

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { text } from '../../shared/schemas/common'
 import { StepRunInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
@@ -13,11 +14,11 @@ export const floorRoutes = apiRoutes('/floor')
 const use = PERMISSIONS.useFloor
 
 floorRoutes.get('/units/:serial', use, async (req, res) => {
-  const { station } = parse(z.object({ station: z.string().min(1, 'which station?') }), req.query)
+  const { station } = parse(z.object({ station: text().min(1, 'which station?') }), req.query)
   res.json(await floorUnit(String(req.params.serial), station))
 })
 floorRoutes.get('/component-lots/:code', use, async (req, res) => {
-  const { bomLineId } = parse(z.object({ bomLineId: z.string().uuid('which line?') }), req.query)
+  const { bomLineId } = parse(z.object({ bomLineId: text().uuid('which line?') }), req.query)
   res.json(await floorComponentLot(String(req.params.code), bomLineId))
 })
 floorRoutes.get('/stations/:code/recent', use, async (req, res) => {

@@ -9,7 +9,7 @@ import {
 } from '../../shared/schemas/imports'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
-import { readUpload } from '../middleware/storedFile'
+import { multipartUpload } from '../middleware/requestChecks'
 import { parse } from '../middleware/validate'
 import {
   getImport,
@@ -31,7 +31,7 @@ const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk. One byte
 // over the limit is enough for multer to answer 413.
-const upload = readUpload(
+const upload = multipartUpload(
   multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: IMPORT_MAX_BYTES, files: 1 },

@@ -6,7 +6,7 @@ import { healthRoutes } from './health'
 import { defectCodeRoutes, partRoutes } from './parts'
 import { productRoutes } from './products'
 import { bomLineRoutes, checkRoutes, stepRoutes, windingRoutes } from './recipeParts'
-import { apiRouters } from './registry'
+import { apiRouters, pathGuard } from './registry'
 import { revisionRoutes } from './revisions'
 import { stationRoutes } from './stations'
 import { userRoutes } from './users'
@@ -67,6 +67,7 @@ export function apiRouter(): Router {
     group.use(base, router)
   }
   const api = Router()
+  api.use(pathGuard())
   api.use((req, res, next) => {
     const group = groups.get(firstSegment(req.path))
     if (group) group(req, res, next)

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { IdParam } from '../../shared/schemas/common'
+import { IdParam, text } from '../../shared/schemas/common'
 import { DispositionInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf, signedInUser } from '../middleware/access'
@@ -11,8 +11,8 @@ import { apiRoutes } from './registry'
 export const nonconformanceRoutes = apiRoutes('/nonconformances')
 
 const Query = z.object({
-  lotId: z.string().uuid().optional(),
-  serial: z.string().max(40).optional(),
+  lotId: text().uuid().optional(),
+  serial: text().max(40).optional(),
   status: z.enum(['open', 'closed']).optional(),
 })
 

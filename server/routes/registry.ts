@@ -2,6 +2,7 @@ import { Router } from 'express'
 import type { RequestHandler } from 'express'
 import { guard } from '../middleware/access'
 import type { Access } from '../middleware/access'
+import { pathEncodingGuard, routeChecks } from '../middleware/requestChecks'
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 
@@ -29,7 +30,9 @@ export function apiRoutes(base: string) {
     (method: Method) =>
     (path: string, access: Access, ...handlers: RequestHandler[]) => {
       routeRules.push({ method, path: `/api${base}${path === '/' ? '' : path}`, access })
-      router[method](path, guard(access), ...handlers)
+      // After the guard, so a caller who may not use the route learns nothing from its checks.
+      const checks = routeChecks(method, path, handlers)
+      router[method](path, guard(access), ...(checks ? [checks] : []), ...handlers)
     }
   return {
     router,
@@ -39,4 +42,12 @@ export function apiRoutes(base: string) {
     patch: add('patch'),
     delete: add('delete'),
   }
+}
+
+/**
+ * The guard for the percent-encoding of every route's path, mounted before the routers: a
+ * parameter Express cannot decode is a 400 naming it (see `pathEncodingGuard`).
+ */
+export function pathGuard(): RequestHandler {
+  return pathEncodingGuard(routeRules.map((r) => r.path))
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { IdParam } from '../../shared/schemas/common'
+import { IdParam, scanText } from '../../shared/schemas/common'
 import { ShipmentCreateInput } from '../../shared/schemas/shipping'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
@@ -18,8 +18,8 @@ import { apiRoutes } from './registry'
 export const shipmentRoutes = apiRoutes('/shipments')
 export const unitDocumentRoutes = apiRoutes('/units')
 
-const Serial = z.string().trim().min(1).max(200)
-const Query = z.object({ customerId: z.string().uuid().optional() })
+const Serial = scanText('serial', 'scan a serial')
+const Query = z.object({ customerId: IdParam.optional() })
 
 shipmentRoutes.get('/', PERMISSIONS.readShipments, async (req, res) => {
   res.json(await listShipments(parse(Query, req.query)))

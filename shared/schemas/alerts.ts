@@ -1,10 +1,11 @@
 import { z } from 'zod'
+import { text } from './common'
 import { ALERT_STATUSES } from '../quality/alerts'
 import type { AlertDetails, AlertRule, AlertStatus } from '../quality/alerts'
 
 /** Query of `GET /api/alerts`: one lot's, or every lot's, optionally of one status. */
 export const AlertQuery = z.object({
-  lotId: z.string().uuid('not a valid id').optional(),
+  lotId: text().uuid('not a valid id').optional(),
   status: z.enum(ALERT_STATUSES, 'open or acknowledged').optional(),
 })
 export type AlertQuery = z.infer<typeof AlertQuery>

@@ -1,12 +1,12 @@
 import { z } from 'zod'
+import { text } from './common'
 import type { ImportMapping, ImportRowOutcome, ImportStatus } from '../imports'
 import type { StationKind } from '../stations'
 import type { Unit } from '../units'
 import type { CheckKind } from '../recipes/definitions'
 
 const column = (what: string) =>
-  z
-    .string()
+  text()
     .trim()
     .min(1, `choose the ${what} column`)
     .max(200, 'a column name is at most 200 characters')
@@ -16,19 +16,19 @@ export const ImportMappingInput = z.object({
   timeColumn: column('time').nullable().default(null),
   operatorColumn: column('operator').nullable().default(null),
   checkColumns: z
-    .record(z.string().trim().min(1).max(40), column('check'))
+    .record(text().trim().min(1).max(40), column('check'))
     .default({})
     .refine((m) => Object.keys(m).length <= 100, 'at most 100 checks'),
 }) satisfies z.ZodType<ImportMapping>
 export type ImportMappingInput = z.infer<typeof ImportMappingInput>
 
 export const ImportCreateInput = z.object({
-  stationCode: z.string().trim().toUpperCase().min(1, 'which station?').max(16),
+  stationCode: text().trim().toUpperCase().min(1, 'which station?').max(16),
 })
 
 export const ImportRunInput = z.object({
   /** The defect code given to rows that fail a check; needed only when some good row fails. */
-  defectCodeId: z.string().uuid('choose a defect code').nullable().default(null),
+  defectCodeId: text().uuid('choose a defect code').nullable().default(null),
 })
 export type ImportRunInput = z.infer<typeof ImportRunInput>
 

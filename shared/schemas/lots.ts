@@ -11,27 +11,26 @@ import type {
 import type { StationKind } from '../stations'
 import type { BomLineDto, StepDto, WindingDto } from './recipes'
 import type { ComponentLotDto } from './receiving'
-import { patchSchema } from './common'
+import { patchSchema, scanText, text } from './common'
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
 
 export const LotCreateInput = z.object({
-  number: z
-    .string()
+  number: text()
     .trim()
     .toUpperCase()
     .regex(/^[A-Z0-9][A-Z0-9-]{1,19}$/, 'use 2 to 20 letters, digits or -')
     .optional(),
-  revisionId: z.string().uuid('choose a released revision'),
+  revisionId: text().uuid('choose a released revision'),
   quantity: z
     .number()
     .int('whole units only')
     .min(1, `use 1 to ${LOT_QUANTITY_MAX}`)
     .max(LOT_QUANTITY_MAX, `use 1 to ${LOT_QUANTITY_MAX}`),
-  orderRef: z.string().trim().max(80).default(''),
-  customerName: z.string().trim().max(120).default(''),
+  orderRef: text().trim().max(80).default(''),
+  customerName: text().trim().max(120).default(''),
   /** The customer record; when given, its name is copied to `customerName`. */
-  customerId: z.string().uuid('choose a customer from the list').nullable().default(null),
+  customerId: text().uuid('choose a customer from the list').nullable().default(null),
   dueDate: isoDate.nullable().default(null),
 })
 export type LotCreateInput = z.infer<typeof LotCreateInput>
@@ -39,7 +38,7 @@ export const LotUpdateInput = patchSchema(LotCreateInput.omit({ number: true }))
 export type LotUpdateInput = z.infer<typeof LotUpdateInput>
 
 export const ReasonInput = z.object({
-  reason: z.string().trim().min(3, 'say why (at least 3 characters)').max(500),
+  reason: text().trim().min(3, 'say why (at least 3 characters)').max(500),
 })
 
 export const DocumentRequestInput = z.object({
@@ -51,37 +50,37 @@ export const DocumentRequestInput = z.object({
 
 /** A second person's sign-in, typed at the bench to countersign a step or a disposition. */
 export const CountersignInput = z.object({
-  email: z.string().trim().toLowerCase().email('enter the second person’s e-mail'),
-  password: z.string().min(1, 'enter the second person’s password'),
+  email: text().trim().toLowerCase().email('enter the second person’s e-mail'),
+  password: text().min(1, 'enter the second person’s password'),
 })
 export type CountersignInput = z.infer<typeof CountersignInput>
 
-const checkValue = z.union([z.number().finite(), z.boolean(), z.string().max(2000), z.null()])
+const checkValue = z.union([z.number().finite(), z.boolean(), text().max(2000), z.null()])
 
 export const StepRunInput = z.object({
-  clientEventId: z.string().uuid('clientEventId must be a UUID made by the client'),
-  serial: z.string().trim().min(1, 'scan a serial').max(200),
-  stationCode: z.string().trim().toUpperCase().min(1, 'which station?').max(16),
-  values: z.record(z.string(), checkValue).default({}),
+  clientEventId: text().uuid('clientEventId must be a UUID made by the client'),
+  serial: scanText('serial', 'scan a serial'),
+  stationCode: text().trim().toUpperCase().min(1, 'which station?').max(16),
+  values: z.record(text(), checkValue).default({}),
   consumptions: z
     .array(
       z.object({
-        bomLineId: z.string().uuid(),
-        code: z.string().trim().min(1, 'scan the component lot').max(200),
-        itemSerial: z.string().trim().max(80).optional(),
+        bomLineId: text().uuid(),
+        code: scanText('component lot code', 'scan the component lot'),
+        itemSerial: text().trim().max(80).optional(),
       }),
     )
     .default([]),
-  defectCodeId: z.string().uuid().nullable().default(null),
-  note: z.string().trim().max(2000).default(''),
+  defectCodeId: text().uuid().nullable().default(null),
+  note: text().trim().max(2000).default(''),
   countersign: CountersignInput.nullable().default(null),
 })
 export type StepRunInput = z.infer<typeof StepRunInput>
 
 export const DispositionInput = z.object({
   disposition: z.enum(DISPOSITIONS, { error: 'choose rework, scrap or use as is' }),
-  reworkToStepId: z.string().uuid().nullable().default(null),
-  reason: z.string().trim().max(2000).default(''),
+  reworkToStepId: text().uuid().nullable().default(null),
+  reason: text().trim().max(2000).default(''),
   countersign: CountersignInput.nullable().default(null),
 })
 export type DispositionInput = z.infer<typeof DispositionInput>

@@ -1,19 +1,19 @@
 import { z } from 'zod'
 import { COMPONENT_LOT_STATUSES } from '../recipes/definitions'
 import type { ComponentLotStatus, UnitOfMeasure } from '../recipes/definitions'
-import { PageQuery } from './common'
+import { PageQuery, text } from './common'
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
 
 export const ComponentLotCreateInput = z
   .object({
-    partId: z.string().uuid('choose a part'),
-    supplierName: z.string().trim().min(1, 'enter the supplier').max(120),
-    supplierLotCode: z.string().trim().min(1, 'enter the supplier’s lot code').max(80),
+    partId: text().uuid('choose a part'),
+    supplierName: text().trim().min(1, 'enter the supplier').max(120),
+    supplierLotCode: text().trim().min(1, 'enter the supplier’s lot code').max(80),
     quantityReceived: z.number().positive('quantity must be more than 0').max(1e9),
     receivedOn: isoDate,
     expiresOn: isoDate.nullable().default(null),
-    notes: z.string().trim().max(2000).default(''),
+    notes: text().trim().max(2000).default(''),
   })
   .refine((v) => v.expiresOn === null || v.expiresOn >= v.receivedOn, {
     path: ['expiresOn'],
@@ -23,10 +23,10 @@ export type ComponentLotCreateInput = z.infer<typeof ComponentLotCreateInput>
 
 export const ComponentLotUpdateInput = z
   .object({
-    supplierName: z.string().trim().min(1, 'enter the supplier').max(120),
-    supplierLotCode: z.string().trim().min(1, 'enter the supplier’s lot code').max(80),
+    supplierName: text().trim().min(1, 'enter the supplier').max(120),
+    supplierLotCode: text().trim().min(1, 'enter the supplier’s lot code').max(80),
     expiresOn: isoDate.nullable(),
-    notes: z.string().trim().max(2000),
+    notes: text().trim().max(2000),
     quantityRemaining: z.number().min(0, 'cannot be below 0').max(1e9),
   })
   .partial()
@@ -34,7 +34,7 @@ export type ComponentLotUpdateInput = z.infer<typeof ComponentLotUpdateInput>
 
 export const ComponentLotStatusInput = z.object({
   status: z.enum(COMPONENT_LOT_STATUSES, { error: 'choose a status' }),
-  reason: z.string().trim().min(3, 'say why (at least 3 characters)').max(500),
+  reason: text().trim().min(3, 'say why (at least 3 characters)').max(500),
 })
 export type ComponentLotStatusInput = z.infer<typeof ComponentLotStatusInput>
 
@@ -46,8 +46,8 @@ export const COMPONENT_LOT_SORTS = [
 ] as const
 
 export const ComponentLotQuery = PageQuery.extend({
-  q: z.string().trim().max(80).optional(),
-  partId: z.string().uuid().optional(),
+  q: text().trim().max(80).optional(),
+  partId: text().uuid().optional(),
   status: z.enum(COMPONENT_LOT_STATUSES).optional(),
   sort: z.enum(COMPONENT_LOT_SORTS).default('receivedOn'),
   order: z.enum(['asc', 'desc']).default('desc'),
@@ -56,7 +56,7 @@ export type ComponentLotQuery = z.infer<typeof ComponentLotQuery>
 
 export const PART_SORTS = ['partNumber', 'description'] as const
 export const PartQuery = PageQuery.extend({
-  q: z.string().trim().max(80).optional(),
+  q: text().trim().max(80).optional(),
   sort: z.enum(PART_SORTS).default('partNumber'),
   order: z.enum(['asc', 'desc']).default('asc'),
 })

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { patchSchema } from './common'
+import { patchSchema, text } from './common'
 import {
   CHECK_KINDS,
   DERIVED_FORMULA_KEYS,
@@ -20,17 +20,16 @@ import type { StationKind } from '../stations'
 import { UNIT_SYMBOLS } from '../units'
 import type { Unit } from '../units'
 
-const text = (max: number, what = 'this') => z.string().trim().min(1, `enter ${what}`).max(max)
-const optionalText = (max: number) => z.string().trim().max(max).default('')
+const requiredText = (max: number, what = 'this') => text().trim().min(1, `enter ${what}`).max(max)
+const optionalText = (max: number) => text().trim().max(max).default('')
 const limit = z.number({ error: 'enter a number' }).finite().nullable()
 
 export const ProductCreateInput = z.object({
-  code: z
-    .string()
+  code: text()
     .trim()
     .toUpperCase()
     .regex(/^[A-Z0-9]{2,6}$/, 'use 2 to 6 letters or digits (it starts every serial)'),
-  name: text(80, 'a name'),
+  name: requiredText(80, 'a name'),
   description: optionalText(2000),
 })
 export type ProductCreateInput = z.infer<typeof ProductCreateInput>
@@ -46,7 +45,7 @@ export const RevisionUpdateInput = patchSchema(
 export type RevisionUpdateInput = z.infer<typeof RevisionUpdateInput>
 
 export const WindingInput = z.object({
-  name: text(40, 'a winding name'),
+  name: requiredText(40, 'a winding name'),
   nominalTurns: z.number().int('whole turns only').min(1, 'at least 1 turn').max(100000),
   alNanoHenry: z.number().positive('AL must be positive').max(1e6),
   alTolerancePercent: z.number().min(0).max(100).default(25),
@@ -56,7 +55,7 @@ export type WindingInput = z.infer<typeof WindingInput>
 export const WindingUpdateInput = patchSchema(WindingInput)
 
 export const StepInput = z.object({
-  name: text(80, 'a step name'),
+  name: requiredText(80, 'a step name'),
   stationKind: z.enum(STATION_KINDS, { error: 'choose a station kind' }),
   instructions: optionalText(8000),
   safetyNote: optionalText(2000),
@@ -69,18 +68,17 @@ export const StepUpdateInput = patchSchema(StepInput).extend({
 export type StepUpdateInput = z.infer<typeof StepUpdateInput>
 
 export const StepOrderInput = z.object({
-  stepIds: z.array(z.string().uuid()).min(1, 'list every step'),
+  stepIds: z.array(text().uuid()).min(1, 'list every step'),
 })
 
-export const ChoiceOption = z.object({ value: text(60, 'a choice'), isPass: z.boolean() })
+export const ChoiceOption = z.object({ value: requiredText(60, 'a choice'), isPass: z.boolean() })
 export type ChoiceOption = z.infer<typeof ChoiceOption>
 
 const checkFields = {
-  key: z
-    .string()
+  key: text()
     .trim()
     .regex(/^[a-z][a-z0-9_]{0,39}$/, 'use lower-case letters, digits and _ (start with a letter)'),
-  label: text(120, 'a label'),
+  label: requiredText(120, 'a label'),
   kind: z.enum(CHECK_KINDS, { error: 'choose a kind' }),
   unit: z
     .enum(UNIT_SYMBOLS as [Unit, ...Unit[]], { error: 'choose a unit from the list' })
@@ -95,7 +93,7 @@ const checkFields = {
     .enum(DERIVED_FORMULA_KEYS as [DerivedFormula, ...DerivedFormula[]])
     .nullable()
     .default(null),
-  derivedInputs: z.record(z.string(), z.string()).nullable().default(null),
+  derivedInputs: z.record(text(), text()).nullable().default(null),
 }
 
 /** A check as created; limits are cross-checked by the same rule the update uses. */
@@ -108,12 +106,11 @@ export const CheckUpdateInput = patchSchema(z.object(checkFields))
 export type CheckUpdateInput = z.infer<typeof CheckUpdateInput>
 
 export const PartInput = z.object({
-  partNumber: z
-    .string()
+  partNumber: text()
     .trim()
     .toUpperCase()
     .regex(/^[A-Z0-9][A-Z0-9._/-]{0,39}$/, 'use letters, digits and . _ / -'),
-  description: text(200, 'a description'),
+  description: requiredText(200, 'a description'),
   unitOfMeasure: z.enum(UNITS_OF_MEASURE, { error: 'choose a unit of measure' }).default('pcs'),
   hasExpiry: z.boolean().default(false),
 })
@@ -121,22 +118,21 @@ export type PartInput = z.infer<typeof PartInput>
 export const PartUpdateInput = patchSchema(PartInput)
 
 export const BomLineInput = z.object({
-  partId: z.string().uuid('choose a part'),
+  partId: text().uuid('choose a part'),
   quantity: z.number().positive('quantity must be more than 0').max(100000),
   refDesignators: optionalText(400),
-  fittedAtStepId: z.string().uuid().nullable().default(null),
+  fittedAtStepId: text().uuid().nullable().default(null),
   traceLevel: z.enum(TRACE_LEVELS).default('lot'),
 })
 export type BomLineInput = z.infer<typeof BomLineInput>
 export const BomLineUpdateInput = patchSchema(BomLineInput)
 
 export const DefectCodeInput = z.object({
-  code: z
-    .string()
+  code: text()
     .trim()
     .toUpperCase()
     .regex(/^[A-Z0-9][A-Z0-9-]{1,15}$/, 'use 2 to 16 letters, digits or -'),
-  description: text(200, 'a description'),
+  description: requiredText(200, 'a description'),
   stationKinds: z.array(z.enum(STATION_KINDS)).min(1, 'choose at least one station kind'),
   isActive: z.boolean().default(true),
 })

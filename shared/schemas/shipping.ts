@@ -3,14 +3,11 @@ import type { DocumentDto } from './lots'
 import type { UnitState } from '../lots'
 import type { ServiceCaseResolution, ServiceCaseStatus } from '../service'
 import { SERVICE_CASE_RESOLUTIONS } from '../service'
-import { patchSchema } from './common'
+import { isScannedCode } from '../links'
+import { patchSchema, scanText, text } from './common'
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
-const email = z
-  .string()
-  .trim()
-  .toLowerCase()
-  .email('enter an e-mail address like buyer@example.com')
+const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+const email = text().trim().toLowerCase().email('enter an e-mail address like buyer@example.com')
 
 /** Most serials one shipment or one request may list; a pallet of a big lot fits. */
 export const SHIPMENT_SERIALS_MAX = 500
@@ -18,9 +15,9 @@ export const SHIPMENT_SERIALS_MAX = 500
 // --- customers -------------------------------------------------------------------------------
 
 export const CustomerCreateInput = z.object({
-  name: z.string().trim().min(2, 'enter the customer’s name (at least 2 characters)').max(120),
+  name: text().trim().min(2, 'enter the customer’s name (at least 2 characters)').max(120),
   contactEmail: z.union([email, z.literal('')]).default(''),
-  address: z.string().trim().max(1000, 'keep the address under 1000 characters').default(''),
+  address: text().trim().max(1000, 'keep the address under 1000 characters').default(''),
 })
 export type CustomerCreateInput = z.infer<typeof CustomerCreateInput>
 export const CustomerUpdateInput = patchSchema(CustomerCreateInput)
@@ -39,13 +36,13 @@ export interface CustomerDto {
 // --- shipments -------------------------------------------------------------------------------
 
 export const ShipmentCreateInput = z.object({
-  customerId: z.string().uuid('choose a customer'),
-  orderRef: z.string().trim().max(80).default(''),
-  carrier: z.string().trim().max(80).default(''),
-  tracking: z.string().trim().max(120).default(''),
+  customerId: text().uuid('choose a customer'),
+  orderRef: text().trim().max(80).default(''),
+  carrier: text().trim().max(80).default(''),
+  tracking: text().trim().max(120).default(''),
   shippedOn: isoDate,
   serials: z
-    .array(z.string().trim().toUpperCase().min(1).max(200))
+    .array(scanText('serial', 'scan a serial').toUpperCase())
     .min(1, 'scan at least one serial')
     .max(SHIPMENT_SERIALS_MAX, `at most ${SHIPMENT_SERIALS_MAX} serials in one shipment`),
 })
@@ -93,7 +90,7 @@ export interface ShipmentDto extends ShipmentSummaryDto {
 /** `to` left empty goes to the contact e-mail of the document's customer. */
 export const DocumentEmailInput = z.object({
   to: z.array(email).max(20, 'at most 20 recipients').default([]),
-  note: z.string().trim().max(4000).default(''),
+  note: text().trim().max(4000).default(''),
 })
 export type DocumentEmailInput = z.infer<typeof DocumentEmailInput>
 
@@ -108,9 +105,8 @@ export interface DocumentEmailDraftDto {
 // --- service cases (returns) -----------------------------------------------------------------
 
 export const ServiceCaseCreateInput = z.object({
-  serial: z.string().trim().toUpperCase().min(1, 'scan or type the returned serial').max(200),
-  complaint: z
-    .string()
+  serial: scanText('serial', 'scan or type the returned serial').toUpperCase(),
+  complaint: text()
     .trim()
     .min(3, 'say what the customer reports (at least 3 characters)')
     .max(4000),
@@ -119,8 +115,8 @@ export const ServiceCaseCreateInput = z.object({
 export type ServiceCaseCreateInput = z.infer<typeof ServiceCaseCreateInput>
 
 export const ServiceCaseUpdateInput = z.object({
-  findings: z.string().trim().max(8000).optional(),
-  defectCodeId: z.string().uuid('choose a defect code').nullable().optional(),
+  findings: text().trim().max(8000).optional(),
+  defectCodeId: text().uuid('choose a defect code').nullable().optional(),
 })
 export type ServiceCaseUpdateInput = z.infer<typeof ServiceCaseUpdateInput>
 
@@ -128,15 +124,21 @@ export const ServiceCaseCloseInput = z.object({
   resolution: z.enum(SERVICE_CASE_RESOLUTIONS, {
     error: 'choose repair, replace, credit or no fault found',
   }),
-  reworkToStepId: z.string().uuid('choose the step the repair starts at').nullable().default(null),
-  replacementSerial: z.string().trim().toUpperCase().max(200).nullable().default(null),
+  reworkToStepId: text().uuid('choose the step the repair starts at').nullable().default(null),
+  replacementSerial: text()
+    .trim()
+    .max(200)
+    .refine((v) => v === '' || isScannedCode(v), 'not a serial')
+    .toUpperCase()
+    .nullable()
+    .default(null),
 })
 export type ServiceCaseCloseInput = z.infer<typeof ServiceCaseCloseInput>
 
 export const ServiceCaseQuery = z.object({
   status: z.enum(['open', 'closed']).optional(),
-  lotId: z.string().uuid().optional(),
-  serial: z.string().trim().toUpperCase().max(200).optional(),
+  lotId: text().uuid().optional(),
+  serial: text().trim().toUpperCase().max(200).optional(),
 })
 export type ServiceCaseQuery = z.infer<typeof ServiceCaseQuery>
 

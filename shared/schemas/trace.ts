@@ -1,28 +1,24 @@
 import { z } from 'zod'
+import { scanText, text } from './common'
 import type { Disposition, DocumentKind, DocumentStatus, UnitState } from '../lots'
 import { CountersignInput } from './lots'
 
 /** What the Trace scan box sends: a bare serial or a traveler URL, as scanned or typed. */
-export const TraceScanParam = z
-  .string()
-  .trim()
-  .min(1, 'scan or type a serial')
-  .max(300, 'at most 300 characters')
+export const TraceScanParam = scanText('serial', 'scan or type a serial', 300)
 
 /** A component lot's internal code in a path (or its label URL). */
-export const ComponentLotCodeParam = z
-  .string()
-  .trim()
-  .min(1, 'scan or type a component lot code')
-  .max(300, 'at most 300 characters')
+export const ComponentLotCodeParam = scanText(
+  'component lot code',
+  'scan or type a component lot code',
+  300,
+)
 
 export const RecallQuery = z.object({ format: z.enum(['json', 'csv']).default('json') })
 export type RecallQuery = z.infer<typeof RecallQuery>
 
 /** A lead's containment of a suspect component lot. */
 export const ContainInput = z.object({
-  reason: z
-    .string()
+  reason: text()
     .trim()
     .min(10, 'say in a sentence why the lot is contained (at least 10 characters)')
     .max(400, 'at most 400 characters'),
@@ -36,8 +32,7 @@ export type ContainmentOutcome = (typeof CONTAINMENT_OUTCOMES)[number]
 /** A lead's end of a containment, once the investigation has an answer. */
 export const EndContainmentInput = z.object({
   outcome: z.enum(CONTAINMENT_OUTCOMES, { error: 'choose cleared or rejected' }),
-  reason: z
-    .string()
+  reason: text()
     .trim()
     .min(10, 'say in a sentence what the investigation found (at least 10 characters)')
     .max(400, 'at most 400 characters'),
@@ -50,8 +45,8 @@ export type ContainedUnitDecision = (typeof CONTAINED_UNIT_DECISIONS)[number]
 
 export const ContainedUnitDecisionInput = z.object({
   decision: z.enum(CONTAINED_UNIT_DECISIONS, { error: 'choose rework, scrap or release' }),
-  reworkToStepId: z.string().uuid('choose the step to rework from').nullable().default(null),
-  reason: z.string().trim().max(2000).default(''),
+  reworkToStepId: text().uuid('choose the step to rework from').nullable().default(null),
+  reason: text().trim().max(2000).default(''),
   countersign: CountersignInput.nullable().default(null),
 })
 export type ContainedUnitDecisionInput = z.infer<typeof ContainedUnitDecisionInput>
@@ -59,8 +54,8 @@ export type ContainedUnitDecisionInput = z.infer<typeof ContainedUnitDecisionInp
 /** A reviewer's edit of a draft e-mail before it is sent. */
 export const DraftUpdateInput = z
   .object({
-    subject: z.string().trim().min(1, 'give the e-mail a subject').max(300).optional(),
-    text: z.string().min(1, 'the message is empty').max(20_000).optional(),
+    subject: text().trim().min(1, 'give the e-mail a subject').max(300).optional(),
+    text: text().min(1, 'the message is empty').max(20_000).optional(),
   })
   .refine((v) => v.subject !== undefined || v.text !== undefined, {
     message: 'change the subject or the text',

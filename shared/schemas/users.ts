@@ -1,14 +1,14 @@
 import { z } from 'zod'
+import { text } from './common'
 import { ROLES } from '../roles'
 
 export const PASSWORD_MIN_LENGTH = 10
 
 export const UserCreateInput = z.object({
-  email: z.string().trim().toLowerCase().email('enter a valid e-mail address').max(254),
-  name: z.string().trim().min(1, 'enter a name').max(120),
+  email: text().trim().toLowerCase().email('enter a valid e-mail address').max(254),
+  name: text().trim().min(1, 'enter a name').max(120),
   role: z.enum(ROLES, { error: 'choose a role' }),
-  password: z
-    .string()
+  password: text()
     .min(PASSWORD_MIN_LENGTH, `use at least ${PASSWORD_MIN_LENGTH} characters`)
     .max(200),
 })
@@ -16,11 +16,10 @@ export type UserCreateInput = z.infer<typeof UserCreateInput>
 
 export const UserUpdateInput = z
   .object({
-    name: z.string().trim().min(1, 'enter a name').max(120),
+    name: text().trim().min(1, 'enter a name').max(120),
     role: z.enum(ROLES, { error: 'choose a role' }),
     isActive: z.boolean(),
-    password: z
-      .string()
+    password: text()
       .min(PASSWORD_MIN_LENGTH, `use at least ${PASSWORD_MIN_LENGTH} characters`)
       .max(200),
   })

@@ -1,14 +1,15 @@
 import { z } from 'zod'
+import { text } from './common'
 import type { ProportionInterval } from '../quality/proportion'
 import type { Capability, RuleViolation } from '../quality/spc'
 import type { TurnVerdict } from '../quality/turnReview'
 import type { StationKind } from '../stations'
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
 // The board's filter form sends an empty field for "all"; treat it as left out.
 const optionalId = z.preprocess(
   (v) => (v === '' ? undefined : v),
-  z.string().uuid('not a valid id').optional(),
+  text().uuid('not a valid id').optional(),
 )
 
 /** Columns the board's lots table sorts by, on the server. */
