@@ -3,7 +3,6 @@ import { StepRunInput } from '../../shared/schemas/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { enqueueAlertCheck } from '../queues/alerts'
 import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
 import { recordStepRun } from '../services/stepRuns'
 import { apiRoutes } from './registry'
@@ -28,7 +27,6 @@ export const stepRunRoutes = apiRoutes('/step-runs')
 // 201 for a new step run; 200 with the first answer when the same clientEventId comes again.
 stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, async (req, res) => {
   const recorded = await recordStepRun(parse(StepRunInput, req.body), actorOf(req))
+  // recordStepRun asks for the alert check itself, so bench imports reach alerts at once too.
   res.status(recorded.isRepeat ? 200 : 201).json(recorded.body)
-  // After the answer, so the operator never waits on Redis; a repeat changed nothing to judge.
-  if (!recorded.isRepeat) void enqueueAlertCheck(recorded.lotId, recorded.stepId)
 })

@@ -2,7 +2,7 @@ import type { LotStatus, UnitState } from '../../shared/lots'
 import type { StationKind } from '../../shared/stations'
 import { namedSql } from '../db/txSql'
 import type { Unit } from '../models'
-import type { UnitMove } from './unitMoves'
+import type { UnitMove } from '../../shared/floor/unitAfterRun'
 
 // The scan's statements. The read and the write take arrays, one element per scan, so that scans
 // arriving together share one round trip (see coalesce.ts); a scan alone is a batch of one.
