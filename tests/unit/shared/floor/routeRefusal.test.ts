@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { routeRefusal } from '../../../../shared/floor/routeRefusal'
 import type { RouteLot, RouteStation, RouteUnit } from '../../../../shared/floor/routeRefusal'
 
-// Expected words: the Floor's own refusals (DESIGN.md §4), common practice, no source.
+// Expected words: the Floor's own refusals, common practice, no source.
 const station: RouteStation = {
   code: 'WND-1',
   name: 'Winding bench 1',
