@@ -52,8 +52,8 @@ function valueOf(check: CheckDto, entry: CheckEntry | undefined): CheckValue {
 
 /**
  * The Floor's entry form for one scanned unit: the typed readings judged live by the same
- * `judgeStepRun` the server's scan decision runs, the scanned component lots checked against their BOM
- * lines, the field order for Enter, and the step-run input to send.
+ * `judgeStepRun` the server's scan decision runs, the scanned component lots checked against
+ * their BOM lines, the field order for Enter, and the step-run input to send.
  * @param lookup asks the server whether a lot may be fitted on a line
  */
 export function useFloorForm(
