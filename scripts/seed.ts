@@ -2,6 +2,7 @@ import { parseArgs } from 'node:util'
 import { loadDemo, loadPeopleAndFloor } from '../server/db/seed/demo'
 import { env } from '../server/env'
 import { closeDb } from '../server/models'
+import { closeAlertsQueue } from '../server/queues/alerts'
 import { closeDocumentsQueue } from '../server/queues/documents'
 import { closeMailQueue } from '../server/queues/mail'
 
@@ -34,7 +35,8 @@ try {
     )
   }
 } finally {
-  await Promise.all([closeDb(), closeDocumentsQueue(), closeMailQueue()])
+  // The demo's step runs ask for alert checks as every recorded run does.
+  await Promise.all([closeDb(), closeDocumentsQueue(), closeMailQueue(), closeAlertsQueue()])
 }
 // Nothing else should be left open, but a seed must never hang the start or test run.
 process.exit(0)

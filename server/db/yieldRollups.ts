@@ -1,7 +1,8 @@
 // The Yield board's rollups of step runs (migration 20261202160000): `units.run_count`,
 // `fail_count`, `first_attempt_count` and `lot_run_days`. The scan statement keeps them as it
-// writes each step run (server/services/stepRuns.ts); a bulk load that inserts step runs by
-// other means (the benchmark seeds) runs these statements afterwards to recount them all.
+// writes each step run (`moved` and `dated` in WRITE_RUNS, server/services/stepRunSql.ts); a
+// bulk load that inserts step runs by other means (the benchmark seeds) runs these statements
+// afterwards to recount them all.
 export const REBUILD_YIELD_ROLLUPS = [
   `UPDATE units u
       SET run_count = coalesce(c.runs, 0), fail_count = coalesce(c.fails, 0),

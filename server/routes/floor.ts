@@ -5,7 +5,6 @@ import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
-import { enqueueAlertCheck } from '../queues/alerts'
 import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
 import { recordStepRun } from '../services/stepRuns'
 import { apiRoutes } from './registry'
@@ -31,7 +30,6 @@ export const stepRunRoutes = apiRoutes('/step-runs')
 // A scan carrying a second signature counts against the password limits; others pass.
 stepRunRoutes.post('/', PERMISSIONS.recordStepRuns, ...countersignLimiters(), async (req, res) => {
   const recorded = await recordStepRun(parse(StepRunInput, req.body), actorOf(req))
+  // recordStepRun asks for the alert check itself, so bench imports reach alerts at once too.
   res.status(recorded.isRepeat ? 200 : 201).json(recorded.body)
-  // After the answer, so the operator never waits on Redis; a repeat changed nothing to judge.
-  if (!recorded.isRepeat) void enqueueAlertCheck(recorded.lotId, recorded.stepId)
 })

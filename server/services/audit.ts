@@ -19,7 +19,9 @@ export interface AuditEntry {
 
 /**
  * Appends one event to the audit log. Pass the transaction of the change it records, so that the
- * change and its audit row commit or roll back together.
+ * change and its audit row commit or roll back together. The scan writes its `step_run.record`
+ * rows in its own batched statement (`audited` in WRITE_RUNS, stepRunSql.ts): a change to the
+ * row's shape here goes there too.
  */
 export async function recordAudit(
   actor: Actor,

@@ -2,44 +2,54 @@ import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../shared/links'
 import type { StepRunInput } from '../../shared/schemas/lots'
-import { AppError } from '../errors'
+import type { LotToFit } from '../../shared/floor/componentLotRefusal'
+import type { FittedSerial } from '../../shared/floor/decideStepRun'
 import { BomLine, ComponentLot, Consumption, db, Part } from '../models'
-import { todayIso } from './componentLots'
 
-/** Why a component lot cannot be fitted on a line, in the operator's words; null when it can. */
-export function componentLotRefusal(
-  lot: ComponentLot,
-  line: BomLine,
-  perUnit: number,
-  today: string,
-): string | null {
-  const code = lot.internalCode
-  if (lot.partId !== line.partId)
-    return `${code} is ${lot.part?.partNumber ?? 'another part'}; this line needs ${line.part?.partNumber ?? 'another part'}`
-  if (lot.status === 'quarantined') return `${code} is quarantined; take a lot that is available`
-  if (lot.status === 'rejected') return `${code} was rejected; return it to stores`
-  if (lot.status === 'used_up') return `${code} is used up; take a new lot from stores`
-  if (lot.expiresOn !== null && lot.expiresOn < today)
-    return `${code} expired on ${lot.expiresOn}; return it to stores`
-  if (lot.quantityRemaining < perUnit)
-    return `${code} has only ${lot.quantityRemaining} left; this unit needs ${perUnit}`
-  return null
+/** A component lot as the scan's decision reads it (shared/floor/componentLotRefusal.ts). */
+export function toLotToFit(lot: ComponentLot): LotToFit {
+  return {
+    id: lot.id,
+    internalCode: lot.internalCode,
+    partId: lot.partId,
+    partNumber: lot.part?.partNumber ?? '',
+    status: lot.status,
+    expiresOn: lot.expiresOn,
+    quantityRemaining: lot.quantityRemaining,
+  }
 }
 
 type Scan = StepRunInput['consumptions'][number]
 
-/** The serial of the unit a part's item serial is fitted to, whichever lot it came from. */
-async function unitHoldingSerial(
-  partId: string,
-  itemSerial: string,
+/**
+ * The scanned part serials, of the locked lots' parts, that are already fitted to a unit
+ * (whichever lot they came from), for decideStepRun's one-unit-per-serial rule.
+ */
+export async function serialsFittedAlready(
+  lots: readonly ComponentLot[],
+  scans: Scan[],
   transaction: Transaction,
-): Promise<string | null> {
-  const [row] = await db().query<{ serial: string }>(
-    `SELECT u.serial FROM consumptions c JOIN units u ON u.id = c.unit_id
-      WHERE c.part_id = :partId AND c.item_serial = :itemSerial LIMIT 1`,
-    { replacements: { partId, itemSerial }, type: QueryTypes.SELECT, transaction },
+): Promise<FittedSerial[]> {
+  const pairs = scans.flatMap((scan) => {
+    const lot = lots.find((l) => l.internalCode === codeFromScan(scan.code))
+    const itemSerial = scan.itemSerial?.trim().toUpperCase()
+    return lot && itemSerial ? [{ partId: lot.partId, itemSerial }] : []
+  })
+  if (pairs.length === 0) return []
+  return db().query<FittedSerial>(
+    `SELECT c.part_id AS "partId", c.item_serial AS "itemSerial", u.serial AS "unitSerial"
+       FROM consumptions c JOIN units u ON u.id = c.unit_id
+      WHERE (c.part_id, c.item_serial) IN
+            (SELECT * FROM unnest(ARRAY[:partIds]::uuid[], ARRAY[:serials]::text[]))`,
+    {
+      replacements: {
+        partIds: pairs.map((p) => p.partId),
+        serials: pairs.map((p) => p.itemSerial),
+      },
+      type: QueryTypes.SELECT,
+      transaction,
+    },
   )
-  return row ? `unit ${row.serial}` : null
 }
 
 export interface PlannedConsumption {
@@ -49,59 +59,30 @@ export interface PlannedConsumption {
 }
 
 /**
- * Matches the scanned component lots to the bill-of-materials lines fitted at this step, locks
- * each lot and checks it may be fitted. A missing scan is a 400 naming the line; a lot that
- * may not be used, or a part serial already fitted to a unit, is a 409 saying why.
+ * Reads and locks, in line order, the component lots scanned for the bill-of-materials lines
+ * fitted at this step, with their parts. Decides nothing: a line with no scan or a code that
+ * names no lot is simply not among them, and decideStepRun (shared/floor/decideStepRun.ts) says
+ * why; the locks keep the quantities it judged until the run is written.
  */
-export async function planConsumptions(
+export async function lockComponentLots(
   lines: readonly BomLine[],
   scans: Scan[],
   transaction: Transaction,
-): Promise<PlannedConsumption[]> {
-  const today = todayIso()
-  const planned: PlannedConsumption[] = []
+): Promise<ComponentLot[]> {
+  const lots: ComponentLot[] = []
   for (const line of lines) {
-    const field = `consumptions.${line.id}`
     const scan = scans.find((s) => s.bomLineId === line.id)
-    if (!scan)
-      throw AppError.badRequest(`${field}: scan a lot of ${line.part!.partNumber}`, {
-        [field]: `scan a lot of ${line.part!.partNumber}`,
-      })
+    if (!scan) continue
     const lot = await ComponentLot.findOne({
       where: { internalCode: codeFromScan(scan.code) },
       transaction,
       lock: transaction.LOCK.UPDATE,
     })
-    if (!lot)
-      throw AppError.badRequest(`${field}: no component lot ${scan.code}`, {
-        [field]: `no component lot ${scan.code}`,
-      })
+    if (!lot || lots.some((l) => l.id === lot.id)) continue
     lot.part = (await Part.findByPk(lot.partId, { transaction })) ?? undefined
-    const refusal = componentLotRefusal(lot, line, line.quantity, today)
-    if (refusal) throw AppError.conflict('component_lot_refused', refusal, { [field]: refusal })
-    const itemSerial = scan.itemSerial?.trim().toUpperCase() || null
-    if (line.traceLevel === 'serial' && !itemSerial)
-      throw AppError.badRequest(
-        `${field}: scan the serial of the ${line.part!.partNumber} fitted`,
-        { [field]: 'scan the item’s serial' },
-      )
-    if (line.traceLevel === 'serial' && itemSerial) {
-      const isTwice = planned.some(
-        (p) => p.lot.partId === lot.partId && p.itemSerial === itemSerial,
-      )
-      const holder = isTwice
-        ? 'another line of this run'
-        : await unitHoldingSerial(lot.partId, itemSerial, transaction)
-      if (holder)
-        throw AppError.conflict(
-          'item_serial_used',
-          `${line.part!.partNumber} serial ${itemSerial} is already fitted to ${holder}`,
-          { [field]: `already fitted to ${holder}` },
-        )
-    }
-    planned.push({ line, lot, itemSerial: line.traceLevel === 'serial' ? itemSerial : null })
+    lots.push(lot)
   }
-  return planned
+  return lots
 }
 
 /** Records the consumptions and takes the quantities out of stock; a lot at zero is used up. */
@@ -113,7 +94,7 @@ export async function applyConsumptions(
 ): Promise<void> {
   for (const { line, lot, itemSerial } of planned) {
     // The unique index on (part_id, item_serial) has the last word when two scans of one serial
-    // pass planConsumptions at once: the second waits for the first, then fails (stepRuns.ts).
+    // pass the decision at once: the second waits for the first, then fails (stepRuns.ts).
     await Consumption.create(
       {
         unitId,

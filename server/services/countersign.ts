@@ -1,4 +1,6 @@
 import type { Transaction } from 'sequelize'
+import { countersignRefusal } from '../../shared/countersign'
+import type { CountersignRead } from '../../shared/countersign'
 import type { Role } from '../../shared/roles'
 import type { CountersignInput } from '../../shared/schemas/lots'
 import { AppError } from '../errors'
@@ -6,6 +8,52 @@ import { User } from '../models'
 import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { verifyPassword } from './passwords'
+
+async function lookUp(
+  input: CountersignInput,
+  transaction: Transaction,
+): Promise<{ read: CountersignRead; user: User | null }> {
+  const user = await User.findOne({ where: { email: input.email }, transaction })
+  const isPasswordRight = await verifyPassword(input.password, user?.passwordHash ?? null)
+  const signer = user
+    ? { id: user.id, email: user.email, role: user.role, isActive: user.isActive }
+    : null
+  return { read: { email: input.email, user: signer, isPasswordRight }, user }
+}
+
+/**
+ * Reads a typed countersign: the user its e-mail names and whether the password fits. Decides
+ * nothing (shared/countersign.ts does); null when none was typed.
+ */
+export async function readCountersign(
+  input: CountersignInput | null,
+  transaction: Transaction,
+): Promise<CountersignRead | null> {
+  return input ? (await lookUp(input, transaction)).read : null
+}
+
+/**
+ * Audits a countersign with a wrong e-mail or password, like a failed sign-in. Outside the
+ * caller's transaction on purpose: the refusal rolls that back, and the attempt must stay.
+ */
+export async function auditCountersignFailure(
+  read: CountersignRead,
+  actor: Actor,
+  what: string,
+): Promise<void> {
+  // The actor is the person signed in at the bench; the account tried is named beside it.
+  const reason = !read.user
+    ? 'unknown_email'
+    : !read.isPasswordRight
+      ? 'wrong_password'
+      : 'inactive'
+  await recordAudit(actor, {
+    action: 'countersign.failed',
+    entity: 'user',
+    entityId: read.user?.id ?? null,
+    after: { what, triedEmail: read.email, reason },
+  })
+}
 
 /**
  * Checks a second person's e-mail and password, typed at the bench to countersign. The second
@@ -20,40 +68,11 @@ export async function verifyCountersign(
   what: string,
   transaction: Transaction,
 ): Promise<User> {
-  if (!input)
-    throw AppError.badRequest(`countersign: ${what} needs a second person to sign`, {
-      countersign: 'a second person must sign',
-    })
-  const user = await User.findOne({ where: { email: input.email }, transaction })
-  const isRight = await verifyPassword(input.password, user?.passwordHash ?? null)
-  if (!user || !isRight || !user.isActive) {
-    // Outside the transaction, so the row stays when the refusal rolls the change back. The
-    // actor is the person signed in at the bench; the account tried is named beside it.
-    await recordAudit(actor, {
-      action: 'countersign.failed',
-      entity: 'user',
-      entityId: user?.id ?? null,
-      after: {
-        what,
-        triedEmail: input.email,
-        reason: !user ? 'unknown_email' : !isRight ? 'wrong_password' : 'inactive',
-      },
-    })
-    // Its own code, which the password limiters count (middleware/rateLimits.ts).
-    throw new AppError(
-      400,
-      'countersign_rejected',
-      'countersign: the second person’s e-mail or password is wrong',
-      { countersign: 'e-mail or password is wrong' },
-    )
+  const found = input ? await lookUp(input, transaction) : null
+  const refusal = countersignRefusal(found?.read ?? null, actor.id, roles, what)
+  if (refusal) {
+    if (found && refusal.isWrongCredentials) await auditCountersignFailure(found.read, actor, what)
+    throw new AppError(400, refusal.code, refusal.message, { countersign: refusal.field })
   }
-  if (user.id === actor.id)
-    throw AppError.badRequest('countersign: the second person must be someone else', {
-      countersign: 'must be someone else',
-    })
-  if (!roles.includes(user.role))
-    throw AppError.badRequest(`countersign: ${what} must be signed by ${roles.join(' or ')}`, {
-      countersign: `needs ${roles.join(' or ')}`,
-    })
-  return user
+  return found!.user!
 }

@@ -1,12 +1,12 @@
 import { QueryTypes } from 'sequelize'
 import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../shared/schemas/lots'
+import { componentLotRefusal } from '../../shared/floor/componentLotRefusal'
+import { routeRefusal } from '../../shared/floor/routeRefusal'
 import { codeFromScan } from '../../shared/links'
 import { AppError } from '../errors'
 import { BomLine, ComponentLot, db, Lot, Part, Product, Revision, Station } from '../models'
 import { todayIso } from './componentLots'
-import { componentLotRefusal } from './consumptions'
-import { unitRefusal } from './floorRules'
-import { toBomLineDto } from './recipePresenters'
+import { toLotToFit } from './consumptions'
 import { stepPlan, toStepDtoOf } from './stepPlans'
 import { findUnitByScan } from './stepRuns'
 import { unitSummary } from './unitMoves'
@@ -25,7 +25,7 @@ export async function floorUnit(scanned: string, stationCode: string): Promise<F
     include: [{ model: Revision, as: 'revision', include: [{ model: Product, as: 'product' }] }],
   }))!
   const step = unit.currentStepId ? await stepPlan(unit.currentStepId) : null
-  const refusal = unitRefusal(unit, lot, step, station)
+  const refusal = routeRefusal(unit, lot, step, station)
   const summary = await unitSummary(unit)
   const header = {
     ...summary,
@@ -37,9 +37,9 @@ export async function floorUnit(scanned: string, stationCode: string): Promise<F
   }
   if (refusal || !step)
     return { unit: header, refusal: refusal?.message ?? null, step: null, bom: [], windings: [] }
-  const { windings, bomLines } = step
+  const { windings, bom } = step
   const stepDto = toStepDtoOf(step)
-  return { unit: header, refusal: null, step: stepDto, bom: bomLines.map(toBomLineDto), windings }
+  return { unit: header, refusal: null, step: stepDto, bom, windings }
 }
 
 /** A scanned component lot as the Floor checks it against a bill-of-materials line. */
@@ -64,7 +64,12 @@ export async function floorComponentLot(
     status: lot.status,
     isExpired: lot.expiresOn !== null && lot.expiresOn < today,
     quantityRemaining: lot.quantityRemaining,
-    refusal: componentLotRefusal(lot, line, line.quantity, today),
+    refusal: componentLotRefusal(
+      toLotToFit(lot),
+      { partId: line.partId, partNumber: line.part?.partNumber ?? '' },
+      line.quantity,
+      today,
+    ),
   }
 }
 

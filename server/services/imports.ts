@@ -4,7 +4,10 @@ import { cellBoolean, cellNumber, IMPORT_MAX_BYTES, proposeMapping } from '../..
 import type { ImportMapping, ImportRowOutcome } from '../../shared/imports'
 import { codeFromScan } from '../../shared/links'
 import { can } from '../../shared/permissions'
-import { evaluateChecks } from '../../shared/recipes/evaluate'
+import { judgeStepRun } from '../../shared/floor/decideStepRun'
+import { routeRefusal } from '../../shared/floor/routeRefusal'
+import { typedValueProblem } from '../../shared/floor/typedValues'
+import type { TypedValueProblem } from '../../shared/floor/typedValues'
 import type { CheckValue } from '../../shared/recipes/evaluate'
 import type {
   ImportCheckDto,
@@ -41,7 +44,6 @@ import { recordAudit } from './audit'
 import type { Actor } from './audit'
 import { assertText, parseBenchCsv } from './benchCsv'
 import type { BenchTable } from './benchCsv'
-import { unitRefusal } from './floorRules'
 import { importRowEventId } from './importIds'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
@@ -296,26 +298,39 @@ function readyWhere(importId: string): WhereOptions<ImportRow> {
 
 type RowPlan = Omit<ImportRow['_creationAttributes'], 'outcome' | 'outcomeMessage' | 'stepRunId'>
 
+/** A cell read as its check's kind: a number or yes/no when it reads as one, else the text. */
+function cellValue(check: CheckDto, cell: string): CheckValue {
+  switch (check.kind) {
+    case 'numeric':
+      return cellNumber(cell) ?? cell
+    case 'boolean':
+      return cellBoolean(cell) ?? cell
+    case 'text':
+      return cell.slice(0, 2000)
+    case 'choice':
+      return cell
+  }
+}
+
+/** A bench cell's problem in the import's words, which quote the cell. */
+function cellWords(check: CheckDto, cell: string, problem: TypedValueProblem): string {
+  const what =
+    problem === 'not_number'
+      ? 'not a number'
+      : problem === 'not_yes_no'
+        ? 'not yes or no'
+        : problem === 'not_a_choice'
+          ? `not one of ${check.choices?.map((o) => o.value).join(', ')}`
+          : 'not a value'
+  return `${check.label}: "${cell}" is ${what}`
+}
+
 /** A cell as the value its check expects, or the words saying why it is not. */
 function typedValue(check: CheckDto, cell: string): { value: CheckValue } | { error: string } {
-  switch (check.kind) {
-    case 'numeric': {
-      const n = cellNumber(cell)
-      return n === null ? { error: `${check.label}: "${cell}" is not a number` } : { value: n }
-    }
-    case 'boolean': {
-      const b = cellBoolean(cell)
-      return b === null ? { error: `${check.label}: "${cell}" is not yes or no` } : { value: b }
-    }
-    case 'choice':
-      return check.choices?.some((o) => o.value === cell)
-        ? { value: cell }
-        : {
-            error: `${check.label}: "${cell}" is not one of ${check.choices?.map((o) => o.value).join(', ')}`,
-          }
-    case 'text':
-      return { value: cell.slice(0, 2000) }
-  }
+  const value = cellValue(check, cell)
+  // The same validator the scan refuses a submission with (shared/floor/typedValues.ts).
+  const problem = typedValueProblem(check, value)
+  return problem ? { error: cellWords(check, cell, problem) } : { value }
 }
 
 async function unitsBySerial(serials: string[]): Promise<Map<string, Unit>> {
@@ -355,8 +370,8 @@ async function unknownSerialWords(serial: string): Promise<string> {
  * Works out, for every row of the table, what the import would record and every reason it
  * cannot: no or unknown serial, a unit not due at this station (the Floor's own route rules),
  * a step the import cannot do alone (countersign, parts to fit), a missing or non-numeric value,
- * the same serial twice in the file, a row already imported. Verdicts come from the same
- * `evaluateChecks` the step-run recording uses. Pure reads: nothing is written.
+ * the same serial twice in the file, a row already imported. Route rules, the typed-value check
+ * and the verdicts are the scan's own (shared/floor/). Pure reads: nothing is written.
  */
 export async function planRows(
   table: BenchTable,
@@ -427,7 +442,7 @@ export async function planRows(
     const stepId = unit.currentStepId
     if (stepId && !plans.has(stepId)) plans.set(stepId, await stepPlan(stepId))
     const step = stepId ? (plans.get(stepId) ?? null) : null
-    const refusal = unitRefusal(unit, lots.get(unit.lotId)!, step, station)
+    const refusal = routeRefusal(unit, lots.get(unit.lotId)!, step, station)
     if (refusal) errors.push(refusal.message)
     if (!step || refusal) continue
     plan.stepId = step.id
@@ -456,7 +471,8 @@ export async function planRows(
       if ('error' in typed) errors.push(typed.error)
       else values[check.key] = typed.value
     }
-    const results = evaluateChecks(step.checks, values, step.windings)
+    // Judged as the scan judges it: the same function, the same overall verdict.
+    const { results, result } = judgeStepRun(step, values)
     plan.values = values
     plan.checks = step.checks.map((c): ImportRowCheckDto => ({
       key: c.key,
@@ -469,8 +485,7 @@ export async function planRows(
       verdict: results[c.key]!.verdict,
       isDerived: results[c.key]!.isDerived,
     }))
-    // As the step-run recording judges it: any check not passing fails the run.
-    plan.result = plan.checks.every((c) => c.verdict === 'pass') ? 'pass' : 'fail'
+    plan.result = result
   }
   return out
 }

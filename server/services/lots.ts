@@ -174,7 +174,9 @@ export async function updateLot(id: string, input: LotUpdateInput, actor: Actor)
 
 /**
  * Releases a planned lot: allocates its serials, creates the units queued at the route's first
- * step and asks for the travelers and the label sheet, all in one transaction.
+ * step and asks for the travelers and the label sheet, all in one transaction. The lot goes on
+ * to `in_progress` with its first step run, in the scan's batched write (`started` in
+ * WRITE_RUNS, stepRunSql.ts): a change to the lot's statuses goes there too.
  */
 export async function releaseLot(id: string, actor: Actor, now = new Date()): Promise<LotDto> {
   return db().transaction(async (transaction) => {

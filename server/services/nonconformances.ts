@@ -7,6 +7,10 @@ import type { Actor } from './audit'
 import { verifyCountersign } from './countersign'
 import { reworkTarget, scrapUnit, sendToRework, stepAfter } from './unitMoves'
 
+// A failed scan opens its nonconformance in the scan's batched write (`opened` in WRITE_RUNS,
+// stepRunSql.ts), with the defect code and failed check keys decideStepRun chose; a change to
+// what an open nonconformance holds goes there too.
+
 interface NcRow {
   id: string
   serial: string

@@ -1,14 +1,17 @@
 import type { Transaction } from 'sequelize'
 import type { StepRefDto } from '../../shared/schemas/lots'
-import type { StepDto, WindingDto } from '../../shared/schemas/recipes'
+import type { BomLineDto, StepDto, WindingDto } from '../../shared/schemas/recipes'
 import { BomLine, Check, Part, Revision, RouteStep, Winding } from '../models'
-import { toStepDto, toWindingDto } from './recipePresenters'
+import { toBomLineDto, toStepDto, toWindingDto } from './recipePresenters'
 
 /** Everything the Floor needs to know about one step of a released route. */
 export interface StepPlan extends StepDto {
   revisionId: string
   windings: WindingDto[]
+  /** The bill-of-materials lines fitted at this step, with their parts (what the write needs). */
   bomLines: BomLine[]
+  /** The same lines as the Floor shows them and the scan's decision reads them. */
+  bom: BomLineDto[]
   next: StepRefDto | null
 }
 
@@ -52,6 +55,7 @@ export async function stepPlan(
     revisionId: step.revisionId,
     windings: windings.map(toWindingDto),
     bomLines,
+    bom: bomLines.map(toBomLineDto),
     next: next
       ? { id: next.id, name: next.name, stationKind: next.stationKind, position: next.position }
       : null,

@@ -2,10 +2,20 @@ import type { LotStatus, UnitState } from '../../shared/lots'
 import type { StationKind } from '../../shared/stations'
 import { namedSql } from '../db/txSql'
 import type { Unit } from '../models'
-import type { UnitMove } from './unitMoves'
+import type { UnitMove } from '../../shared/floor/unitAfterRun'
 
 // The scan's statements. The read and the write take arrays, one element per scan, so that scans
 // arriving together share one round trip (see coalesce.ts); a scan alone is a batch of one.
+//
+// The write does in SQL, for speed, what other places own; whoever changes one of these rules
+// changes it here too (each of them points back to this file). Parts of WRITE_RUNS:
+//   moved           the unit's move, which decideStepRun (shared/floor/decideStepRun.ts) decides,
+//                   guarded as DEVELOPERS.md point 6 says; and its run counters, which with
+//   dated           (lot_run_days) are the Yield board's rollups: server/db/yieldRollups.ts.
+//   run, measured   the step run and its measurements: stepRuns.ts, from the same decision.
+//   started         a released lot goes in_progress with its first run: lots.ts.
+//   audited         the audit row, as recordAudit() writes it: audit.ts.
+//   opened          the nonconformance a fail opens: nonconformances.ts.
 
 /** The unit row as a scan reads it; `runCount` is its version (every run adds one). */
 export interface ScannedUnit {

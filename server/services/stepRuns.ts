@@ -1,9 +1,14 @@
 import { randomUUID } from 'node:crypto'
 import type { Transaction } from 'sequelize'
-import { evaluateChecks } from '../../shared/recipes/evaluate'
-import type { CheckResult } from '../../shared/recipes/evaluate'
+import { decideStepRun } from '../../shared/floor/decideStepRun'
+import type {
+  FittedSerial,
+  ScanFacts,
+  StepRunDecision,
+  StepRunRefusal,
+} from '../../shared/floor/decideStepRun'
+import type { CountersignRead } from '../../shared/countersign'
 import type { StepRunInput, StepRunResultDto } from '../../shared/schemas/lots'
-import type { CheckDto } from '../../shared/schemas/recipes'
 import { codeFromScan } from '../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../shared/serials'
 import { AppError } from '../errors'
@@ -12,12 +17,18 @@ import { coalesce } from '../db/coalesce'
 import { isUniqueViolation, txQuery } from '../db/txSql'
 import { retryOnConflict } from '../db/retry'
 import { db, Nonconformance, StepRun, Unit } from '../models'
+import type { ComponentLot } from '../models'
 import type { Actor } from './audit'
-import { applyConsumptions, planConsumptions } from './consumptions'
+import { enqueueAlertCheck } from '../queues/alerts'
+import {
+  applyConsumptions,
+  lockComponentLots,
+  serialsFittedAlready,
+  toLotToFit,
+} from './consumptions'
 import type { PlannedConsumption } from './consumptions'
-import { verifyCountersign } from './countersign'
-import { unitRefusal } from './floorRules'
-import { unitAfterRun, unitSummary } from './unitMoves'
+import { auditCountersignFailure, readCountersign } from './countersign'
+import { unitSummary } from './unitMoves'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 import {
@@ -37,13 +48,6 @@ import type {
   ScanRow,
   ScannedUnit,
 } from './stepRunSql'
-
-const stepRef = (s: StepPlan) => ({
-  id: s.id,
-  name: s.name,
-  stationKind: s.stationKind,
-  position: s.position,
-})
 
 /** The answer to a serial that names no unit: mistyped (bad check character) or unknown. */
 function noSuchUnit(serial: string): AppError {
@@ -82,30 +86,9 @@ async function resultOf(run: StepRun, input: StepRunInput): Promise<StepRunResul
   }
 }
 
-/** Typed values must be present and of the check's kind; the 400 names each bad check. */
-function checkTypedValues(checks: CheckDto[], values: StepRunInput['values']): void {
-  const fields: Record<string, string> = {}
-  for (const c of checks.filter((c) => !c.derived)) {
-    const v = values[c.key]
-    const field = `values.${c.key}`
-    if (v === undefined || v === null || v === '') fields[field] = `enter ${c.label}`
-    else if (c.kind === 'numeric' && typeof v !== 'number') fields[field] = 'must be a number'
-    else if (c.kind === 'boolean' && typeof v !== 'boolean') fields[field] = 'must be yes or no'
-    else if ((c.kind === 'text' || c.kind === 'choice') && typeof v !== 'string')
-      fields[field] = 'must be text'
-    else if (c.kind === 'choice' && !c.choices?.some((o) => o.value === v))
-      fields[field] = 'not one of the choices'
-  }
-  const [first] = Object.entries(fields)
-  if (first) throw AppError.badRequest(`${first[0]}: ${first[1]}`, fields)
-}
-
-function measurementRows(
-  checks: CheckDto[],
-  results: Record<string, CheckResult>,
-): MeasurementRow[] {
-  return checks.map((c) => {
-    const r = results[c.key]!
+function measurementRows(step: StepPlan, decision: StepRunDecision): MeasurementRow[] {
+  return step.checks.map((c) => {
+    const r = decision.results[c.key]!
     return {
       checkId: c.id,
       valueNumber: typeof r.value === 'number' ? r.value : null,
@@ -148,137 +131,120 @@ const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
 }, BATCHING)
 
 /** A scan decided: what it writes, and what to answer once it is written. */
-interface Decision {
+interface Decided {
   write: RunWrite
   planned: PlannedConsumption[]
   body: StepRunResultDto
 }
 
+/** What the scan read beyond its row: the step's plan, and under the lock its lots and signer. */
+interface Extra {
+  step: StepPlan | null
+  componentLots: ComponentLot[]
+  fittedSerials: FittedSerial[]
+  countersign: CountersignRead | null
+}
+
+// A scan that fits parts or needs a second signature reads more than the batched read gives:
+// its component lots, locked so that their quantities hold until the write, and the signer.
+const readsUnderLock = (step: StepPlan | null) =>
+  step !== null && (step.bomLines.length > 0 || step.requiresSignoff)
+
+function refused(refusal: StepRunRefusal): AppError {
+  return new AppError(refusal.status, refusal.code, refusal.message, refusal.fields)
+}
+
 /**
- * Checks a scan against the route rules and recomputes its verdicts from what was read: a
- * refusal throws, a repeated submission answers its earlier run's id. Without a transaction
- * (the unlocked read), a scan that must lock more than its unit answers 'needs_lock'.
+ * Decides a scan from what was read (shared/floor/decideStepRun.ts) and turns the decision into
+ * the write: a refusal throws, after auditing a wrong countersign like a failed sign-in.
  */
 async function decide(
   row: ScanRow,
+  extra: Extra,
   input: StepRunInput,
   actor: Actor,
   at: Date,
-  transaction: Transaction | null,
-): Promise<Decision | { repeatOf: string } | 'needs_lock'> {
-  if (row.earlierId) return { repeatOf: row.earlierId }
-  if (!row.stationId) throw AppError.notFound(`station ${input.stationCode}`)
-  const station = {
-    code: row.stationCode,
-    name: row.stationName,
-    kind: row.stationKind,
-    isActive: row.stationIsActive,
+): Promise<Decided> {
+  const { step } = extra
+  const facts: ScanFacts = {
+    unit: row,
+    lot: {
+      number: row.lotNumber,
+      status: row.lotStatus,
+      isOnHold: row.lotIsOnHold,
+      holdReason: row.lotHoldReason,
+    },
+    station: row.stationId
+      ? {
+          code: row.stationCode,
+          name: row.stationName,
+          kind: row.stationKind,
+          isActive: row.stationIsActive,
+        }
+      : null,
+    step,
+    submission: input,
+    isDefectCodeKnown: row.isDefectCodeKnown,
+    componentLots: extra.componentLots.map(toLotToFit),
+    fittedSerials: extra.fittedSerials,
+    countersign: extra.countersign,
+    actor,
+    at,
   }
-  const lot = {
-    number: row.lotNumber,
-    status: row.lotStatus,
-    isOnHold: row.lotIsOnHold,
-    holdReason: row.lotHoldReason,
+  const out = decideStepRun(facts)
+  if ('refusal' in out) {
+    if (out.refusal.isCountersignFailure && extra.countersign && step)
+      await auditCountersignFailure(extra.countersign, actor, step.name)
+    throw refused(out.refusal)
   }
-  // No lock on the lot: holding a lot changes each of its open units, which the write checks.
-  const step = row.currentStepId
-    ? await stepPlan(row.currentStepId, transaction ?? undefined)
-    : null
-  const refusal = unitRefusal(row, lot, step, station)
-  if (refusal || !step)
-    throw AppError.conflict(
-      refusal?.code ?? 'no_step',
-      refusal?.message ?? `${row.serial} has no step to do`,
-    )
-  // Known before any check is evaluated, so such a scan does that work once, under the lock.
-  // A lot's first scans move it to in progress, which locks the lot: a lot is locked before its
-  // units (as a hold does, lots.ts), so they go the locked way, which takes the lot first.
-  if (
-    !transaction &&
-    (step.bomLines.length > 0 || step.requiresSignoff || row.lotStatus === 'released')
-  )
-    return 'needs_lock'
-  const checks = step.checks
-  checkTypedValues(checks, input.values)
-  const results = evaluateChecks(checks, input.values, step.windings)
-  const failed = checks.filter((c) => results[c.key]!.verdict !== 'pass')
-  const result = failed.length ? 'fail' : 'pass'
-  if (result === 'fail' && !input.defectCodeId)
-    throw AppError.badRequest('defectCodeId: choose a defect code for the failed check', {
-      defectCodeId: 'choose a defect code',
-    })
-  if (!row.isDefectCodeKnown)
-    throw AppError.badRequest('defectCodeId: no such defect code', {
-      defectCodeId: 'no such defect code',
-    })
-  const planned =
-    step.bomLines.length > 0 && transaction
-      ? await planConsumptions(step.bomLines, input.consumptions, transaction)
-      : []
-  const second =
-    step.requiresSignoff && transaction
-      ? await verifyCountersign(
-          input.countersign,
-          actor,
-          ['operator', 'lead', 'engineer'],
-          `${step.name}`,
-          transaction,
-        )
-      : null
-  const attempt = row.runsAtStep + 1
-  const now = at
+  const { decision } = out
   const runId = randomUUID()
-  const failedKeys = failed.map((c) => c.key)
-  const move = unitAfterRun(row, step, failedKeys, now)
-  const audit = {
-    serial: row.serial,
-    step: step.name,
-    result,
-    attempt,
-    station: station.code,
-    countersignedBy: second?.email ?? null,
-  }
-  const ncId = result === 'fail' ? randomUUID() : null
+  const ncId = decision.nonconformance ? randomUUID() : null
   const write: RunWrite = {
     runId,
     unitId: row.id,
-    stepId: step.id,
-    stationId: row.stationId,
+    stepId: step!.id,
+    stationId: row.stationId!,
     operatorId: actor.id,
-    countersignedBy: second?.id ?? null,
-    attempt,
-    isRework: row.state === 'in_rework',
-    result,
+    countersignedBy: decision.countersignedBy?.id ?? null,
+    attempt: decision.attempt,
+    isRework: decision.isRework,
+    result: decision.result,
     note: input.note,
     clientEventId: input.clientEventId,
-    at: now,
-    measurements: measurementRows(checks, results),
-    move,
+    at,
+    measurements: measurementRows(step!, decision),
+    move: decision.move,
     lotId: row.lotId,
     actorEmail: actor.email,
-    audit: JSON.stringify(audit),
+    audit: JSON.stringify(decision.audit),
     ip: actor.ip ?? null,
     requestId: actor.requestId ?? null,
     // The unit as read: the write moves it only if it is still so.
     read: { runCount: row.runCount, state: row.state, reworkCount: row.reworkCount },
-    nonconformance: ncId
-      ? { id: ncId, defectCodeId: input.defectCodeId!, failedChecks: JSON.stringify(failedKeys) }
-      : null,
+    nonconformance:
+      ncId && decision.nonconformance
+        ? {
+            id: ncId,
+            defectCodeId: decision.nonconformance.defectCodeId,
+            failedChecks: JSON.stringify(decision.nonconformance.failedChecks),
+          }
+        : null,
   }
+  const planned = decision.fitted.map((f) => ({
+    line: step!.bomLines.find((l) => l.id === f.bomLineId)!,
+    lot: extra.componentLots.find((l) => l.id === f.componentLotId)!,
+    itemSerial: f.itemSerial,
+  }))
   const body: StepRunResultDto = {
-    stepRun: { id: runId, result, attempt },
-    unit: {
-      serial: row.serial,
-      state: move.state,
-      currentStep: result === 'pass' ? step.next : stepRef(step),
-      reworkCount: row.reworkCount,
-    },
+    stepRun: { id: runId, result: decision.result, attempt: decision.attempt },
+    unit: decision.unit,
     nonconformanceId: ncId,
   }
   return { write, planned, body }
 }
 
-type Recorded = Decision | { repeatOf: string }
+type Recorded = Decided | { repeatOf: string }
 
 /** What the locked path must lock before the unit: the unit's lot, if the read saw it released. */
 interface LockFirst {
@@ -288,8 +254,9 @@ interface LockFirst {
 /**
  * The fast path: one read and one write on the plain pool, each shared with the scans that arrive
  * at the same time. Answers what to lock first when the scan needs the locked path: it consumes
- * component lots, needs a second sign-off or is among its lot's first (it moves the lot to in
- * progress), or the unit changed between the read and the write (the write then changed nothing).
+ * component lots or needs a second sign-off (it reads more, under the lock), it is among its
+ * lot's first (it moves the lot to in progress), or the unit changed between the read and the
+ * write (the write then changed nothing).
  */
 async function recordUnlocked(
   input: StepRunInput,
@@ -304,17 +271,28 @@ async function recordUnlocked(
     defectCodeId: input.defectCodeId,
   })
   if (!row) throw noSuchUnit(serial)
-  // A lot never goes back to released, so a lot read in progress (or closed) needs no lock.
+  if (row.earlierId) return { repeatOf: row.earlierId }
+  // A lot's first scans move it to in progress, which locks the lot: a lot is locked before its
+  // units (as a hold does, lots.ts), so they go the locked way, which takes the lot first. A lot
+  // never goes back to released, so a lot read in progress (or closed) needs no lock: holding it
+  // changes each of its open units, which the write checks.
   const lockFirst = { lotId: row.lotStatus === 'released' ? row.lotId : null }
-  const decision = await decide(row, input, actor, at, null)
-  if (decision === 'needs_lock') return lockFirst
-  if ('repeatOf' in decision) return decision
-  return (await writeRun(decision.write)) ? decision : lockFirst
+  const step = row.currentStepId ? await stepPlan(row.currentStepId) : null
+  if (readsUnderLock(step) || lockFirst.lotId) return lockFirst
+  const decided = await decide(
+    row,
+    { step, componentLots: [], fittedSerials: [], countersign: null },
+    input,
+    actor,
+    at,
+  )
+  return (await writeRun(decided.write)) ? decided : lockFirst
 }
 
 /**
  * The locked path: the lot's row lock while it may still be released, then the unit's, then the
- * context, the write and its consumptions.
+ * context, the component lots (locked), the part serials already fitted and the countersign; the
+ * decision; then the write and its consumptions.
  */
 async function recordLocked(
   input: StepRunInput,
@@ -340,9 +318,21 @@ async function recordLocked(
     input.defectCodeId,
     unit.lotId,
   ])
-  const decision = await decide({ ...unit, ...ctx! }, input, actor, at, transaction)
-  if (decision === 'needs_lock') throw new Error('recordLocked: a locked scan needs no more locks')
-  if ('repeatOf' in decision) return decision
+  const row: ScanRow = { ...unit, ...ctx! }
+  if (row.earlierId) return { repeatOf: row.earlierId }
+  const step = row.currentStepId ? await stepPlan(row.currentStepId, transaction) : null
+  const componentLots = step?.bomLines.length
+    ? await lockComponentLots(step.bomLines, input.consumptions, transaction)
+    : []
+  const extra: Extra = {
+    step,
+    componentLots,
+    fittedSerials: await serialsFittedAlready(componentLots, input.consumptions, transaction),
+    countersign: step?.requiresSignoff
+      ? await readCountersign(input.countersign, transaction)
+      : null,
+  }
+  const decision = await decide(row, extra, input, actor, at)
   const written = await txQuery<{ runId: string }>(
     transaction,
     WRITE_RUNS,
@@ -367,9 +357,11 @@ export type RecordedStepRun =
   | { isRepeat: false; body: StepRunResultDto; lotId: string; stepId: string }
 
 /**
- * Records one step run from the Floor: recomputes every verdict and derived value from the
- * values, checks the route rules and component lots, stores the run with its measurements and
- * consumptions and moves the unit on, exactly once per `clientEventId`.
+ * Records one step run from the Floor or a bench import: reads the unit and everything its scan
+ * needs, has decideStepRun (shared/floor/decideStepRun.ts) recompute every verdict and derived
+ * value and check the route rules, component lots and countersign, then stores the run with its
+ * measurements and consumptions and moves the unit on, exactly once per `clientEventId`. A new
+ * run asks for the alert check of its lot's step once committed.
  */
 export async function recordStepRun(
   input: StepRunInput,
@@ -381,7 +373,7 @@ export async function recordStepRun(
     const out = await retryOnConflict(() => recordOnce(input, actor, at)).catch((err) => {
       // Two stations fitted one part serial at once: the unique index let the first in and made
       // the second wait for it. Now that it is committed, the scan decided again is refused by
-      // planConsumptions, which names the unit; once only, whatever happens.
+      // the decision, which names the unit; once only, whatever happens.
       if (!isUniqueViolation(err, 'consumptions_part_serial_key')) throw err
       return recordOnce(input, actor, at)
     })
@@ -390,7 +382,12 @@ export async function recordStepRun(
         isRepeat: true,
         body: await resultOf((await StepRun.findByPk(out.repeatOf))!, input),
       }
-    return { isRepeat: false, body: out.body, lotId: out.write.lotId, stepId: out.write.stepId }
+    const { lotId, stepId } = out.write
+    // After the commit, for every caller (the Floor, the bench import, the demo seed): a new run
+    // may change the figures the alerts judge. Not awaited, so a scan never waits on Redis; an
+    // outage is logged, and the alerts worker's sweep re-evaluates recent steps once it is back.
+    void enqueueAlertCheck(lotId, stepId)
+    return { isRepeat: false, body: out.body, lotId, stepId }
   } catch (err) {
     // Two submissions of one event for two different serials can both pass the look-up; the
     // unique constraint lets one in, and the other gets the first one's answer.

@@ -1,7 +1,8 @@
 import { computed, reactive, ref, watch } from 'vue'
 import type { Ref } from 'vue'
 import { codeFromScan } from '@shared/links'
-import { evaluateChecks, overallVerdict } from '@shared/recipes/evaluate'
+import { judgeStepRun } from '@shared/floor/decideStepRun'
+import { typedValueProblem } from '@shared/floor/typedValues'
 import type { CheckValue } from '@shared/recipes/evaluate'
 import type {
   CountersignInput,
@@ -51,8 +52,8 @@ function valueOf(check: CheckDto, entry: CheckEntry | undefined): CheckValue {
 
 /**
  * The Floor's entry form for one scanned unit: the typed readings judged live by the same
- * `evaluateChecks` the server runs, the scanned component lots checked against their BOM
- * lines, the field order for Enter, and the step-run input to send.
+ * `judgeStepRun` the server's scan decision runs, the scanned component lots checked against
+ * their BOM lines, the field order for Enter, and the step-run input to send.
  * @param lookup asks the server whether a lot may be fitted on a line
  */
 export function useFloorForm(
@@ -77,11 +78,12 @@ export function useFloorForm(
   const values = computed(() =>
     Object.fromEntries(inputChecks.value.map((c) => [c.key, valueOf(c, entries[c.key])])),
   )
-  /** Every check judged, derived ones computed from the typed values. */
-  const results = computed(() =>
-    evaluateChecks(checks.value, values.value, unit.value?.windings ?? []),
+  /** Every check judged as the scan will judge it, derived ones computed from the typed values. */
+  const judged = computed(() =>
+    judgeStepRun({ checks: checks.value, windings: unit.value?.windings ?? [] }, values.value),
   )
-  const verdict = computed(() => overallVerdict(results.value))
+  const results = computed(() => judged.value.results)
+  const verdict = computed(() => judged.value.verdict)
   const failedChecks = computed(() =>
     checks.value.filter((c) => results.value[c.key]?.verdict === 'fail'),
   )
@@ -121,7 +123,8 @@ export function useFloorForm(
   async function firstProblem(): Promise<FormProblem | null> {
     await scans.settle()
     for (const c of inputChecks.value) {
-      if (results.value[c.key]?.verdict === 'missing')
+      // The scan's own typed-value check; the form reads entries so that only absence is left.
+      if (typedValueProblem(c, values.value[c.key]) !== null)
         return {
           fieldId: checkFieldId(c.key),
           message: `${c.label}: ${c.kind === 'numeric' ? 'type the reading' : 'answer it'}`,

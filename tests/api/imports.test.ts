@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ImportDto, ImportRowDto } from '../../shared/schemas/imports'
 import { db, ImportRow } from '../../server/models'
+import { alertJobKey, alertsQueue, closeAlertsQueue } from '../../server/queues/alerts'
 import { closeImportsQueue } from '../../server/queues/imports'
 import {
   checkImport,
@@ -86,6 +87,7 @@ describe('bench data import', () => {
 
   afterAll(async () => {
     await closeImportsQueue()
+    await closeAlertsQueue()
   })
 
   it('takes a CSV up to 20 MB and refuses larger files (413) and non-text ones (415)', async () => {
@@ -344,6 +346,31 @@ describe('bench data import', () => {
     })
     const done = (await lead.get(`/api/imports/${checked.id}`)).body as ImportDto
     expect(done.counts).toMatchObject({ recorded: 1, refused: 1 })
+  })
+
+  it('asks for the alert check of the lot step at once when it records a failing run', async () => {
+    await saveMapping()
+    const t = await lot(1)
+    await wind(t, 1)
+    const loadStep = t.rev.steps[1]!
+    const key = alertJobKey(t.lot.id, loadStep.id)
+    const checked = await uploadAndCheck(csv([[t.units[0]!.serial, '340']]))
+    expect(checked.counts).toMatchObject({ ready: 1, failing: 1 })
+    await lead.post(`/api/imports/${checked.id}/run`, { defectCodeId: defectId }).expect(202)
+    // Nothing asked for the load-test step before the import records its run.
+    expect(await alertsQueue().getDeduplicationJobId(key)).toBeFalsy()
+    await processImport(checked.id)
+    expect((await rowsOf(checked.id))[0]).toMatchObject({ outcome: 'recorded' })
+    // The ask is not awaited by the recording (a scan never waits on Redis): poll for it.
+    const deadline = Date.now() + 5000
+    let jobId: string | null | undefined = null
+    while (!jobId && Date.now() < deadline) {
+      jobId = await alertsQueue().getDeduplicationJobId(key)
+      if (!jobId) await new Promise((r) => setTimeout(r, 50))
+    }
+    expect(jobId).toBeTruthy()
+    const job = await alertsQueue().getJob(jobId!)
+    expect(job?.data).toEqual({ lotId: t.lot.id, stepId: loadStep.id })
   })
 
   it('refuses a run before the dry run, and refuses other roles', async () => {

@@ -1,6 +1,10 @@
 import { DataTypes } from 'sequelize'
-import { ROLES } from '../../../shared/roles'
 import type { MigrationContext } from '../migrator'
+
+// The roles as this migration created them, written out: a migration must do the same thing
+// on every database it ever runs on, so it never reads ROLES from shared/roles.ts, which may
+// grow. A new role is a new migration that adds the value to enum_users_role.
+const ROLES = ['admin', 'engineer', 'lead', 'operator', 'stores', 'service'] as const
 
 export async function up({ context: { queryInterface } }: { context: MigrationContext }) {
   await queryInterface.createTable('users', {

@@ -1,6 +1,18 @@
 import { DataTypes } from 'sequelize'
-import { STATION_KINDS } from '../../../shared/stations'
 import type { MigrationContext } from '../migrator'
+
+// The station kinds as this migration created them, written out: a migration must do the same
+// thing on every database it ever runs on, so it never reads STATION_KINDS from
+// shared/stations.ts, which may grow. A new kind is a new migration that adds the value.
+const STATION_KINDS = [
+  'winding',
+  'soldering',
+  'hipot',
+  'load_test',
+  'inspection',
+  'packing',
+  'other',
+] as const
 
 export async function up({ context: { queryInterface } }: { context: MigrationContext }) {
   await queryInterface.createTable('stations', {

@@ -1,23 +1,54 @@
-import { STATION_KIND_LABELS } from '../../shared/stations'
-import type { Lot, RouteStep, Station, Unit } from '../models'
+import type { LotStatus, UnitState } from '../lots'
+import { STATION_KIND_LABELS } from '../stations'
+import type { StationKind } from '../stations'
 
-/** Why a unit cannot be worked at a station now, in words for the operator; null when it can. */
-export interface Refusal {
+/** Why a unit cannot be worked at a station now, in words for the operator. */
+export interface RouteRefusal {
   code: string
   message: string
 }
 
+/** The unit as the route rules read it. */
+export interface RouteUnit {
+  serial: string
+  state: UnitState
+  holdReason: string
+}
+
+/** The unit's lot as the route rules read it. */
+export interface RouteLot {
+  number: string
+  status: LotStatus
+  isOnHold: boolean
+  holdReason: string
+}
+
+/** The step the unit stands at, as the route rules read it. */
+export interface RouteStepRef {
+  name: string
+  stationKind: StationKind
+}
+
+/** The station that scanned the unit. */
+export interface RouteStation {
+  code: string
+  name: string
+  kind: StationKind
+  isActive: boolean
+}
+
 /**
- * The route rules of the Floor, in the order an operator should hear them: the lot first, then
- * the unit's state, then whether this station is where the unit is due. Both the scan preview
- * and the step-run recording use this one function.
+ * The route rules of the Floor, in the order an operator should hear them: the station, the lot,
+ * then the unit's state, then whether this station is where the unit is due; null when the unit
+ * may be worked here. The scan preview, the step-run decision and the bench import's dry run all
+ * use this one function.
  */
-export function unitRefusal(
-  unit: Pick<Unit, 'serial' | 'state' | 'holdReason'>,
-  lot: Pick<Lot, 'number' | 'status' | 'isOnHold' | 'holdReason'>,
-  step: Pick<RouteStep, 'name' | 'stationKind'> | null,
-  station: Pick<Station, 'code' | 'name' | 'kind' | 'isActive'>,
-): Refusal | null {
+export function routeRefusal(
+  unit: RouteUnit,
+  lot: RouteLot,
+  step: RouteStepRef | null,
+  station: RouteStation,
+): RouteRefusal | null {
   const s = unit.serial
   if (!station.isActive)
     return {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { unitAfterRun } from '../../../../server/services/unitMoves'
+import { unitAfterRun } from '../../../../shared/floor/unitAfterRun'
 
 const at = new Date('2026-12-02T09:00:00Z')
 const queued = {
