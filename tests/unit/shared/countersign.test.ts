@@ -24,17 +24,22 @@ describe('countersignRefusal', () => {
     const why = (r: Parameters<typeof countersignRefusal>[0], actor = 'u-lead') =>
       countersignRefusal(r, actor, ['engineer'], 'use as is')
     expect(why(null)).toEqual({
+      code: 'validation_failed',
       message: 'countersign: use as is needs a second person to sign',
       field: 'a second person must sign',
       isWrongCredentials: false,
     })
-    expect(why(read({}, false))?.isWrongCredentials).toBe(true)
+    expect(why(read({}, false))).toMatchObject({
+      code: 'countersign_rejected',
+      isWrongCredentials: true,
+    })
     expect(why({ email: 'nobody@x.example', user: null, isPasswordRight: false })?.field).toBe(
       'e-mail or password is wrong',
     )
     expect(why(read({ isActive: false }))?.field).toBe('e-mail or password is wrong')
     expect(why(read(), 'u-eng')?.field).toBe('must be someone else')
     expect(why(read({ role: 'lead' }))).toEqual({
+      code: 'validation_failed',
       message: 'countersign: use as is must be signed by engineer',
       field: 'needs engineer',
       isWrongCredentials: false,

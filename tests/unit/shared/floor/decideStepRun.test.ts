@@ -357,6 +357,20 @@ describe('decideStepRun: component lots and serial-traced parts', () => {
       })
   })
 
+  it('a part serial already fitted to a unit, from any lot of the part, is a 409 naming it', () => {
+    const facts = scanned(both('pcb-0007'))
+    const elsewhere = { partId: 'part-pcb', itemSerial: 'PCB-0007', unitSerial: 'FP24-2649-00017K' }
+    expect(refused({ ...facts, fittedSerials: [elsewhere] })).toEqual({
+      status: 409,
+      code: 'item_serial_used',
+      message: 'PCB-FP24-B serial PCB-0007 is already fitted to unit FP24-2649-00017K',
+      fields: { [`consumptions.${BOARD.id}`]: 'already fitted to unit FP24-2649-00017K' },
+    })
+    // The same serial of another part is another item.
+    const otherPart = { ...elsewhere, partId: 'part-core' }
+    expect(decided({ ...facts, fittedSerials: [otherPart] }).fitted).toHaveLength(2)
+  })
+
   it('a line with no scan, or a code that names no lot, is a 400 on its line, first line first', () => {
     expect(refused(scanned([both('P-1')[1]!])).fields).toEqual({
       [`consumptions.${CORE.id}`]: 'scan a lot of FCS-3000U',
