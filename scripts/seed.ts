@@ -1,10 +1,10 @@
 import { parseArgs } from 'node:util'
-import { loadDemo, loadPeopleAndFloor } from '../server/db/seed/demo'
+import { loadDemo, loadPeopleAndFloor } from '../server/seed/demo'
 import { env } from '../server/env'
 import { closeDb } from '../server/models'
-import { closeAlertsQueue } from '../server/queues/alerts'
-import { closeDocumentsQueue } from '../server/queues/documents'
-import { closeMailQueue } from '../server/queues/mail'
+import { closeAlertsQueue } from '../server/services/quality'
+import { closeDocumentsQueue } from '../server/services/documents'
+import { closeMailQueue } from '../server/services/mail'
 
 const HELP = `Usage: tsx scripts/seed.ts [--if-empty] [--minimal]
 

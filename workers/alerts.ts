@@ -1,11 +1,11 @@
 import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
-import { ALERTS_QUEUE, alertJobKey, alertsQueue, enqueueAlertCheck } from '../server/queues/alerts'
-import type { AlertJob } from '../server/queues/alerts'
+import { ALERTS_QUEUE, alertJobKey, alertsQueue, enqueueAlertCheck } from '../server/services/quality'
+import type { AlertJob } from '../server/services/quality'
 import { redisPrefix } from '../server/redis'
 import { jobLocks } from './locks'
-import { evaluateLotStep, lotStepsRunSince } from '../server/services/alerts'
+import { evaluateLotStep, lotStepsRunSince } from '../server/services/quality'
 
 export { ALERTS_QUEUE, enqueueAlertCheck }
 export type { AlertJob }

@@ -1,11 +1,11 @@
 import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
-import { DOCUMENTS_QUEUE, enqueueDocument } from '../server/queues/documents'
-import type { DocumentJob } from '../server/queues/documents'
+import { DOCUMENTS_QUEUE, enqueueDocument } from '../server/services/documents'
+import type { DocumentJob } from '../server/services/documents'
 import { redisPrefix } from '../server/redis'
 import { jobLocks } from './locks'
-import { failDocument, pendingDocumentIds, renderDocument } from '../server/services/documentRender'
+import { failDocument, pendingDocumentIds, renderDocument } from '../server/services/documents'
 
 export { DOCUMENTS_QUEUE, enqueueDocument }
 export type { DocumentJob }

@@ -1,11 +1,11 @@
 import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
-import { enqueueMail, MAIL_QUEUE } from '../server/queues/mail'
-import type { MailJob } from '../server/queues/mail'
+import { enqueueMail, MAIL_QUEUE } from '../server/services/mail'
+import type { MailJob } from '../server/services/mail'
 import { redisPrefix } from '../server/redis'
 import { jobLocks } from './locks'
-import { failEmail, pendingEmailIds, sendEmail } from '../server/services/mailDelivery'
+import { failEmail, pendingEmailIds, sendEmail } from '../server/services/mail'
 
 export { enqueueMail, MAIL_QUEUE }
 export type { MailJob }

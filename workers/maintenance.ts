@@ -3,7 +3,7 @@ import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
 import { redisPrefix } from '../server/redis'
 import { jobLocks } from './locks'
-import { sweepExpiredSessions } from '../server/services/sessions'
+import { sweepExpiredSessions } from '../server/services/auth'
 
 /** Housekeeping that every deployment needs once, not once per API process. */
 export const MAINTENANCE_QUEUE = 'maintenance'

@@ -23,11 +23,11 @@ does per row, without its bookkeeping).`)
 }
 const UNITS = Number(args.units)
 
-const { parseBenchCsv } = await import('../../server/services/benchCsv')
+const { parseBenchCsv } = await import('../../server/services/imports')
 const { closeDb, db, User } = await import('../../server/models')
 db() // initialises the models
 const imports = await import('../../server/services/imports')
-const { recordStepRun } = await import('../../server/services/stepRuns')
+const { recordStepRun } = await import('../../server/services/floor')
 const { seedBenchLot } = await import('./scanSeed')
 
 const ms = (t0: number) => performance.now() - t0

@@ -3,7 +3,7 @@
 import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import type { Express } from 'express'
-import { DEMO_PASSWORD } from '../../server/db/seed/demoUsers'
+import { DEMO_PASSWORD } from '../../server/seed/demoUsers'
 
 /** Serves `app` on a free loopback port. */
 export async function listenOnLoopback(app: Express): Promise<{ server: Server; base: string }> {

@@ -65,7 +65,7 @@ await owner.query(
 )
 await owner.close()
 
-const { loadDemo } = await import('../../server/db/seed/demo')
+const { loadDemo } = await import('../../server/seed/demo')
 const { buildApp } = await import('../../server/app')
 const { seedBenchLot } = await import('./scanSeed')
 await loadDemo({ onlyIfEmpty: false })

@@ -1,12 +1,12 @@
 import { LOT_QUANTITY_MAX } from '../../shared/lots'
-import { SEED_ACTOR } from '../../server/db/seed/demo'
+import { SEED_ACTOR } from '../../server/seed/demo'
 import { User } from '../../server/models'
-import { createCheck } from '../../server/services/checks'
-import { listLotUnits } from '../../server/services/lotGrid'
+import { createCheck } from '../../server/services/recipes'
+import { listLotUnits } from '../../server/services/lots'
 import { createLot, releaseLot } from '../../server/services/lots'
-import { createProduct } from '../../server/services/products'
-import { releaseRevision } from '../../server/services/revisions'
-import { createStep } from '../../server/services/routeSteps'
+import { createProduct } from '../../server/services/recipes'
+import { releaseRevision } from '../../server/services/recipes'
+import { createStep } from '../../server/services/recipes'
 
 /**
  * A one-step winding recipe with two checks, released, and released lots of it holding `units`

@@ -69,7 +69,7 @@ await s3.send(new CreateBucketCommand({ Bucket: env.s3.bucket })).catch((err: un
   if (name !== 'BucketAlreadyOwnedByYou' && name !== 'BucketAlreadyExists') throw err
 })
 s3.destroy()
-const { loadDemo } = await import('../../server/db/seed/demo')
+const { loadDemo } = await import('../../server/seed/demo')
 const { seedBenchLot } = await import('./scanSeed')
 const { DefectCode, Lot, RouteStep, Unit, closeDb } = await import('../../server/models')
 await loadDemo({ onlyIfEmpty: false })

@@ -41,7 +41,7 @@ if (!args.keep) await resetTestSchema(owner)
 await migrator(owner).up()
 await owner.close()
 
-const { loadDemo } = await import('../../server/db/seed/demo')
+const { loadDemo } = await import('../../server/seed/demo')
 const { buildApp } = await import('../../server/app')
 const { db } = await import('../../server/models')
 const { seedYieldBench, seededBench } = await import('./yieldSeed')

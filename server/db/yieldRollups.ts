@@ -1,6 +1,6 @@
 // The Yield board's rollups of step runs (migration 20261202160000): `units.run_count`,
 // `fail_count`, `first_attempt_count` and `lot_run_days`. The scan statement keeps them as it
-// writes each step run (`moved` and `dated` in WRITE_RUNS, server/services/stepRunSql.ts); a
+// writes each step run (`moved` and `dated` in WRITE_RUNS, server/services/floor/stepRunSql.ts); a
 // bulk load that inserts step runs by other means (the benchmark seeds) runs these statements
 // afterwards to recount them all.
 export const REBUILD_YIELD_ROLLUPS = [

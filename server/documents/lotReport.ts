@@ -1,5 +1,5 @@
 import { MEDIAN_MIN_RUNS, MEDIAN_SUSPECT_TURNS } from '../../shared/quality/turnReview'
-import type { LotReportData, TurnSeries } from '../services/lotReportData'
+import type { LotReportData, TurnSeries } from '../services/documents'
 import { FONT, MM, newPdf, pdfBuffer } from './pdf'
 import { fixedPdfInfo } from './pdfInfo'
 import { drawLine, drawText, registerGreekFonts, textHeight } from './pdfText'

@@ -2,7 +2,7 @@ import type { NextFunction, Request, Response } from 'express'
 import type { Role } from '../../shared/roles'
 import type { UserDto } from '../../shared/schemas/auth'
 import { AppError } from '../errors'
-import type { Actor } from '../services/audit'
+import type { Actor } from '../services/admin'
 
 /** Who may call a route: nobody signed in, anybody signed in, or the listed roles. */
 export type Access = 'public' | 'signed_in' | readonly Role[]

@@ -1,6 +1,6 @@
 import type { Response } from 'express'
 import { fileTypeFromBuffer } from 'file-type'
-import { safeFileName } from '../services/uploads'
+import { safeFileName } from '../services/receiving'
 
 /** What a stored file's bytes may be served as when nothing better is known. */
 const OPAQUE = 'application/octet-stream'

@@ -3,7 +3,7 @@ import { AlertQuery } from '../../shared/schemas/alerts'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { acknowledgeAlert, listAlerts } from '../services/alerts'
+import { acknowledgeAlert, listAlerts } from '../services/quality'
 import { apiRoutes } from './registry'
 
 export const alertRoutes = apiRoutes('/alerts')

@@ -1,6 +1,6 @@
 import { PageQuery, text } from '../../shared/schemas/common'
 import { parse } from '../middleware/validate'
-import { listAuditEvents } from '../services/auditLog'
+import { listAuditEvents } from '../services/admin'
 import { apiRoutes } from './registry'
 
 export const auditRoutes = apiRoutes('/audit-events')

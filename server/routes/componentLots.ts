@@ -22,8 +22,8 @@ import {
   receiveComponentLot,
   setComponentLotStatus,
   updateComponentLot,
-} from '../services/componentLots'
-import { CERTIFICATE_MAX_BYTES } from '../services/uploads'
+} from '../services/receiving'
+import { CERTIFICATE_MAX_BYTES } from '../services/receiving'
 import { getFile } from '../storage'
 import { apiRoutes } from './registry'
 

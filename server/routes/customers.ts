@@ -3,7 +3,7 @@ import { CustomerCreateInput, CustomerUpdateInput } from '../../shared/schemas/s
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createCustomer, getCustomer, listCustomers, updateCustomer } from '../services/customers'
+import { createCustomer, getCustomer, listCustomers, updateCustomer } from '../services/shipping'
 import { apiRoutes } from './registry'
 
 export const customerRoutes = apiRoutes('/customers')

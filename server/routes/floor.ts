@@ -6,7 +6,7 @@ import { actorOf } from '../middleware/access'
 import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
 import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
-import { recordStepRun } from '../services/stepRuns'
+import { recordStepRun } from '../services/floor'
 import { apiRoutes } from './registry'
 
 export const floorRoutes = apiRoutes('/floor')

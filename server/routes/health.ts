@@ -1,4 +1,4 @@
-import { checkHealth } from '../services/health'
+import { checkHealth } from '../services/admin'
 import { apiRoutes } from './registry'
 
 export const healthRoutes = apiRoutes('/health')

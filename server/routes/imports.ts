@@ -22,7 +22,7 @@ import {
   uploadBenchFile,
   toImportDto,
 } from '../services/imports'
-import { enqueueImport, enqueueImportCheck } from '../queues/imports'
+import { enqueueImport, enqueueImportCheck } from '../services/imports'
 import { apiRoutes } from './registry'
 
 export const importRoutes = apiRoutes('/imports')

@@ -17,7 +17,7 @@ import {
   requestDocument,
   toDocumentDto,
 } from '../services/documents'
-import { lotGrid, listLotUnits } from '../services/lotGrid'
+import { lotGrid, listLotUnits } from '../services/lots'
 import {
   closeLot,
   createLot,

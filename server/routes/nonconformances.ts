@@ -5,7 +5,7 @@ import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf, signedInUser } from '../middleware/access'
 import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
-import { disposeNonconformance, listNonconformances } from '../services/nonconformances'
+import { disposeNonconformance, listNonconformances } from '../services/quality'
 import { apiRoutes } from './registry'
 
 export const nonconformanceRoutes = apiRoutes('/nonconformances')

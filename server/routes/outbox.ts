@@ -6,7 +6,7 @@ import { DraftUpdateInput } from '../../shared/schemas/trace'
 import { actorOf } from '../middleware/access'
 import { sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
-import { emailAttachment, getEmail, listEmails, sendDraft, updateDraft } from '../services/outbox'
+import { emailAttachment, getEmail, listEmails, sendDraft, updateDraft } from '../services/mail'
 import { getFile } from '../storage'
 import { apiRoutes } from './registry'
 

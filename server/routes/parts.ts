@@ -9,8 +9,8 @@ import {
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createDefectCode, listDefectCodes, updateDefectCode } from '../services/defectCodes'
-import { createPart, listParts, updatePart } from '../services/parts'
+import { createDefectCode, listDefectCodes, updateDefectCode } from '../services/recipes'
+import { createPart, listParts, updatePart } from '../services/recipes'
 import { apiRoutes } from './registry'
 
 export const partRoutes = apiRoutes('/parts')

@@ -3,8 +3,8 @@ import { ProductCreateInput, ProductUpdateInput } from '../../shared/schemas/rec
 import { can, PERMISSIONS } from '../../shared/permissions'
 import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createProduct, listProducts, updateProduct } from '../services/products'
-import { createRevision } from '../services/revisions'
+import { createProduct, listProducts, updateProduct } from '../services/recipes'
+import { createRevision } from '../services/recipes'
 import { apiRoutes } from './registry'
 
 export const productRoutes = apiRoutes('/products')

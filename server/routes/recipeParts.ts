@@ -9,10 +9,10 @@ import {
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { deleteBomLine, updateBomLine } from '../services/bom'
-import { createCheck, deleteCheck, updateCheck } from '../services/checks'
-import { deleteStep, updateStep } from '../services/routeSteps'
-import { deleteWinding, updateWinding } from '../services/windings'
+import { deleteBomLine, updateBomLine } from '../services/recipes'
+import { createCheck, deleteCheck, updateCheck } from '../services/recipes'
+import { deleteStep, updateStep } from '../services/recipes'
+import { deleteWinding, updateWinding } from '../services/recipes'
 import { apiRoutes } from './registry'
 
 // The records inside a revision, addressed by their own ids. Each service locks the parent

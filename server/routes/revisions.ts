@@ -10,8 +10,8 @@ import { can, PERMISSIONS } from '../../shared/permissions'
 import { AppError } from '../errors'
 import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createBomLine, listBom } from '../services/bom'
-import { assertRevisionReadable } from '../services/revisionAccess'
+import { createBomLine, listBom } from '../services/recipes'
+import { assertRevisionReadable } from '../services/recipes'
 import {
   copyRevision,
   deleteRevision,
@@ -20,9 +20,9 @@ import {
   releaseCheck,
   releaseRevision,
   updateRevision,
-} from '../services/revisions'
-import { createStep, reorderSteps } from '../services/routeSteps'
-import { createWinding } from '../services/windings'
+} from '../services/recipes'
+import { createStep, reorderSteps } from '../services/recipes'
+import { createWinding } from '../services/recipes'
 import { apiRoutes } from './registry'
 
 export const revisionRoutes = apiRoutes('/revisions')

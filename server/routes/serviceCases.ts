@@ -14,7 +14,7 @@ import {
   listServiceCases,
   openServiceCase,
   updateServiceCase,
-} from '../services/serviceCases'
+} from '../services/service-cases'
 import { apiRoutes } from './registry'
 
 export const serviceCaseRoutes = apiRoutes('/service-cases')

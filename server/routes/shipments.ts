@@ -12,7 +12,7 @@ import {
   listUnitDocuments,
   requestShipmentCertificate,
   requestUnitCertificate,
-} from '../services/shipments'
+} from '../services/shipping'
 import { apiRoutes } from './registry'
 
 export const shipmentRoutes = apiRoutes('/shipments')

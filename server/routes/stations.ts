@@ -2,7 +2,7 @@ import { IdParam } from '../../shared/schemas/common'
 import { StationCreateInput, StationUpdateInput } from '../../shared/schemas/stations'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createStation, listStations, updateStation } from '../services/stations'
+import { createStation, listStations, updateStation } from '../services/admin'
 import { apiRoutes } from './registry'
 
 export const stationRoutes = apiRoutes('/stations')

@@ -2,7 +2,7 @@ import { IdParam } from '../../shared/schemas/common'
 import { UserCreateInput, UserUpdateInput } from '../../shared/schemas/users'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { createUser, listUsers, updateUser } from '../services/users'
+import { createUser, listUsers, updateUser } from '../services/admin'
 import { apiRoutes } from './registry'
 
 export const userRoutes = apiRoutes('/users')

@@ -2,9 +2,9 @@ import { IdParam } from '../../shared/schemas/common'
 import { YieldSummaryQuery } from '../../shared/schemas/yield'
 import { PERMISSIONS } from '../../shared/permissions'
 import { parse } from '../middleware/validate'
-import { lotTurnDeviation } from '../services/turnDeviation'
-import { getLotYield, summarizeYield } from '../services/yield'
-import { getLotYieldDetail } from '../services/yieldDetail'
+import { lotTurnDeviation } from '../services/quality'
+import { getLotYield, summarizeYield } from '../services/quality'
+import { getLotYieldDetail } from '../services/quality'
 import { apiRoutes } from './registry'
 
 export const yieldRoutes = apiRoutes('/yield')

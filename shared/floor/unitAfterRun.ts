@@ -22,7 +22,7 @@ export type UnitBeforeRun = Omit<UnitMove, 'state'> & { state: UnitState }
  * Where a unit goes after a step run. A pass goes to the next step (or ends the route as
  * passed) and ends a rework once the failed step is passed again; a fail holds the unit for
  * the lead, who disposes the nonconformance it opens. The scan writes the move in its batched
- * statement (`moved` in WRITE_RUNS, server/services/stepRunSql.ts).
+ * statement (`moved` in WRITE_RUNS, server/services/floor/stepRunSql.ts).
  */
 export function unitAfterRun(
   unit: UnitBeforeRun,

@@ -3,14 +3,14 @@ import { QueryTypes } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ImportDto, ImportRowDto } from '../../shared/schemas/imports'
 import { db, ImportRow } from '../../server/models'
-import { alertJobKey, alertsQueue, closeAlertsQueue } from '../../server/queues/alerts'
-import { closeImportsQueue } from '../../server/queues/imports'
+import { alertJobKey, alertsQueue, closeAlertsQueue } from '../../server/services/quality/alertQueue'
+import { closeImportsQueue } from '../../server/services/imports/queue'
 import {
   checkImport,
   failImport,
   pendingImports,
   processImport,
-} from '../../server/services/imports'
+} from '../../server/services/imports/imports'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'

@@ -7,7 +7,7 @@ import { QueryTypes } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { DocumentDto } from '../../shared/schemas/lots'
 import { db } from '../../server/models'
-import { closeDocumentsQueue } from '../../server/queues/documents'
+import { closeDocumentsQueue } from '../../server/services/documents/queue'
 import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../workers/documents'
 import { resetSignInLimits, signedInAs } from './support/client'
@@ -158,7 +158,7 @@ describe('lot report and exports', () => {
       // Nominal AL·N² = 3000 nH × 92² = 25.392 mH; the median 25.39 mH is −0.008 %, shown as
       // 0.0 % (computed by hand). The text layer gives the superscript ² as a plain 2.
       expect(text).toMatch(/The lot’s median inductance is 0\.0 % from AL·N[²2]\./)
-      // The board's sentence for the winding, word for word (server/services/turnSummary.ts).
+      // The board's sentence for the winding, word for word (server/services/quality/turnSummary.ts).
       expect(text).toContain('1 winding run of 6 look miscounted. Wound at WND-1')
       expect(text).toContain('WND-1')
     })

@@ -5,10 +5,10 @@ import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
 import { startSmtpFake } from '../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { db, Email, User } from '../../server/models'
-import { closeMailQueue } from '../../server/queues/mail'
+import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
-import { queueEmail } from '../../server/services/outbox'
-import type { Actor } from '../../server/services/audit'
+import { queueEmail } from '../../server/services/mail/outbox'
+import type { Actor } from '../../server/services/admin/audit'
 import { startMailWorker } from '../../workers/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
 
@@ -128,7 +128,7 @@ describe('mail', () => {
     const subject = `Sent once ${uniqueSuffix()}`
     const id = await queue(subject, false)
     await waitForStatus(id, 'sent')
-    const { sendEmail } = await import('../../server/services/mailDelivery')
+    const { sendEmail } = await import('../../server/services/mail/mailDelivery')
     await sendEmail(id)
     expect((await Email.findByPk(id))!.attempts).toBe(1)
     expect(await Email.count({ where: { status: 'received', subject } })).toBe(1)

@@ -1,7 +1,7 @@
 import type { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { describe, expect, it } from 'vitest'
-import { closeImportsQueue } from '../../server/queues/imports'
+import { closeImportsQueue } from '../../server/services/imports/queue'
 import { newQueueConnection } from '../../server/redis'
 import { startImportsWorker } from '../../workers/imports'
 import { resetSignInLimits, signedInAs } from '../api/support/client'

@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
-import { MISCOUNT_ORDER_REF } from '../../server/db/seed/demoMiscountLot'
+import { MISCOUNT_ORDER_REF } from '../../server/seed/demoMiscountLot'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */

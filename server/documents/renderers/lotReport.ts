@@ -1,5 +1,5 @@
 import type { Document } from '../../models'
-import { loadLotReportData } from '../../services/lotReportData'
+import { loadLotReportData } from '../../services/documents'
 import { lotReportPdf } from '../lotReport'
 import type { Progress } from './types'
 

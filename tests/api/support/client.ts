@@ -2,7 +2,7 @@ import request from 'supertest'
 import type { Response } from 'supertest'
 import type { Express } from 'express'
 import { buildApp } from '../../../server/app'
-import { DEMO_PASSWORD } from '../../../server/db/seed/demoUsers'
+import { DEMO_PASSWORD } from '../../../server/seed/demoUsers'
 import { redisConnection, redisPrefix } from '../../../server/redis'
 
 let app: Express | undefined

@@ -1,4 +1,4 @@
-import { DEMO_PASSWORD } from '../../../server/db/seed/demoUsers'
+import { DEMO_PASSWORD } from '../../../server/seed/demoUsers'
 
 export interface Reply {
   status: number

@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { cellBoolean, cellNumber, columnFit, proposeMapping } from '../../../shared/imports'
-import { parseBenchCsv } from '../../../server/services/benchCsv'
+import { parseBenchCsv } from '../../../server/services/imports/benchCsv'
 
-// The typed checks of the demo FP24 load-test step (server/db/seed/demoRecipes.ts).
+// The typed checks of the demo FP24 load-test step (server/seed/demoRecipes.ts).
 const LOAD_TEST_CHECKS = [
   { key: 'vin', label: 'Input voltage', unit: 'V' as const },
   { key: 'iin', label: 'Input current', unit: 'A' as const },

@@ -6,7 +6,7 @@ vi.hoisted(() => {
 })
 
 const { logger } = await import('../../../../server/logger')
-const { closeAlertsQueue, enqueueAlertCheck } = await import('../../../../server/queues/alerts')
+const { closeAlertsQueue, enqueueAlertCheck } = await import('../../../../server/services/quality/alertQueue')
 
 afterAll(async () => {
   await Promise.race([closeAlertsQueue(), new Promise((r) => setTimeout(r, 500))])

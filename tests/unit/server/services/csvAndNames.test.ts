@@ -1,7 +1,7 @@
 import { parse } from 'csv-parse/sync'
 import { describe, expect, it } from 'vitest'
-import { csvCell, safeText, writeCsv } from '../../../../server/services/csv'
-import { FILE_NAME_MAX, safeFileName } from '../../../../server/services/uploads'
+import { csvCell, safeText, writeCsv } from '../../../../server/services/exports/csv'
+import { FILE_NAME_MAX, safeFileName } from '../../../../server/services/receiving/uploads'
 
 describe('the CSV guard', () => {
   // OWASP "CSV Injection": text starting with =, +, -, @, tab or CR gets a leading apostrophe.

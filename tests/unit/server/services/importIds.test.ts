@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { StepRunInput } from '../../../../shared/schemas/lots'
-import { importRowEventId, uuidV5 } from '../../../../server/services/importIds'
+import { importRowEventId, uuidV5 } from '../../../../server/services/imports/importIds'
 
 describe('name-based event ids of imported rows', () => {
   it('computes UUID version 5 as published', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { TurnRunDto } from '../../../../shared/schemas/yield'
-import { turnSummary } from '../../../../server/services/turnSummary'
+import { turnSummary } from '../../../../server/services/quality/turnSummary'
 
 const run = (i: number, over: Partial<TurnRunDto> = {}): TurnRunDto => ({
   stepRunId: `r${i}`,

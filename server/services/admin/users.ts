@@ -1,0 +1,107 @@
+import { QueryTypes, UniqueConstraintError } from 'sequelize'
+import type { UserDto } from '../../../shared/schemas/auth'
+import type { UserAdminDto, UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users'
+import { AppError } from '../../errors'
+import { forgetUsers } from '../../middleware/authCache'
+import { db, User } from '../../models'
+import { changedFields, recordAudit } from './audit'
+import type { Actor } from './audit'
+import { hashPassword } from '../auth'
+
+/** The public shape of a user (never the hash). */
+export function toUserDto(user: User): UserDto {
+  return { id: user.id, email: user.email, name: user.name, role: user.role }
+}
+
+function toAdminDto(user: User): UserAdminDto {
+  return {
+    ...toUserDto(user),
+    isActive: user.isActive,
+    lastSignInAt: user.lastSignInAt?.toISOString() ?? null,
+    createdAt: user.createdAt.toISOString(),
+  }
+}
+
+/** Every user, for the Admin screen, active ones first. */
+export async function listUsers(): Promise<UserAdminDto[]> {
+  const users = await User.findAll({
+    order: [
+      ['isActive', 'DESC'],
+      ['name', 'ASC'],
+    ],
+  })
+  return users.map(toAdminDto)
+}
+
+/** Creates a user; a taken e-mail is a 409 naming the field. */
+export async function createUser(input: UserCreateInput, actor: Actor): Promise<UserAdminDto> {
+  const passwordHash = await hashPassword(input.password)
+  try {
+    return await db().transaction(async (transaction) => {
+      const user = await User.create(
+        { ...input, passwordHash, lastSignInAt: null },
+        { transaction },
+      )
+      const dto = toAdminDto(user)
+      await recordAudit(
+        actor,
+        { action: 'user.create', entity: 'user', entityId: user.id, after: dto },
+        transaction,
+      )
+      return dto
+    })
+  } catch (err) {
+    if (err instanceof UniqueConstraintError)
+      throw AppError.conflict('duplicate', 'a user with this e-mail exists', {
+        email: 'already in use',
+      })
+    throw err
+  }
+}
+
+/**
+ * Changes a user's name, role, password or active flag. Deactivating also deletes the user's
+ * stored sessions, so a signed-in browser loses access on its next request.
+ */
+export async function updateUser(
+  id: string,
+  input: UserUpdateInput,
+  actor: Actor,
+): Promise<UserAdminDto> {
+  if (id === actor.id && (input.isActive === false || (input.role && input.role !== 'admin')))
+    throw AppError.conflict(
+      'self_lockout',
+      'you cannot deactivate yourself or drop your own admin role',
+    )
+  const { password, ...fields } = input
+  const updated = await db().transaction(async (transaction) => {
+    const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!user) throw AppError.notFound(`user ${id}`)
+    const before = toAdminDto(user)
+    user.set(fields)
+    if (password) user.passwordHash = await hashPassword(password)
+    await user.save({ transaction })
+    const after = toAdminDto(user)
+    const diff = changedFields(before, after)
+    if (password) diff.after.password = 'changed'
+    await recordAudit(
+      actor,
+      { action: 'user.update', entity: 'user', entityId: id, ...diff },
+      transaction,
+    )
+    if (input.isActive === false || password) await endSessionsOf(id, transaction)
+    return after
+  })
+  // Other processes hear of it from the users trigger; this one must not wait for that.
+  forgetUsers()
+  return updated
+}
+
+/** Deletes every stored session that belongs to the user. */
+async function endSessionsOf(userId: string, transaction: import('sequelize').Transaction) {
+  await db().query(`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = :userId`, {
+    replacements: { userId },
+    type: QueryTypes.DELETE,
+    transaction,
+  })
+}

@@ -1,0 +1,4 @@
+// The auth area's public face: what the routes, workers and other areas may use.
+export * from './auth'
+export * from './passwords'
+export * from './sessions'

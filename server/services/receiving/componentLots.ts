@@ -1,0 +1,289 @@
+import { Op, QueryTypes } from 'sequelize'
+import type { Transaction, WhereOptions } from 'sequelize'
+import { mod3736CheckCharacter } from '../../../shared/checkCharacter'
+import type { ComponentLotStatus } from '../../../shared/recipes/definitions'
+import { LOT_STATUS_MOVES } from '../../../shared/schemas/receiving'
+import type {
+  ComponentLotCreateInput,
+  ComponentLotDto,
+  ComponentLotQuery,
+  ComponentLotStatusInput,
+  ComponentLotUpdateInput,
+  PageDto,
+} from '../../../shared/schemas/receiving'
+import { AppError } from '../../errors'
+import { ComponentLot, db, Part, Upload } from '../../models'
+import { changedFields, recordAudit } from '../admin'
+import type { Actor } from '../admin'
+import { CERTIFICATE_MAX_BYTES, CERTIFICATE_TYPES, storeUpload, toUploadDto } from './uploads'
+
+/** Today's date as YYYY-MM-DD (UTC), the day against which expiry dates are judged. */
+export function todayIso(now = new Date()): string {
+  return now.toISOString().slice(0, 10)
+}
+
+export function toComponentLotDto(lot: ComponentLot, today = todayIso()): ComponentLotDto {
+  return {
+    id: lot.id,
+    internalCode: lot.internalCode,
+    partId: lot.partId,
+    partNumber: lot.part?.partNumber ?? '',
+    partDescription: lot.part?.description ?? '',
+    unitOfMeasure: lot.part?.unitOfMeasure ?? 'pcs',
+    supplierName: lot.supplierName,
+    supplierLotCode: lot.supplierLotCode,
+    quantityReceived: lot.quantityReceived,
+    quantityRemaining: lot.quantityRemaining,
+    receivedOn: lot.receivedOn,
+    expiresOn: lot.expiresOn,
+    isExpired: lot.expiresOn !== null && lot.expiresOn < today,
+    status: lot.status,
+    notes: lot.notes,
+    certificate: lot.certificate ? toUploadDto(lot.certificate) : null,
+  }
+}
+
+const INCLUDE = [
+  { model: Part, as: 'part' },
+  { model: Upload, as: 'certificate' },
+]
+
+async function loadLot(id: string, transaction?: Transaction, lock = false): Promise<ComponentLot> {
+  // Lock the lot row alone: FOR UPDATE cannot apply to the nullable side of the outer joins.
+  if (lock && transaction) {
+    const locked = await ComponentLot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!locked) throw AppError.notFound(`component lot ${id}`)
+  }
+  const lot = await ComponentLot.findByPk(id, { include: INCLUDE, transaction })
+  if (!lot) throw AppError.notFound(`component lot ${id}`)
+  return lot
+}
+
+/**
+ * The next internal lot code, `CL-<YY>-<5 digits><check>`: the number comes from a database
+ * sequence (never handed out twice), the check character is ISO/IEC 7064 MOD 37,36.
+ */
+async function nextInternalCode(receivedOn: string, transaction: Transaction): Promise<string> {
+  const [row] = await db().query<{ n: string }>(`SELECT nextval('component_lot_code_seq') AS n`, {
+    type: QueryTypes.SELECT,
+    transaction,
+  })
+  const body = `CL-${receivedOn.slice(2, 4)}-${String(row!.n).padStart(5, '0')}`
+  return `${body}${mod3736CheckCharacter(body)}`
+}
+
+/** A page of component lots, filtered and sorted on the server. */
+export async function listComponentLots(q: ComponentLotQuery): Promise<PageDto<ComponentLotDto>> {
+  const where: WhereOptions<ComponentLot> = {}
+  if (q.partId) where.partId = q.partId
+  if (q.status) where.status = q.status
+  if (q.q) {
+    const like = `%${q.q}%`
+    Object.assign(where, {
+      [Op.or]: [
+        { internalCode: { [Op.iLike]: like } },
+        { supplierLotCode: { [Op.iLike]: like } },
+        { supplierName: { [Op.iLike]: like } },
+        { '$part.part_number$': { [Op.iLike]: like } },
+      ],
+    })
+  }
+  const { rows, count } = await ComponentLot.findAndCountAll({
+    where,
+    include: INCLUDE,
+    // Lots without an expiry date sort after those with one, whichever way the column runs.
+    order: [
+      [q.sort, `${q.order.toUpperCase()} NULLS LAST`],
+      ['internalCode', 'DESC'],
+    ],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+    distinct: true,
+  })
+  const today = todayIso()
+  return { rows: rows.map((r) => toComponentLotDto(r, today)), total: count }
+}
+
+/** One component lot. */
+export async function getComponentLot(id: string): Promise<ComponentLotDto> {
+  return toComponentLotDto(await loadLot(id))
+}
+
+/** Receives a lot: allocates its internal code and puts the whole quantity in stock. */
+export async function receiveComponentLot(
+  input: ComponentLotCreateInput,
+  actor: Actor,
+): Promise<ComponentLotDto> {
+  return db().transaction(async (transaction) => {
+    const part = await Part.findByPk(input.partId, { transaction })
+    if (!part) throw AppError.badRequest('partId: no such part', { partId: 'no such part' })
+    if (input.expiresOn && !part.hasExpiry)
+      throw AppError.badRequest('expiresOn: this part has no expiry date', {
+        expiresOn: 'this part has no expiry date',
+      })
+    const internalCode = await nextInternalCode(input.receivedOn, transaction)
+    const lot = await ComponentLot.create(
+      {
+        ...input,
+        internalCode,
+        quantityRemaining: input.quantityReceived,
+        certificateUploadId: null,
+      },
+      { transaction },
+    )
+    const dto = toComponentLotDto(await loadLot(lot.id, transaction))
+    await recordAudit(
+      actor,
+      { action: 'component_lot.receive', entity: 'component_lot', entityId: lot.id, after: dto },
+      transaction,
+    )
+    return dto
+  })
+}
+
+/**
+ * Corrects a lot's details or its remaining quantity after a stock count. Reaching 0 marks it
+ * used up; a count that finds stock in a used-up lot makes it available again.
+ */
+export async function updateComponentLot(
+  id: string,
+  input: ComponentLotUpdateInput,
+  actor: Actor,
+): Promise<ComponentLotDto> {
+  return db().transaction(async (transaction) => {
+    const lot = await loadLot(id, transaction, true)
+    const before = toComponentLotDto(lot)
+    if (input.quantityRemaining !== undefined && input.quantityRemaining > lot.quantityReceived)
+      throw AppError.badRequest('quantityRemaining: more than was received', {
+        quantityRemaining: 'more than was received',
+      })
+    if (input.expiresOn && input.expiresOn < lot.receivedOn)
+      throw AppError.badRequest('expiresOn: the expiry date is before the date received', {
+        expiresOn: 'before the date received',
+      })
+    lot.set(input)
+    if (lot.quantityRemaining === 0 && lot.status === 'available') lot.status = 'used_up'
+    if (lot.quantityRemaining > 0 && lot.status === 'used_up') lot.status = 'available'
+    await lot.save({ transaction })
+    const after = toComponentLotDto(lot)
+    await recordAudit(
+      actor,
+      {
+        action: 'component_lot.update',
+        entity: 'component_lot',
+        entityId: id,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return after
+  })
+}
+
+/** Moves a lot to another status along LOT_STATUS_MOVES, with the reason in the audit log. */
+export async function setComponentLotStatus(
+  id: string,
+  input: ComponentLotStatusInput,
+  actor: Actor,
+): Promise<ComponentLotDto> {
+  return db().transaction(async (transaction) => {
+    // A contained lot leaves quarantine only when its containment ends (containment.ts), which
+    // also decides its units.
+    const lot = await ComponentLot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    const held = lot?.status === 'quarantined' ? await containedUnitIds(id, transaction) : []
+    if (held.length > 0)
+      throw AppError.conflict(
+        'lot_contained',
+        `${held.length} unit(s) are held by the containment of this lot: end the containment on its recall page in Trace, which also moves the lot`,
+      )
+    return moveComponentLotStatus(id, input, actor, transaction)
+  })
+}
+
+/** The units on a containment's hold that hold this component lot. */
+export async function containedUnitIds(
+  componentLotId: string,
+  transaction?: Transaction,
+): Promise<string[]> {
+  const rows = await db().query<{ id: string }>(
+    `SELECT DISTINCT u.id
+       FROM consumptions co JOIN units u ON u.id = co.unit_id
+      WHERE co.component_lot_id = :componentLotId
+        AND u.state = 'on_hold' AND u.hold_kind = 'containment'`,
+    { replacements: { componentLotId }, type: QueryTypes.SELECT, transaction },
+  )
+  return rows.map((r) => r.id)
+}
+
+/**
+ * The status move inside the caller's transaction (a containment quarantines the lot together
+ * with holding its units): locks the lot, refuses a move LOT_STATUS_MOVES does not allow, audits.
+ */
+export async function moveComponentLotStatus(
+  id: string,
+  input: ComponentLotStatusInput,
+  actor: Actor,
+  transaction: Transaction,
+): Promise<ComponentLotDto> {
+  const lot = await loadLot(id, transaction, true)
+  const from: ComponentLotStatus = lot.status
+  if (!LOT_STATUS_MOVES[from].includes(input.status))
+    throw AppError.conflict(
+      'status_move_refused',
+      `a ${from.replace('_', ' ')} lot cannot become ${input.status.replace('_', ' ')}`,
+      {
+        status: `not allowed from ${from}`,
+      },
+    )
+  await lot.update({ status: input.status }, { transaction })
+  await recordAudit(
+    actor,
+    {
+      action: 'component_lot.status',
+      entity: 'component_lot',
+      entityId: id,
+      before: { status: from },
+      after: { status: input.status, reason: input.reason },
+    },
+    transaction,
+  )
+  return toComponentLotDto(lot)
+}
+
+/** Stores a supplier certificate (PDF, PNG or JPEG, checked by content) and attaches it. */
+export async function attachCertificate(
+  id: string,
+  file: { buffer: Buffer; originalname: string },
+  actor: Actor,
+): Promise<ComponentLotDto> {
+  if (file.buffer.length > CERTIFICATE_MAX_BYTES)
+    throw AppError.tooLarge('file: the certificate is over 10 MB')
+  return db().transaction(async (transaction) => {
+    const lot = await loadLot(id, transaction, true)
+    const upload = await storeUpload(file, CERTIFICATE_TYPES, 'certificates', actor.id, transaction)
+    const before = lot.certificate ? toUploadDto(lot.certificate) : null
+    await lot.update({ certificateUploadId: upload.id }, { transaction })
+    lot.certificate = upload
+    await recordAudit(
+      actor,
+      {
+        action: 'component_lot.certificate',
+        entity: 'component_lot',
+        entityId: id,
+        before: { certificate: before },
+        after: { certificate: toUploadDto(upload) },
+      },
+      transaction,
+    )
+    return toComponentLotDto(lot)
+  })
+}
+
+/** Where a lot's certificate is stored, with its name and type, or a 404. */
+export async function certificateOf(
+  id: string,
+): Promise<{ storageKey: string; filename: string; contentType: string }> {
+  const lot = await loadLot(id)
+  if (!lot.certificate) throw AppError.notFound(`certificate of component lot ${lot.internalCode}`)
+  return lot.certificate
+}

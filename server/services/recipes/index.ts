@@ -1,0 +1,11 @@
+// The recipes area's public face: what the routes, workers and other areas may use.
+export * from './bom'
+export * from './checks'
+export * from './defectCodes'
+export * from './parts'
+export * from './products'
+export * from './recipePresenters'
+export * from './revisionAccess'
+export * from './revisions'
+export * from './routeSteps'
+export * from './windings'

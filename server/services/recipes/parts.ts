@@ -1,0 +1,83 @@
+import { Op, UniqueConstraintError } from 'sequelize'
+import type { PartDto, PartInput } from '../../../shared/schemas/recipes'
+import type { PageDto, PartQuery } from '../../../shared/schemas/receiving'
+import { AppError } from '../../errors'
+import { db, Part } from '../../models'
+import { changedFields, recordAudit } from '../admin'
+import type { Actor } from '../admin'
+
+export function toPartDto(p: Part): PartDto {
+  return {
+    id: p.id,
+    partNumber: p.partNumber,
+    description: p.description,
+    unitOfMeasure: p.unitOfMeasure,
+    hasExpiry: p.hasExpiry,
+  }
+}
+
+function duplicateNumber(err: unknown): never {
+  if (err instanceof UniqueConstraintError)
+    throw AppError.conflict('duplicate', 'another part has this part number', {
+      partNumber: 'already in use',
+    })
+  throw err
+}
+
+/** A page of parts, searched by part number or description, sorted on the server. */
+export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
+  const where = q.q
+    ? {
+        [Op.or]: [
+          { partNumber: { [Op.iLike]: `%${q.q}%` } },
+          { description: { [Op.iLike]: `%${q.q}%` } },
+        ],
+      }
+    : {}
+  const { rows, count } = await Part.findAndCountAll({
+    where,
+    order: [[q.sort, q.order.toUpperCase()]],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  })
+  return { rows: rows.map(toPartDto), total: count }
+}
+
+/** Adds a part. */
+export async function createPart(input: PartInput, actor: Actor): Promise<PartDto> {
+  return db()
+    .transaction(async (transaction) => {
+      const part = await Part.create(input, { transaction })
+      const dto = toPartDto(part)
+      await recordAudit(
+        actor,
+        { action: 'part.create', entity: 'part', entityId: part.id, after: dto },
+        transaction,
+      )
+      return dto
+    })
+    .catch(duplicateNumber)
+}
+
+/** Changes a part's number, description, unit or expiry flag. */
+export async function updatePart(
+  id: string,
+  input: Partial<PartInput>,
+  actor: Actor,
+): Promise<PartDto> {
+  return db()
+    .transaction(async (transaction) => {
+      const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+      if (!part) throw AppError.notFound(`part ${id}`)
+      const before = toPartDto(part)
+      await part.update(input, { transaction })
+      const after = toPartDto(part)
+      await recordAudit(
+        actor,
+        { action: 'part.update', entity: 'part', entityId: id, ...changedFields(before, after) },
+        transaction,
+      )
+      return after
+    })
+    .catch(duplicateNumber)
+}

@@ -1,0 +1,97 @@
+import { UniqueConstraintError } from 'sequelize'
+import type {
+  ProductCreateInput,
+  ProductDto,
+  ProductUpdateInput,
+} from '../../../shared/schemas/recipes'
+import { AppError } from '../../errors'
+import { db, Product, Revision } from '../../models'
+import { changedFields, recordAudit } from '../admin'
+import type { Actor } from '../admin'
+
+function toProductDto(p: Product, includeDrafts = true): ProductDto {
+  return {
+    id: p.id,
+    code: p.code,
+    name: p.name,
+    description: p.description,
+    revisions: [...(p.revisions ?? [])]
+      .filter((r) => includeDrafts || r.status !== 'draft')
+      .sort((a, b) => a.letter.length - b.letter.length || a.letter.localeCompare(b.letter))
+      .map((r) => ({ id: r.id, letter: r.letter, status: r.status })),
+  }
+}
+
+/**
+ * Every product with its revisions' letters and states, by code; without `includeDrafts` the
+ * draft revisions are left out (see PERMISSIONS.readDraftRecipes).
+ */
+export async function listProducts(includeDrafts: boolean): Promise<ProductDto[]> {
+  const products = await Product.findAll({
+    include: [{ model: Revision, as: 'revisions' }],
+    order: [['code', 'ASC']],
+  })
+  return products.map((p) => toProductDto(p, includeDrafts))
+}
+
+/** Adds a product with an empty draft revision A to start its recipe in. */
+export async function createProduct(input: ProductCreateInput, actor: Actor): Promise<ProductDto> {
+  try {
+    return await db().transaction(async (transaction) => {
+      const product = await Product.create(input, { transaction })
+      const rev = await Revision.create(
+        {
+          productId: product.id,
+          letter: 'A',
+          copiedFromId: null,
+          releasedAt: null,
+          releasedBy: null,
+        },
+        { transaction },
+      )
+      product.revisions = [rev]
+      const dto = toProductDto(product)
+      await recordAudit(
+        actor,
+        { action: 'product.create', entity: 'product', entityId: product.id, after: dto },
+        transaction,
+      )
+      return dto
+    })
+  } catch (err) {
+    if (err instanceof UniqueConstraintError)
+      throw AppError.conflict('duplicate', 'another product has this code', {
+        code: 'already in use',
+      })
+    throw err
+  }
+}
+
+/** Changes a product's name or description; the code is fixed because serials carry it. */
+export async function updateProduct(
+  id: string,
+  input: ProductUpdateInput,
+  actor: Actor,
+): Promise<ProductDto> {
+  return db().transaction(async (transaction) => {
+    const product = await Product.findByPk(id, {
+      include: [{ model: Revision, as: 'revisions' }],
+      transaction,
+    })
+    if (!product) throw AppError.notFound(`product ${id}`)
+    const before = toProductDto(product)
+    await product.update(input, { transaction })
+    const after = toProductDto(product)
+    await recordAudit(
+      actor,
+      {
+        action: 'product.update',
+        entity: 'product',
+        entityId: id,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return after
+  })
+}

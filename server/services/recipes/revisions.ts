@@ -1,0 +1,188 @@
+import type { Transaction } from 'sequelize'
+import { nextRevisionLetter } from '../../../shared/recipes/definitions'
+import { releaseProblems } from '../../../shared/recipes/completeness'
+import type { RevisionDto, RevisionUpdateInput } from '../../../shared/schemas/recipes'
+import { AppError } from '../../errors'
+import { db, Product, Revision } from '../../models'
+import { changedFields, recordAudit } from '../admin'
+import type { Actor } from '../admin'
+import { copyRecipe } from './revisionCopy'
+import { toRevisionDto } from './recipePresenters'
+import { loadRevision, lockDraftRevision } from './revisionAccess'
+
+/** A revision with its windings, route, checks and bill of materials. */
+export async function getRevision(id: string): Promise<RevisionDto> {
+  return toRevisionDto(await loadRevision(id))
+}
+
+async function nextLetter(productId: string, transaction: Transaction): Promise<string> {
+  // Lock the product so two engineers adding a revision at once do not pick the same letter.
+  const product = await Product.findByPk(productId, { transaction, lock: transaction.LOCK.UPDATE })
+  if (!product) throw AppError.notFound(`product ${productId}`)
+  const existing = await Revision.findAll({
+    where: { productId },
+    attributes: ['letter'],
+    transaction,
+  })
+  return nextRevisionLetter(existing.map((r) => r.letter))
+}
+
+/** Adds an empty draft revision with the next letter. */
+export async function createRevision(productId: string, actor: Actor): Promise<RevisionDto> {
+  return db().transaction(async (transaction) => {
+    const letter = await nextLetter(productId, transaction)
+    const rev = await Revision.create(
+      { productId, letter, copiedFromId: null, releasedAt: null, releasedBy: null },
+      { transaction },
+    )
+    const dto = toRevisionDto(await loadRevision(rev.id, transaction))
+    await recordAudit(
+      actor,
+      {
+        action: 'revision.create',
+        entity: 'revision',
+        entityId: rev.id,
+        after: { productId, letter },
+      },
+      transaction,
+    )
+    return dto
+  })
+}
+
+/** Changes a draft's notes or first-pass-yield alert threshold. */
+export async function updateRevision(
+  id: string,
+  input: RevisionUpdateInput,
+  actor: Actor,
+): Promise<RevisionDto> {
+  return db().transaction(async (transaction) => {
+    const rev = await lockDraftRevision(id, transaction)
+    const before = { notes: rev.notes, fpyThresholdPercent: rev.fpyThresholdPercent }
+    await rev.update(input, { transaction })
+    const after = { notes: rev.notes, fpyThresholdPercent: rev.fpyThresholdPercent }
+    await recordAudit(
+      actor,
+      {
+        action: 'revision.update',
+        entity: 'revision',
+        entityId: id,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return toRevisionDto(await loadRevision(id, transaction))
+  })
+}
+
+/** Deletes a draft revision and its recipe (a released one is history and stays). */
+export async function deleteRevision(id: string, actor: Actor): Promise<void> {
+  await db().transaction(async (transaction) => {
+    const rev = await lockDraftRevision(id, transaction)
+    const dto = toRevisionDto(await loadRevision(id, transaction))
+    await rev.destroy({ transaction })
+    await recordAudit(
+      actor,
+      { action: 'revision.delete', entity: 'revision', entityId: id, before: dto },
+      transaction,
+    )
+  })
+}
+
+/** What stops a revision from being released; empty when it is complete. */
+export async function releaseCheck(id: string): Promise<{ problems: string[] }> {
+  return { problems: releaseProblems(toRevisionDto(await loadRevision(id))) }
+}
+
+/**
+ * Releases a complete draft: from now on it is frozen. Any earlier released revision of the
+ * product stays released (lots in progress were built to it) until an engineer obsoletes it.
+ */
+export async function releaseRevision(id: string, actor: Actor): Promise<RevisionDto> {
+  return db().transaction(async (transaction) => {
+    const rev = await lockDraftRevision(id, transaction)
+    const problems = releaseProblems(toRevisionDto(await loadRevision(id, transaction)))
+    if (problems.length)
+      throw new AppError(
+        409,
+        'revision_incomplete',
+        `revision ${rev.letter} is not complete: ${problems[0]}`,
+        undefined,
+        problems,
+      )
+    await rev.update(
+      { status: 'released', releasedAt: new Date(), releasedBy: actor.id },
+      { transaction },
+    )
+    await recordAudit(
+      actor,
+      {
+        action: 'revision.release',
+        entity: 'revision',
+        entityId: id,
+        before: { status: 'draft' },
+        after: { status: 'released' },
+      },
+      transaction,
+    )
+    return toRevisionDto(await loadRevision(id, transaction))
+  })
+}
+
+/** Retires a released revision: no new lot may be made to it. */
+export async function obsoleteRevision(id: string, actor: Actor): Promise<RevisionDto> {
+  return db().transaction(async (transaction) => {
+    const rev = await Revision.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!rev) throw AppError.notFound(`revision ${id}`)
+    if (rev.status !== 'released')
+      throw AppError.conflict(
+        'not_released',
+        `revision ${rev.letter} is ${rev.status}: only a released revision can be made obsolete`,
+      )
+    await rev.update({ status: 'obsolete' }, { transaction })
+    await recordAudit(
+      actor,
+      {
+        action: 'revision.obsolete',
+        entity: 'revision',
+        entityId: id,
+        before: { status: 'released' },
+        after: { status: 'obsolete' },
+      },
+      transaction,
+    )
+    return toRevisionDto(await loadRevision(id, transaction))
+  })
+}
+
+/** "New revision from this one": a draft with the next letter holding a deep copy of the recipe. */
+export async function copyRevision(id: string, actor: Actor): Promise<RevisionDto> {
+  return db().transaction(async (transaction) => {
+    const source = await loadRevision(id, transaction)
+    const letter = await nextLetter(source.productId, transaction)
+    const copy = await Revision.create(
+      {
+        productId: source.productId,
+        letter,
+        notes: source.notes,
+        fpyThresholdPercent: source.fpyThresholdPercent,
+        copiedFromId: source.id,
+        releasedAt: null,
+        releasedBy: null,
+      },
+      { transaction },
+    )
+    await copyRecipe(source, copy.id, transaction)
+    await recordAudit(
+      actor,
+      {
+        action: 'revision.copy',
+        entity: 'revision',
+        entityId: copy.id,
+        after: { from: source.letter, letter },
+      },
+      transaction,
+    )
+    return toRevisionDto(await loadRevision(copy.id, transaction))
+  })
+}

@@ -1,0 +1,2 @@
+// The service-cases area's public face: what the routes, workers and other areas may use.
+export * from './serviceCases'

@@ -1,0 +1,136 @@
+import { QueryTypes, UniqueConstraintError } from 'sequelize'
+import type { Transaction } from 'sequelize'
+import type {
+  CustomerCreateInput,
+  CustomerDto,
+  CustomerUpdateInput,
+} from '../../../shared/schemas/shipping'
+import { AppError } from '../../errors'
+import { Customer, db } from '../../models'
+import { changedFields, recordAudit } from '../admin'
+import type { Actor } from '../admin'
+
+interface CustomerRow {
+  id: string
+  name: string
+  contact_email: string
+  address: string
+  created_at: Date
+  lot_count: string
+  shipment_count: string
+}
+
+const SELECT_CUSTOMER = `
+  SELECT c.id, c.name, c.contact_email, c.address, c.created_at,
+         (SELECT count(*) FROM lots l WHERE l.customer_id = c.id) AS lot_count,
+         (SELECT count(*) FROM shipments s WHERE s.customer_id = c.id) AS shipment_count
+    FROM customers c`
+
+function toDto(r: CustomerRow): CustomerDto {
+  return {
+    id: r.id,
+    name: r.name,
+    contactEmail: r.contact_email,
+    address: r.address,
+    lotCount: Number(r.lot_count),
+    shipmentCount: Number(r.shipment_count),
+    createdAt: new Date(r.created_at).toISOString(),
+  }
+}
+
+/** Every customer, by name. */
+export async function listCustomers(): Promise<CustomerDto[]> {
+  const rows = await db().query<CustomerRow>(`${SELECT_CUSTOMER} ORDER BY lower(c.name)`, {
+    type: QueryTypes.SELECT,
+  })
+  return rows.map(toDto)
+}
+
+/** One customer with counts of its lots and shipments. */
+export async function getCustomer(id: string, transaction?: Transaction): Promise<CustomerDto> {
+  const [row] = await db().query<CustomerRow>(`${SELECT_CUSTOMER} WHERE c.id = :id`, {
+    replacements: { id },
+    type: QueryTypes.SELECT,
+    transaction,
+  })
+  if (!row) throw AppError.notFound(`customer ${id}`)
+  return toDto(row)
+}
+
+function duplicateName(err: unknown): never {
+  if (err instanceof UniqueConstraintError)
+    throw AppError.conflict('duplicate', 'another customer has this name', {
+      name: 'already in use',
+    })
+  throw err
+}
+
+/** Adds a customer; names are unique regardless of case. */
+export async function createCustomer(
+  input: CustomerCreateInput,
+  actor: Actor,
+): Promise<CustomerDto> {
+  try {
+    return await db().transaction(async (transaction) => {
+      const c = await Customer.create(input, { transaction })
+      const dto = await getCustomer(c.id, transaction)
+      await recordAudit(
+        actor,
+        { action: 'customer.create', entity: 'customer', entityId: c.id, after: input },
+        transaction,
+      )
+      return dto
+    })
+  } catch (err) {
+    duplicateName(err)
+  }
+}
+
+/**
+ * Changes a customer. A new name is carried to the free-text customer name of its lots, so a
+ * lot's traveler and the customer list never disagree.
+ */
+export async function updateCustomer(
+  id: string,
+  input: CustomerUpdateInput,
+  actor: Actor,
+): Promise<CustomerDto> {
+  try {
+    return await db().transaction(async (transaction) => {
+      const c = await Customer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+      if (!c) throw AppError.notFound(`customer ${id}`)
+      const before = { name: c.name, contactEmail: c.contactEmail, address: c.address }
+      await c.update(input, { transaction })
+      const after = { name: c.name, contactEmail: c.contactEmail, address: c.address }
+      if (before.name !== after.name)
+        await db().query('UPDATE lots SET customer_name = :name WHERE customer_id = :id', {
+          replacements: { name: c.name, id },
+          transaction,
+        })
+      await recordAudit(
+        actor,
+        {
+          action: 'customer.update',
+          entity: 'customer',
+          entityId: id,
+          ...changedFields(before, after),
+        },
+        transaction,
+      )
+      return getCustomer(id, transaction)
+    })
+  } catch (err) {
+    duplicateName(err)
+  }
+}
+
+/** The customer a lot names, or a 400 on `customerId` when there is none. */
+export async function customerForLot(
+  customerId: string,
+  transaction: Transaction,
+): Promise<Customer> {
+  const c = await Customer.findByPk(customerId, { transaction })
+  if (!c)
+    throw AppError.badRequest('customerId: no such customer', { customerId: 'no such customer' })
+  return c
+}

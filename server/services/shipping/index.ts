@@ -1,0 +1,3 @@
+// The shipping area's public face: what the routes, workers and other areas may use.
+export * from './customers'
+export * from './shipments'
