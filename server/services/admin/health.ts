@@ -4,7 +4,7 @@ import { redisConnection } from '../../redis'
 import { checkStorage } from '../../storage'
 
 const version = (
-  JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as {
+  JSON.parse(readFileSync(new URL('../../../package.json', import.meta.url), 'utf8')) as {
     version: string
   }
 ).version
