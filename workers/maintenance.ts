@@ -2,7 +2,7 @@ import { Queue, Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { logger } from '../server/logger'
 import { redisPrefix } from '../server/redis'
-import { jobLocks } from './locks'
+import { jobLocks } from '../server/queue'
 import { sweepExpiredSessions } from '../server/services/auth'
 
 /** Housekeeping that every deployment needs once, not once per API process. */

@@ -8,11 +8,15 @@ import type { RevisionDto } from '../../shared/schemas/recipes'
 import { startSmtpFake } from '../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { AuditEvent, Email, User } from '../../server/models'
-import { alertJobKey, alertsQueue, closeAlertsQueue } from '../../server/services/quality/alertQueue'
+import {
+  alertJobKey,
+  alertsQueue,
+  closeAlertsQueue,
+} from '../../server/services/quality/alertQueue'
 import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
-import { processAlertJob } from '../../workers/alerts'
-import { startMailWorker } from '../../workers/mail'
+import { processAlertJob } from '../../server/services/quality'
+import { startMailWorker } from '../../server/services/mail'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, windingRun } from './support/floor'

@@ -3,7 +3,11 @@ import { QueryTypes } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ImportDto, ImportRowDto } from '../../shared/schemas/imports'
 import { db, ImportRow } from '../../server/models'
-import { alertJobKey, alertsQueue, closeAlertsQueue } from '../../server/services/quality/alertQueue'
+import {
+  alertJobKey,
+  alertsQueue,
+  closeAlertsQueue,
+} from '../../server/services/quality/alertQueue'
 import { closeImportsQueue } from '../../server/services/imports/queue'
 import {
   checkImport,

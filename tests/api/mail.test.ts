@@ -9,7 +9,7 @@ import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/admin/audit'
-import { startMailWorker } from '../../workers/mail'
+import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.

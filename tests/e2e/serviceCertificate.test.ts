@@ -7,8 +7,8 @@ import { db, Email } from '../../server/models'
 import { closeDocumentsQueue } from '../../server/services/documents/queue'
 import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
-import { startDocumentsWorker } from '../../workers/documents'
-import { startMailWorker } from '../../workers/mail'
+import { startDocumentsWorker } from '../../server/services/documents'
+import { startMailWorker } from '../../server/services/mail'
 import { DEMO_PASSWORD, demoEmail, openPage, picturesOf, useE2eApp } from './support/setup'
 
 /** A unit of the demo shipment, and the contact e-mail of the customer it went to. */
