@@ -27,6 +27,9 @@ export default defineConfig({
           include: ['tests/unit/**/*.test.ts'],
           exclude: ['tests/unit/src/**'],
           environment: 'node',
+          // Rendering a label sheet and decoding its QR codes takes well under a second on an
+          // idle machine and over five on a loaded one: room for a busy CI machine.
+          testTimeout: 30000,
         },
       },
       {
