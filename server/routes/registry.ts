@@ -7,14 +7,14 @@ import { pathEncodingGuard, routeChecks } from '../middleware/requestChecks'
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 
 /** One API route and who may call it; the role-matrix test compares these with its own table. */
-export interface RouteRule {
+export interface RegisteredRoute {
   method: Method
   path: string
   access: Access
 }
 
 /** Every route registered through `apiRoutes`, in registration order. */
-export const routeRules: RouteRule[] = []
+export const registeredRoutes: RegisteredRoute[] = []
 
 /** Every router made by `apiRoutes`, with its mount path, so tests can find unguarded routes. */
 export const apiRouters: { base: string; router: Router }[] = []
@@ -29,7 +29,7 @@ export function apiRoutes(base: string) {
   const add =
     (method: Method) =>
     (path: string, access: Access, ...handlers: RequestHandler[]) => {
-      routeRules.push({ method, path: `/api${base}${path === '/' ? '' : path}`, access })
+      registeredRoutes.push({ method, path: `/api${base}${path === '/' ? '' : path}`, access })
       // After the guard, so a caller who may not use the route learns nothing from its checks.
       const checks = routeChecks(method, path, handlers)
       router[method](path, guard(access), ...(checks ? [checks] : []), ...handlers)
@@ -49,5 +49,5 @@ export function apiRoutes(base: string) {
  * parameter Express cannot decode is a 400 naming it (see `pathEncodingGuard`).
  */
 export function pathGuard(): RequestHandler {
-  return pathEncodingGuard(routeRules.map((r) => r.path))
+  return pathEncodingGuard(registeredRoutes.map((r) => r.path))
 }

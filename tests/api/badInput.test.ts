@@ -4,8 +4,8 @@ import type { Response } from 'supertest'
 import { unitUrl } from '../../shared/links'
 import { ROLES } from '../../shared/roles'
 import type { Role } from '../../shared/roles'
-import type { RouteRule } from '../../server/routes/registry'
-import { routeRules } from '../../server/routes/registry'
+import type { RegisteredRoute } from '../../server/routes/registry'
+import { registeredRoutes } from '../../server/routes/registry'
 import { resetSignInLimits, signedInAs, TestClient, testApp, uniqueSuffix } from './support/client'
 import { releasedTestLot } from './support/floor'
 import type { TestLot } from './support/floor'
@@ -16,7 +16,7 @@ type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 const clients = new Map<Role | 'anonymous', TestClient>()
 
 /** The client of a role that may call the route (the first role its rule lists). */
-function clientFor(rule: RouteRule): TestClient {
+function clientFor(rule: RegisteredRoute): TestClient {
   const { access } = rule
   if (access === 'public') return clients.get('anonymous')!
   return clients.get(access === 'signed_in' ? 'admin' : access[0]!)!
@@ -88,7 +88,7 @@ describe('bad input is a 4xx that names the field, and writes nothing', () => {
   })
 
   it('answers broken percent-encoding in any path parameter with a 400 naming it', async () => {
-    const withParams = routeRules.filter((r) => r.path.includes('/:'))
+    const withParams = registeredRoutes.filter((r) => r.path.includes('/:'))
     expect(withParams.length).toBeGreaterThan(60)
     const failures: string[] = []
     let sent = 0
@@ -278,11 +278,13 @@ describe('bad input is a 4xx that names the field, and writes nothing', () => {
     ]
 
     it('covers every route that takes a file', () => {
-      const multipart = routeRules.filter(
+      const multipart = registeredRoutes.filter(
         (r) => r.path.endsWith('/certificate') && r.method === 'put',
       )
       expect(multipart.map((r) => r.path)).toEqual(['/api/component-lots/:id/certificate'])
-      expect(routeRules.some((r) => r.method === 'post' && r.path === '/api/imports')).toBe(true)
+      expect(registeredRoutes.some((r) => r.method === 'post' && r.path === '/api/imports')).toBe(
+        true,
+      )
     })
 
     it('answers a form without a boundary with a 400 naming the file', async () => {

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { ROLES } from '../../shared/roles'
 import type { Role } from '../../shared/roles'
-import { apiRouters, routeRules } from '../../server/routes/registry'
+import { apiRouters, registeredRoutes } from '../../server/routes/registry'
 import { resetSignInLimits, signedInAs, TestClient, testApp } from './support/client'
 
 type Who = 'public' | 'signed_in' | readonly Role[]
@@ -199,11 +199,11 @@ describe('role matrix', () => {
   })
 
   it('has a rule in this table for every route the server registers, and no stale rows', () => {
-    expect(routeRules.map(key).sort()).toEqual(EXPECTED.map(key).sort())
+    expect(registeredRoutes.map(key).sort()).toEqual(EXPECTED.map(key).sort())
   })
 
   it('registers no route on an API router without going through the guarded registry', () => {
-    const guarded = routeRules.length
+    const guarded = registeredRoutes.length
     let layers = 0
     for (const { router } of apiRouters)
       for (const layer of router.stack as { route?: { methods: Record<string, boolean> } }[])
@@ -230,7 +230,7 @@ describe('role matrix', () => {
         for (const m of Object.keys(layer.route.methods))
           seen.push(key({ method: m, path: `/api${base}${path === '/' ? '' : path}` }))
       }
-    expect(seen.sort()).toEqual(routeRules.map(key).sort())
+    expect(seen.sort()).toEqual(registeredRoutes.map(key).sort())
     const app = testApp() as unknown as { router: { stack: Layer[] } }
     const onApp = app.router.stack.filter((l) => l.route && /^\/api\b/.test(String(l.route.path)))
     expect(onApp).toEqual([])

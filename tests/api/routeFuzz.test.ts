@@ -16,8 +16,8 @@ import * as stations from '../../shared/schemas/stations'
 import * as trace from '../../shared/schemas/trace'
 import * as users from '../../shared/schemas/users'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import type { RouteRule } from '../../server/routes/registry'
-import { routeRules } from '../../server/routes/registry'
+import type { RegisteredRoute } from '../../server/routes/registry'
+import { registeredRoutes } from '../../server/routes/registry'
 import { resetSignInLimits, signedInAs, TestClient, testApp, uniqueSuffix } from './support/client'
 import { releasedTestLot } from './support/floor'
 import type { TestLot } from './support/floor'
@@ -193,7 +193,7 @@ interface Fixtures {
 }
 
 /** Real ids for the path, from records this file made, so that the body is actually read. */
-function pathFor(rule: RouteRule, f: Fixtures): string {
+function pathFor(rule: RegisteredRoute, f: Fixtures): string {
   const step = f.draft.steps[0]!
   const byBase: Record<string, string> = {
     products: f.draft.productId,
@@ -284,7 +284,7 @@ function validBodies(f: Fixtures): Record<string, Record<string, unknown>> {
 }
 
 /** What ends a record's life goes last, so the routes before it still find it open. */
-const isFinal = (r: RouteRule) => /\/(close|obsolete|release|logout)$/.test(r.path)
+const isFinal = (r: RegisteredRoute) => /\/(close|obsolete|release|logout)$/.test(r.path)
 
 describe('every write route against arbitrary bodies', () => {
   const clients = new Map<Role | 'anonymous', TestClient>()
@@ -320,7 +320,7 @@ describe('every write route against arbitrary bodies', () => {
     'never answers 5xx; a refusal names a field and changes no row',
     { timeout: 600_000 },
     async () => {
-      const writes = routeRules.filter((r) => ['post', 'patch', 'put'].includes(r.method))
+      const writes = registeredRoutes.filter((r) => ['post', 'patch', 'put'].includes(r.method))
       const ordered = [...writes.filter((r) => !isFinal(r)), ...writes.filter(isFinal)]
       const ids = [
         f.t.lot.id,

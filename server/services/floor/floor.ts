@@ -1,7 +1,7 @@
 import { QueryTypes } from 'sequelize'
 import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../../shared/schemas/lots'
 import { componentLotRefusal } from '../../../shared/floor/componentLotRefusal'
-import { routeRefusal } from '../../../shared/floor/routeRefusal'
+import { routeRefusal } from '../../../shared/floor/routeRules'
 import { codeFromScan } from '../../../shared/links'
 import { AppError } from '../../errors'
 import { BomLine, ComponentLot, db, Lot, Part, Product, Revision, Station } from '../../models'

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { routeRefusal } from '../../../../shared/floor/routeRefusal'
-import type { RouteLot, RouteStation, RouteUnit } from '../../../../shared/floor/routeRefusal'
+import { routeRefusal } from '../../../../shared/floor/routeRules'
+import type { RouteLot, RouteStation, RouteUnit } from '../../../../shared/floor/routeRules'
 
 // Expected words: the Floor's own refusals, common practice, no source.
 const station: RouteStation = {
