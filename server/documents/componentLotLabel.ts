@@ -1,4 +1,4 @@
-import type { ComponentLotDto } from '../../shared/schemas/receiving'
+import type { ComponentLotDto } from '../../shared/schemas/componentLots'
 import { componentLotUrl } from '../../shared/links'
 import { FONT, MM, newPdf, pdfBuffer, qrPng } from './pdf'
 

@@ -5,7 +5,7 @@ import {
   ComponentLotQuery,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
-} from '../../shared/schemas/receiving'
+} from '../../shared/schemas/componentLots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'

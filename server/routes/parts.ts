@@ -1,5 +1,5 @@
 import { IdParam } from '../../shared/schemas/common'
-import { PartQuery } from '../../shared/schemas/receiving'
+import { PartQuery } from '../../shared/schemas/componentLots'
 import {
   DefectCodeInput,
   DefectCodeUpdateInput,

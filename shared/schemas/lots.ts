@@ -10,7 +10,7 @@ import type {
 } from '../lots'
 import type { StationKind } from '../stations'
 import type { BomLineDto, StepDto, WindingDto } from './recipes'
-import type { ComponentLotDto } from './receiving'
+import type { ComponentLotDto } from './componentLots'
 import { patchSchema, scanText, text } from './common'
 
 const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')

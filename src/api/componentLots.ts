@@ -5,7 +5,7 @@ import type {
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
   PageDto,
-} from '@shared/schemas/receiving'
+} from '@shared/schemas/componentLots'
 import { ApiError, json, request } from './client'
 import { toSearchParams } from './query'
 

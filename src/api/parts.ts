@@ -1,5 +1,5 @@
 import type { PartDto, PartInput } from '@shared/schemas/recipes'
-import type { PageDto, PartQuery } from '@shared/schemas/receiving'
+import type { PageDto, PartQuery } from '@shared/schemas/componentLots'
 import { json, request } from './client'
 import { toSearchParams } from './query'
 

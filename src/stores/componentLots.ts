@@ -7,7 +7,7 @@ import type {
   ComponentLotDto,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
-} from '@shared/schemas/receiving'
+} from '@shared/schemas/componentLots'
 import { componentLotsApi } from '@/api/componentLots'
 import { usePagedList } from '@/composables/usePagedList'
 

@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { PartDto, PartInput } from '@shared/schemas/recipes'
-import type { PART_SORTS } from '@shared/schemas/receiving'
+import type { PART_SORTS } from '@shared/schemas/componentLots'
 import { partsApi } from '@/api/parts'
 import { usePagedList } from '@/composables/usePagedList'
 

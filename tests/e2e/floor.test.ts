@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto, LotGridDto, UnitSummaryDto } from '../../shared/schemas/lots'
-import type { ComponentLotDto, PageDto } from '../../shared/schemas/receiving'
+import type { ComponentLotDto, PageDto } from '../../shared/schemas/componentLots'
 import type { ProductDto } from '../../shared/schemas/recipes'
 import {
   DEMO_PASSWORD,

@@ -2,7 +2,7 @@ import { Op, QueryTypes } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import { mod3736CheckCharacter } from '../../../shared/checkCharacter'
 import type { ComponentLotStatus } from '../../../shared/recipes/definitions'
-import { LOT_STATUS_MOVES } from '../../../shared/schemas/receiving'
+import { LOT_STATUS_MOVES } from '../../../shared/schemas/componentLots'
 import type {
   ComponentLotCreateInput,
   ComponentLotDto,
@@ -10,7 +10,7 @@ import type {
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
   PageDto,
-} from '../../../shared/schemas/receiving'
+} from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
 import { ComponentLot, db, Part, Upload } from '../../models'
 import { changedFields, recordAudit } from '../admin'

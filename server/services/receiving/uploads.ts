@@ -1,6 +1,6 @@
 import { fileTypeFromBuffer } from 'file-type'
 import type { Transaction } from 'sequelize'
-import type { UploadDto } from '../../../shared/schemas/receiving'
+import type { UploadDto } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
 import { Upload } from '../../models'
 import { putFile } from '../../storage'

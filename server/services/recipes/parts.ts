@@ -1,6 +1,6 @@
 import { Op, UniqueConstraintError } from 'sequelize'
 import type { PartDto, PartInput } from '../../../shared/schemas/recipes'
-import type { PageDto, PartQuery } from '../../../shared/schemas/receiving'
+import type { PageDto, PartQuery } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
 import { db, Part } from '../../models'
 import { changedFields, recordAudit } from '../admin'
