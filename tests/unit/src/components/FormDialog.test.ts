@@ -78,34 +78,25 @@ describe('FormDialog', () => {
     let finishSave = () => {}
     const saved: string[] = []
     const form = reactive({ name: 'Hipot tester' })
-    const Host = defineComponent({
-      setup() {
-        const dialog = useEditDialog<{ name: string }, string>(
-          (_target, input) =>
-            new Promise<void>((resolve) => {
-              saved.push(input)
-              finishSave = resolve
-            }),
-          () => 'Saved',
-        )
-        return { dialog }
+    const dialog = useEditDialog<{ name: string }, string>(
+      (_target, input) =>
+        new Promise<void>((resolve) => {
+          saved.push(input)
+          finishSave = resolve
+        }),
+      () => 'Saved',
+    )
+    const wrapper = mount(FormDialog, {
+      props: {
+        dialog,
+        title: 'Edit thing',
+        model: form,
+        submitLabel: 'Add thing',
+        onSubmit: () => dialog.submit(form.name),
       },
-      render() {
-        return h(
-          FormDialog,
-          {
-            dialog: this.dialog,
-            title: 'Edit thing',
-            model: form,
-            submitLabel: 'Add thing',
-            onSubmit: () => this.dialog.submit(form.name),
-          },
-          { default: () => h(ElFormItem, { label: 'Name', prop: 'name' }, () => form.name) },
-        )
-      },
+      slots: { default: () => h(ElFormItem, { label: 'Name', prop: 'name' }, () => form.name) },
+      attachTo: document.body,
     })
-    const wrapper = mount(Host, { attachTo: document.body })
-    const dialog = (wrapper.vm as unknown as { dialog: ReturnType<typeof useEditDialog> }).dialog
     expect(document.querySelector('.el-dialog')).toBeNull()
 
     dialog.open({ name: 'Hipot tester' })
