@@ -1,16 +1,9 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions } from './columns'
 
 /** One append-only row of the audit log; the database refuses UPDATE and DELETE on it. */
-export class AuditEvent extends Model<
-  InferAttributes<AuditEvent>,
-  InferCreationAttributes<AuditEvent>
-> {
+export class AuditEvent extends TableModel<AuditEvent> {
   declare id: CreationOptional<string>
   declare at: CreationOptional<Date>
   declare actorId: string | null
@@ -39,6 +32,6 @@ export function initAuditEvent(sequelize: Sequelize): void {
       ip: { type: DataTypes.STRING(64), allowNull: true },
       requestId: { type: DataTypes.STRING(64), allowNull: true },
     },
-    { sequelize, tableName: 'audit_events', underscored: true, timestamps: false },
+    tableOptions(sequelize, 'audit_events', { timestamps: false }),
   )
 }

@@ -1,17 +1,12 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { Sequelize } from 'sequelize'
+import { initRecord, RecordModel } from './columns'
 import { CHECK_KINDS } from '../../shared/recipes/definitions'
 import type { CheckKind, DerivedFormula } from '../../shared/recipes/definitions'
 import type { ChoiceOption } from '../../shared/schemas/recipes'
 import type { Unit } from '../../shared/units'
 
-export class Check extends Model<InferAttributes<Check>, InferCreationAttributes<Check>> {
-  declare id: CreationOptional<string>
+export class Check extends RecordModel<Check> {
   declare revisionId: string
   declare stepId: string
   declare position: number
@@ -26,31 +21,23 @@ export class Check extends Model<InferAttributes<Check>, InferCreationAttributes
   declare choices: ChoiceOption[] | null
   declare derived: DerivedFormula | null
   declare derivedInputs: Record<string, string> | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
 }
 
 export function initCheck(sequelize: Sequelize): void {
-  Check.init(
-    {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-      revisionId: { type: DataTypes.UUID, allowNull: false },
-      stepId: { type: DataTypes.UUID, allowNull: false },
-      position: { type: DataTypes.INTEGER, allowNull: false },
-      key: { type: DataTypes.STRING(40), allowNull: false },
-      label: { type: DataTypes.STRING(120), allowNull: false },
-      kind: { type: DataTypes.ENUM(...CHECK_KINDS), allowNull: false },
-      unit: { type: DataTypes.STRING(8), allowNull: true },
-      nominal: { type: DataTypes.DOUBLE, allowNull: true },
-      lower: { type: DataTypes.DOUBLE, allowNull: true },
-      upper: { type: DataTypes.DOUBLE, allowNull: true },
-      decimals: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 2 },
-      choices: { type: DataTypes.JSONB, allowNull: true },
-      derived: { type: DataTypes.STRING(40), allowNull: true },
-      derivedInputs: { type: DataTypes.JSONB, allowNull: true },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
-    },
-    { sequelize, tableName: 'checks', underscored: true },
-  )
+  initRecord(Check, sequelize, 'checks', {
+    revisionId: { type: DataTypes.UUID, allowNull: false },
+    stepId: { type: DataTypes.UUID, allowNull: false },
+    position: { type: DataTypes.INTEGER, allowNull: false },
+    key: { type: DataTypes.STRING(40), allowNull: false },
+    label: { type: DataTypes.STRING(120), allowNull: false },
+    kind: { type: DataTypes.ENUM(...CHECK_KINDS), allowNull: false },
+    unit: { type: DataTypes.STRING(8), allowNull: true },
+    nominal: { type: DataTypes.DOUBLE, allowNull: true },
+    lower: { type: DataTypes.DOUBLE, allowNull: true },
+    upper: { type: DataTypes.DOUBLE, allowNull: true },
+    decimals: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 2 },
+    choices: { type: DataTypes.JSONB, allowNull: true },
+    derived: { type: DataTypes.STRING(40), allowNull: true },
+    derivedInputs: { type: DataTypes.JSONB, allowNull: true },
+  })
 }

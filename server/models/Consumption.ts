@@ -1,15 +1,8 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions, uuidKey } from './columns'
 
-export class Consumption extends Model<
-  InferAttributes<Consumption>,
-  InferCreationAttributes<Consumption>
-> {
+export class Consumption extends TableModel<Consumption> {
   declare id: CreationOptional<string>
   declare unitId: string
   declare componentLotId: string
@@ -25,7 +18,7 @@ export class Consumption extends Model<
 export function initConsumption(sequelize: Sequelize): void {
   Consumption.init(
     {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      id: uuidKey(),
       unitId: { type: DataTypes.UUID, allowNull: false },
       componentLotId: { type: DataTypes.UUID, allowNull: false },
       partId: { type: DataTypes.UUID, allowNull: false },
@@ -35,6 +28,6 @@ export function initConsumption(sequelize: Sequelize): void {
       itemSerial: { type: DataTypes.STRING(80), allowNull: true },
       createdAt: DataTypes.DATE,
     },
-    { sequelize, tableName: 'consumptions', underscored: true, updatedAt: false },
+    tableOptions(sequelize, 'consumptions', { updatedAt: false }),
   )
 }

@@ -1,30 +1,17 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { initRecord, RecordModel } from './columns'
 
-export class Customer extends Model<InferAttributes<Customer>, InferCreationAttributes<Customer>> {
-  declare id: CreationOptional<string>
+export class Customer extends RecordModel<Customer> {
   declare name: string
   declare contactEmail: CreationOptional<string>
   declare address: CreationOptional<string>
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
 }
 
 export function initCustomer(sequelize: Sequelize): void {
-  Customer.init(
-    {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-      name: { type: DataTypes.STRING(120), allowNull: false },
-      contactEmail: { type: DataTypes.STRING(320), allowNull: false, defaultValue: '' },
-      address: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
-    },
-    { sequelize, tableName: 'customers', underscored: true },
-  )
+  initRecord(Customer, sequelize, 'customers', {
+    name: { type: DataTypes.STRING(120), allowNull: false },
+    contactEmail: { type: DataTypes.STRING(320), allowNull: false, defaultValue: '' },
+    address: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+  })
 }

@@ -1,15 +1,8 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions } from './columns'
 
-export class ImportMapping extends Model<
-  InferAttributes<ImportMapping>,
-  InferCreationAttributes<ImportMapping>
-> {
+export class ImportMapping extends TableModel<ImportMapping> {
   declare stationId: string
   declare serialColumn: string
   declare timeColumn: string | null
@@ -32,6 +25,6 @@ export function initImportMapping(sequelize: Sequelize): void {
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },
-    { sequelize, tableName: 'import_mappings', underscored: true },
+    tableOptions(sequelize, 'import_mappings'),
   )
 }

@@ -1,18 +1,11 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions } from './columns'
 import { IMPORT_ROW_OUTCOMES } from '../../shared/imports'
 import type { ImportRowOutcome } from '../../shared/imports'
 import type { ImportRowCheckDto } from '../../shared/schemas/imports'
 
-export class ImportRow extends Model<
-  InferAttributes<ImportRow>,
-  InferCreationAttributes<ImportRow>
-> {
+export class ImportRow extends TableModel<ImportRow> {
   declare importId: string
   declare rowNumber: number
   declare clientEventId: string
@@ -55,6 +48,6 @@ export function initImportRow(sequelize: Sequelize): void {
       outcomeMessage: { type: DataTypes.TEXT, allowNull: true, defaultValue: null },
       stepRunId: { type: DataTypes.UUID, allowNull: true, defaultValue: null },
     },
-    { sequelize, tableName: 'import_rows', underscored: true, timestamps: false },
+    tableOptions(sequelize, 'import_rows', { timestamps: false }),
   )
 }

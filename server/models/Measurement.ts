@@ -1,15 +1,8 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions } from './columns'
 
-export class Measurement extends Model<
-  InferAttributes<Measurement>,
-  InferCreationAttributes<Measurement>
-> {
+export class Measurement extends TableModel<Measurement> {
   declare id: CreationOptional<string>
   declare stepRunId: string
   declare checkId: string
@@ -32,6 +25,6 @@ export function initMeasurement(sequelize: Sequelize): void {
       isDerived: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       isPass: { type: DataTypes.BOOLEAN, allowNull: false },
     },
-    { sequelize, tableName: 'measurements', underscored: true, timestamps: false },
+    tableOptions(sequelize, 'measurements', { timestamps: false }),
   )
 }

@@ -1,17 +1,10 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions, uuidKey } from './columns'
 import { DISPOSITIONS } from '../../shared/lots'
 import type { Disposition } from '../../shared/lots'
 
-export class Nonconformance extends Model<
-  InferAttributes<Nonconformance>,
-  InferCreationAttributes<Nonconformance>
-> {
+export class Nonconformance extends TableModel<Nonconformance> {
   declare id: CreationOptional<string>
   declare unitId: string
   declare stepRunId: string
@@ -31,7 +24,7 @@ export class Nonconformance extends Model<
 export function initNonconformance(sequelize: Sequelize): void {
   Nonconformance.init(
     {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      id: uuidKey(),
       unitId: { type: DataTypes.UUID, allowNull: false },
       stepRunId: { type: DataTypes.UUID, allowNull: false },
       defectCodeId: { type: DataTypes.UUID, allowNull: true },
@@ -46,6 +39,6 @@ export function initNonconformance(sequelize: Sequelize): void {
       openedAt: { type: DataTypes.DATE, allowNull: false },
       closedAt: { type: DataTypes.DATE, allowNull: true },
     },
-    { sequelize, tableName: 'nonconformances', underscored: true, timestamps: false },
+    tableOptions(sequelize, 'nonconformances', { timestamps: false }),
   )
 }

@@ -1,11 +1,6 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  NonAttribute,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, NonAttribute, Sequelize } from 'sequelize'
+import { initRecord, RecordModel } from './columns'
 import { REVISION_STATUSES } from '../../shared/recipes/definitions'
 import type { RevisionStatus } from '../../shared/recipes/definitions'
 import type { BomLine } from './BomLine'
@@ -14,8 +9,7 @@ import type { RouteStep } from './RouteStep'
 import type { User } from './User'
 import type { Winding } from './Winding'
 
-export class Revision extends Model<InferAttributes<Revision>, InferCreationAttributes<Revision>> {
-  declare id: CreationOptional<string>
+export class Revision extends RecordModel<Revision> {
   declare productId: string
   declare letter: string
   declare status: CreationOptional<RevisionStatus>
@@ -24,8 +18,6 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
   declare copiedFromId: string | null
   declare releasedAt: Date | null
   declare releasedBy: string | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   // associations
   declare product?: NonAttribute<Product>
   declare windings?: NonAttribute<Winding[]>
@@ -35,24 +27,18 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
 }
 
 export function initRevision(sequelize: Sequelize): void {
-  Revision.init(
-    {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-      productId: { type: DataTypes.UUID, allowNull: false },
-      letter: { type: DataTypes.STRING(3), allowNull: false },
-      status: {
-        type: DataTypes.ENUM(...REVISION_STATUSES),
-        allowNull: false,
-        defaultValue: 'draft',
-      },
-      notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-      fpyThresholdPercent: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90 },
-      copiedFromId: { type: DataTypes.UUID, allowNull: true },
-      releasedAt: { type: DataTypes.DATE, allowNull: true },
-      releasedBy: { type: DataTypes.UUID, allowNull: true },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
+  initRecord(Revision, sequelize, 'revisions', {
+    productId: { type: DataTypes.UUID, allowNull: false },
+    letter: { type: DataTypes.STRING(3), allowNull: false },
+    status: {
+      type: DataTypes.ENUM(...REVISION_STATUSES),
+      allowNull: false,
+      defaultValue: 'draft',
     },
-    { sequelize, tableName: 'revisions', underscored: true },
-  )
+    notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+    fpyThresholdPercent: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90 },
+    copiedFromId: { type: DataTypes.UUID, allowNull: true },
+    releasedAt: { type: DataTypes.DATE, allowNull: true },
+    releasedBy: { type: DataTypes.UUID, allowNull: true },
+  })
 }

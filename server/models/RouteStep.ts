@@ -1,20 +1,11 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  NonAttribute,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { NonAttribute, Sequelize } from 'sequelize'
+import { initRecord, RecordModel } from './columns'
 import { STATION_KINDS } from '../../shared/stations'
 import type { StationKind } from '../../shared/stations'
 import type { Check } from './Check'
 
-export class RouteStep extends Model<
-  InferAttributes<RouteStep>,
-  InferCreationAttributes<RouteStep>
-> {
-  declare id: CreationOptional<string>
+export class RouteStep extends RecordModel<RouteStep> {
   declare revisionId: string
   declare position: number
   declare name: string
@@ -22,27 +13,19 @@ export class RouteStep extends Model<
   declare instructions: string
   declare safetyNote: string
   declare requiresSignoff: boolean
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   // associations
   declare checks?: NonAttribute<Check[]>
 }
 
 export function initRouteStep(sequelize: Sequelize): void {
-  RouteStep.init(
-    {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-      revisionId: { type: DataTypes.UUID, allowNull: false },
-      position: { type: DataTypes.INTEGER, allowNull: false },
-      name: { type: DataTypes.STRING(80), allowNull: false },
-      // The column reuses the stations' enum type, so a step names exactly a station kind.
-      stationKind: { type: DataTypes.ENUM(...STATION_KINDS), allowNull: false },
-      instructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-      safetyNote: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-      requiresSignoff: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
-    },
-    { sequelize, tableName: 'route_steps', underscored: true },
-  )
+  initRecord(RouteStep, sequelize, 'route_steps', {
+    revisionId: { type: DataTypes.UUID, allowNull: false },
+    position: { type: DataTypes.INTEGER, allowNull: false },
+    name: { type: DataTypes.STRING(80), allowNull: false },
+    // The column reuses the stations' enum type, so a step names exactly a station kind.
+    stationKind: { type: DataTypes.ENUM(...STATION_KINDS), allowNull: false },
+    instructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+    safetyNote: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+    requiresSignoff: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+  })
 }

@@ -1,12 +1,8 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions, uuidKey } from './columns'
 
-export class StepRun extends Model<InferAttributes<StepRun>, InferCreationAttributes<StepRun>> {
+export class StepRun extends TableModel<StepRun> {
   declare id: CreationOptional<string>
   declare unitId: string
   declare stepId: string
@@ -25,7 +21,7 @@ export class StepRun extends Model<InferAttributes<StepRun>, InferCreationAttrib
 export function initStepRun(sequelize: Sequelize): void {
   StepRun.init(
     {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      id: uuidKey(),
       unitId: { type: DataTypes.UUID, allowNull: false },
       stepId: { type: DataTypes.UUID, allowNull: false },
       stationId: { type: DataTypes.UUID, allowNull: false },
@@ -39,6 +35,6 @@ export function initStepRun(sequelize: Sequelize): void {
       startedAt: { type: DataTypes.DATE, allowNull: false },
       finishedAt: { type: DataTypes.DATE, allowNull: false },
     },
-    { sequelize, tableName: 'step_runs', underscored: true, timestamps: false },
+    tableOptions(sequelize, 'step_runs', { timestamps: false }),
   )
 }

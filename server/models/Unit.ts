@@ -1,18 +1,12 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  NonAttribute,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, NonAttribute, Sequelize } from 'sequelize'
+import { initRecord, RecordModel } from './columns'
 import { UNIT_STATES } from '../../shared/lots'
 import type { UnitState } from '../../shared/lots'
 import type { Lot } from './Lot'
 import type { RouteStep } from './RouteStep'
 
-export class Unit extends Model<InferAttributes<Unit>, InferCreationAttributes<Unit>> {
-  declare id: CreationOptional<string>
+export class Unit extends RecordModel<Unit> {
   declare serial: string
   declare lotId: string
   declare state: CreationOptional<UnitState>
@@ -23,30 +17,22 @@ export class Unit extends Model<InferAttributes<Unit>, InferCreationAttributes<U
   declare holdKind: 'nonconformance' | 'lot' | 'containment' | null
   declare heldFromState: UnitState | null
   declare finishedAt: Date | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   // associations
   declare lot?: NonAttribute<Lot>
   declare currentStep?: NonAttribute<RouteStep | null>
 }
 
 export function initUnit(sequelize: Sequelize): void {
-  Unit.init(
-    {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-      serial: { type: DataTypes.STRING(24), allowNull: false, unique: true },
-      lotId: { type: DataTypes.UUID, allowNull: false },
-      state: { type: DataTypes.ENUM(...UNIT_STATES), allowNull: false, defaultValue: 'queued' },
-      currentStepId: { type: DataTypes.UUID, allowNull: true },
-      reworkCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      reworkUntilPosition: { type: DataTypes.INTEGER, allowNull: true },
-      holdReason: { type: DataTypes.STRING(500), allowNull: false, defaultValue: '' },
-      holdKind: { type: DataTypes.STRING(20), allowNull: true },
-      heldFromState: { type: DataTypes.ENUM(...UNIT_STATES), allowNull: true },
-      finishedAt: { type: DataTypes.DATE, allowNull: true },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
-    },
-    { sequelize, tableName: 'units', underscored: true },
-  )
+  initRecord(Unit, sequelize, 'units', {
+    serial: { type: DataTypes.STRING(24), allowNull: false, unique: true },
+    lotId: { type: DataTypes.UUID, allowNull: false },
+    state: { type: DataTypes.ENUM(...UNIT_STATES), allowNull: false, defaultValue: 'queued' },
+    currentStepId: { type: DataTypes.UUID, allowNull: true },
+    reworkCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    reworkUntilPosition: { type: DataTypes.INTEGER, allowNull: true },
+    holdReason: { type: DataTypes.STRING(500), allowNull: false, defaultValue: '' },
+    holdKind: { type: DataTypes.STRING(20), allowNull: true },
+    heldFromState: { type: DataTypes.ENUM(...UNIT_STATES), allowNull: true },
+    finishedAt: { type: DataTypes.DATE, allowNull: true },
+  })
 }

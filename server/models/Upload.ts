@@ -1,12 +1,8 @@
-import { DataTypes, Model } from 'sequelize'
-import type {
-  CreationOptional,
-  InferAttributes,
-  InferCreationAttributes,
-  Sequelize,
-} from 'sequelize'
+import { DataTypes } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
+import { TableModel, tableOptions, uuidKey } from './columns'
 
-export class Upload extends Model<InferAttributes<Upload>, InferCreationAttributes<Upload>> {
+export class Upload extends TableModel<Upload> {
   declare id: CreationOptional<string>
   declare storageKey: string
   declare sha256: string
@@ -20,7 +16,7 @@ export class Upload extends Model<InferAttributes<Upload>, InferCreationAttribut
 export function initUpload(sequelize: Sequelize): void {
   Upload.init(
     {
-      id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+      id: uuidKey(),
       storageKey: { type: DataTypes.STRING(200), allowNull: false },
       sha256: { type: DataTypes.CHAR(64), allowNull: false, field: 'sha256' },
       filename: { type: DataTypes.STRING(200), allowNull: false },
@@ -29,6 +25,6 @@ export function initUpload(sequelize: Sequelize): void {
       uploadedBy: { type: DataTypes.UUID, allowNull: true },
       createdAt: DataTypes.DATE,
     },
-    { sequelize, tableName: 'uploads', underscored: true, updatedAt: false },
+    tableOptions(sequelize, 'uploads', { updatedAt: false }),
   )
 }

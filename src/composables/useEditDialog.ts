@@ -30,5 +30,22 @@ export function useEditDialog<T, I>(
       isOpen.value = false
   }
 
-  return reactive({ isOpen, target, isSaving, fieldErrors, open, submit })
+  function close() {
+    isOpen.value = false
+  }
+
+  return reactive({ isOpen, target, isSaving, fieldErrors, open, close, submit })
+}
+
+/**
+ * What a form dialog component takes as its one `dialog` prop: the state of `useEditDialog`,
+ * whose `target` it edits, whose `fieldErrors` it shows and whose `submit` it calls.
+ */
+export type EditDialog<T, I> = ReturnType<typeof useEditDialog<T, I>>
+
+/** The part of a dialog's state that FormDialog reads: whether it is open, and saving. */
+export interface DialogState {
+  readonly isOpen: boolean
+  readonly isSaving: boolean
+  close(): void
 }

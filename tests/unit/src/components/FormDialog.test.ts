@@ -4,6 +4,7 @@ import { ElFormItem } from 'element-plus'
 import { describe, expect, it } from 'vitest'
 import { z } from 'zod'
 import FormDialog from '@/components/FormDialog.vue'
+import { useEditDialog } from '@/composables/useEditDialog'
 import { useZodRules } from '@/composables/useZodRules'
 
 const Input = z.object({ name: z.string().trim().min(1, 'enter a name') })
@@ -70,6 +71,56 @@ describe('FormDialog', () => {
     cancel.click()
     await flushPromises()
     expect(wrapper.findComponent(FormDialog).emitted('update:modelValue')).toEqual([[false]])
+    wrapper.unmount()
+  })
+
+  it('takes open and saving from one useEditDialog state, and Cancel closes that state', async () => {
+    let finishSave = () => {}
+    const saved: string[] = []
+    const form = reactive({ name: 'Hipot tester' })
+    const dialog = useEditDialog<{ name: string }, string>(
+      (_target, input) =>
+        new Promise<void>((resolve) => {
+          saved.push(input)
+          finishSave = resolve
+        }),
+      () => 'Saved',
+    )
+    const wrapper = mount(FormDialog, {
+      props: {
+        dialog,
+        title: 'Edit thing',
+        model: form,
+        submitLabel: 'Add thing',
+        onSubmit: () => dialog.submit(form.name),
+      },
+      slots: { default: () => h(ElFormItem, { label: 'Name', prop: 'name' }, () => form.name) },
+      attachTo: document.body,
+    })
+    expect(document.querySelector('.el-dialog')).toBeNull()
+
+    dialog.open({ name: 'Hipot tester' })
+    await flushPromises()
+    expect(document.querySelector('.el-dialog__title')?.textContent).toBe('Edit thing')
+    primary().click()
+    await flushPromises()
+    expect(saved).toEqual(['Hipot tester'])
+    // The primary button spins while the dialog's save runs, and the dialog closes after it.
+    expect(primary().classList.contains('is-loading')).toBe(true)
+    finishSave()
+    await flushPromises()
+    expect(dialog.isOpen).toBe(false)
+
+    dialog.open(null)
+    await flushPromises()
+    expect(dialog.isOpen).toBe(true)
+    const cancel = [...document.querySelectorAll('.el-dialog__footer button')].find(
+      (b) => b.textContent?.trim() === 'Cancel',
+    ) as HTMLButtonElement
+    cancel.click()
+    await flushPromises()
+    expect(dialog.isOpen).toBe(false)
+    expect(saved).toEqual(['Hipot tester'])
     wrapper.unmount()
   })
 })

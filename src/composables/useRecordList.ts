@@ -1,0 +1,57 @@
+import { ref } from 'vue'
+import type { Ref } from 'vue'
+
+/** The calls of a resource whose whole list the browser keeps. */
+export interface RecordListApi<T, C, U> {
+  list(): Promise<T[]>
+  create(input: C): Promise<T>
+  update(id: string, input: U): Promise<T>
+}
+
+/**
+ * A short list held whole and sorted in the browser (stations, users, defect codes, products),
+ * for a setup store: each save puts the server's answer in its place, so no refetch is needed.
+ * @param api the resource's list, create and update calls
+ * @param sortKey the text the list is sorted by, e.g. a station's code
+ */
+export function useRecordList<T extends { id: string }, C, U>(
+  api: RecordListApi<T, C, U>,
+  sortKey: (record: T) => string,
+) {
+  /** Every record, sorted. */
+  const rows = ref([]) as Ref<T[]>
+  /** True while the list is being fetched. */
+  const isLoading = ref(false)
+  const bySortKey = (a: T, b: T) => sortKey(a).localeCompare(sortKey(b))
+
+  /** Puts a record in its place, in place of the one with its id. */
+  function put(record: T) {
+    rows.value = [...rows.value.filter((r) => r.id !== record.id), record].sort(bySortKey)
+  }
+
+  /** Fetches every record; throws ApiError, the view decides how to show it. */
+  async function fetchAll() {
+    isLoading.value = true
+    try {
+      rows.value = (await api.list()).sort(bySortKey)
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Creates a record and keeps it in the list. */
+  async function create(input: C) {
+    const record = await api.create(input)
+    put(record)
+    return record
+  }
+
+  /** Updates a record and puts the server's answer back in the list. */
+  async function update(id: string, input: U) {
+    const record = await api.update(id, input)
+    put(record)
+    return record
+  }
+
+  return { rows, isLoading, put, fetchAll, create, update }
+}
