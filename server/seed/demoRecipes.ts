@@ -1,9 +1,4 @@
-import type {
-  CheckInput,
-  PartInput,
-  StepInput,
-  WindingInput,
-} from '../../shared/schemas/recipes'
+import type { CheckInput, PartInput, StepInput, WindingInput } from '../../shared/schemas/recipes'
 import { HIGH_VOLTAGE_CAUTION } from '../../shared/safety/hipot'
 
 // The invented Ferncastle Power recipes (DESIGN.md §10). Every limit below is invented for the

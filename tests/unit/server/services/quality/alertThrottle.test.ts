@@ -1,12 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 
 const add = vi.fn(async () => undefined)
-vi.mock('../../../../server/queue', () => ({
+vi.mock('../../../../../server/queue', () => ({
   STANDARD_JOB_OPTIONS: {},
   makeProducer: () => ({ add, queue: () => null, close: async () => undefined }),
 }))
 
-const { ALERT_THROTTLE_MS, enqueueAlertCheck } = await import('../../../../server/services/quality/alertQueue')
+const { ALERT_THROTTLE_MS, enqueueAlertCheck } =
+  await import('../../../../../server/services/quality/alertQueue')
 
 describe('enqueueAlertCheck throttle', () => {
   beforeEach(() => {

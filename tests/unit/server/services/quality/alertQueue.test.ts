@@ -5,8 +5,9 @@ vi.hoisted(() => {
   process.env.REDIS_URL = 'redis://127.0.0.1:1'
 })
 
-const { logger } = await import('../../../../server/logger')
-const { closeAlertsQueue, enqueueAlertCheck } = await import('../../../../server/services/quality/alertQueue')
+const { logger } = await import('../../../../../server/logger')
+const { closeAlertsQueue, enqueueAlertCheck } =
+  await import('../../../../../server/services/quality/alertQueue')
 
 afterAll(async () => {
   await Promise.race([closeAlertsQueue(), new Promise((r) => setTimeout(r, 500))])
