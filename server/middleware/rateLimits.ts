@@ -42,13 +42,27 @@ export class RedisOrMemoryStore implements Store {
     private readonly name: string,
   ) {}
 
+  private options: Options | undefined
+  /** Whether the Redis store has loaded its scripts since it last failed. */
+  private isRedisReady = false
+
   init(options: Options): void {
-    void this.redis.init?.(options)
+    this.options = options
     this.memory.init(options)
+    // Redis may be away at start-up: the store's own init (loading its scripts) then fails, and
+    // is tried again before the next count instead of leaving the store broken until a restart.
+    void this.readyRedis().catch(() => undefined)
+  }
+
+  private async readyRedis(): Promise<void> {
+    if (this.isRedisReady) return
+    await this.redis.init?.(this.options!)
+    this.isRedisReady = true
   }
 
   private async either<T>(onRedis: () => Promise<T> | T, onMemory: () => Promise<T> | T) {
     try {
+      await this.readyRedis()
       const value = await onRedis()
       if (this.isDown) logger.info({ limiter: this.name }, 'password limits counted in redis again')
       this.isDown = false
@@ -60,6 +74,7 @@ export class RedisOrMemoryStore implements Store {
           'redis unreachable: password limits counted in this process until it returns',
         )
       this.isDown = true
+      this.isRedisReady = false
       return onMemory()
     }
   }
