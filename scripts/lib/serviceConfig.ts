@@ -68,11 +68,12 @@ export function testNames(): { db: string; redisPrefix: string; bucket: string }
     : { db: 'waymark_test', redisPrefix: 'waymark-test', bucket: 'waymark-test' }
 }
 
-function portFromEnv(name: string, fallback: number): number {
+/** A TCP port from the environment; 0 ("any free port") only where `isAnyAllowed`. */
+function portFromEnv(name: string, fallback: number, isAnyAllowed = false): number {
   const raw = process.env[name]
   if (raw === undefined || raw === '') return fallback
   const port = Number(raw)
-  if (!Number.isInteger(port) || port < 1 || port > 65535) {
+  if (!Number.isInteger(port) || port < (isAnyAllowed ? 0 : 1) || port > 65535) {
     throw new Error(`${name} must be a TCP port number, got "${raw}"`)
   }
   return port
@@ -128,7 +129,9 @@ export function serviceConfig(): ServiceConfig {
     s3Dir: join(dataDir, 's3'),
     s3PidFile: join(dataDir, 's3', 's3rver.pid'),
     s3LogFile: join(dataDir, 's3', 's3rver.log'),
-    smtpPort: portFromEnv('WAYMARK_SMTP_PORT', 2526),
+    // `npm test` sets 0: the app's in-process mail fake takes any free port, and scripts the tests
+    // run (backup, restore) must still read the rest of the configuration.
+    smtpPort: portFromEnv('WAYMARK_SMTP_PORT', 2526, true),
     smtpDir: join(dataDir, 'smtp'),
     smtpPidFile: join(dataDir, 'smtp', 'smtp-fake.pid'),
     smtpLogFile: join(dataDir, 'smtp', 'smtp-fake.log'),
