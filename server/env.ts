@@ -135,6 +135,9 @@ export type Env = ReturnType<typeof loadEnv>
 /** The parsed environment, read once at start-up (STYLE: `server/env.ts` parses process.env once). */
 export const env: Env = loadEnv()
 
+/** How long a request waits for a database connection before it answers 503 (both pools). */
+export const CONNECT_TIMEOUT_MS = 5_000
+
 /** Throws a readable error when a setting the server cannot run without is missing. */
 export function requireSetting<T>(value: T | undefined, what: string): T {
   if (value === undefined || value === '')

@@ -1,6 +1,5 @@
 import type { Transaction } from 'sequelize'
 import { SEED_ACTOR } from '../../server/seed/demo'
-import { db } from '../../server/models'
 import { createCheck } from '../../server/services/recipes'
 import { createProduct } from '../../server/services/recipes'
 import { releaseRevision } from '../../server/services/recipes'
@@ -8,6 +7,7 @@ import { createStep } from '../../server/services/recipes'
 import type { StationKind } from '../../shared/stations'
 import type { Unit } from '../../shared/units'
 import { REBUILD_YIELD_ROLLUPS } from '../../server/db/yieldRollups'
+import { execute, select, withTransaction } from '../../server/db/sql'
 
 // Seed of the yield benchmark: two released bench products with ten-step routes, then lots,
 // units, step runs and their measurements written in bulk by set-based INSERT … SELECT over
@@ -164,9 +164,9 @@ export async function seedYieldBench(opts: {
 }): Promise<BenchSeed> {
   const revisions = [await benchRevision('BY01'), await benchRevision('BY02')]
   // One transaction, so that every statement runs on the connection holding the temp tables.
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const q = (sql: string, replacements: Record<string, unknown> = {}) =>
-      db().query(sql, { replacements, raw: true, transaction })
+      execute(sql, { replacements, transaction })
     await q('SELECT setseed(0.42)')
     const running = Math.max(1, Math.round(opts.lots / 10))
     await q(
@@ -204,9 +204,10 @@ export async function seedYieldBench(opts: {
       FROM route_steps rs WHERE rs.revision_id IN (:revs)`,
       { revs: revisions },
     )
-    const [[{ operator }]] = (await q(
+    const [{ operator }] = (await select<{ operator: string }>(
       `SELECT id AS operator FROM users WHERE role = 'operator' ORDER BY email LIMIT 1`,
-    )) as unknown as [[{ operator: string }]]
+      { transaction },
+    )) as [{ operator: string }]
     // Runs: attempt 1 at every step up to the unit's last one; a failed attempt 1 at a step that
     // is not the scrap step is followed by a passing rework attempt 2.
     await q(`CREATE TEMP TABLE bench_runs ON COMMIT DROP AS
@@ -260,19 +261,22 @@ export async function seedYieldBench(opts: {
 
 /** The figures of a seeded bench database (also of one kept from an earlier run). */
 export async function seededBench(lots: number, transaction?: Transaction): Promise<BenchSeed> {
-  const q = (sql: string, replacements: Record<string, unknown> = {}) =>
-    db().query(sql, { replacements, raw: true, transaction })
-  const [[counts]] = (await q(
+  type Counts = {
+    lots: string
+    units: string
+    step_runs: string
+    measurements: string
+    sample: string
+  }
+  const [counts] = (await select<Counts>(
     `SELECT
       (SELECT count(*) FROM lots WHERE number LIKE 'B-%') AS lots,
       (SELECT count(*) FROM units) AS units,
       (SELECT count(*) FROM step_runs) AS step_runs,
       (SELECT count(*) FROM measurements) AS measurements,
       (SELECT id FROM lots WHERE number = 'B-' || lpad((:lots / 2)::text, 5, '0')) AS sample`,
-    { lots },
-  )) as unknown as [
-    [{ lots: string; units: string; step_runs: string; measurements: string; sample: string }],
-  ]
+    { replacements: { lots }, transaction },
+  )) as [Counts]
   const day = (offset: number) =>
     new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10)
   return {

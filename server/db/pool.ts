@@ -1,11 +1,10 @@
 import pg from 'pg'
-import { env, requireSetting } from '../env'
+import { CONNECT_TIMEOUT_MS, env, requireSetting } from '../env'
 import { logger } from '../logger'
 
 let pool: pg.Pool | undefined
 
-/** How long a request waits for a database connection before it answers 503 (both pools). */
-export const CONNECT_TIMEOUT_MS = 5_000
+export { CONNECT_TIMEOUT_MS }
 
 /**
  * A plain pg pool beside Sequelize's, for statements that need no ORM and no transaction of

@@ -1,7 +1,6 @@
 import { Sequelize } from 'sequelize'
-import { env, requireSetting } from '../env'
+import { CONNECT_TIMEOUT_MS, env, requireSetting } from '../env'
 import { logger } from '../logger'
-import { CONNECT_TIMEOUT_MS } from '../db/pool'
 import { AuditEvent, initAuditEvent } from './AuditEvent'
 import { BomLine, initBomLine } from './BomLine'
 import { Check, initCheck } from './Check'

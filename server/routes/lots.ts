@@ -10,13 +10,7 @@ import { LOT_STATUSES } from '../../shared/lots'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
-import { db } from '../models'
-import {
-  listLotDocuments,
-  lotPrintFilename,
-  requestDocument,
-  toDocumentDto,
-} from '../services/documents'
+import { listLotDocuments } from '../services/documents'
 import { lotGrid, listLotUnits } from '../services/lots'
 import {
   closeLot,
@@ -25,6 +19,7 @@ import {
   holdLot,
   listLots,
   releaseLot,
+  requestLotDocument,
   unholdLot,
   updateLot,
 } from '../services/lots'
@@ -70,18 +65,5 @@ lotRoutes.get('/:id/documents', read, async (req, res) => {
 })
 lotRoutes.post('/:id/documents', edit, async (req, res) => {
   const input = parse(DocumentRequestInput, req.body)
-  const lot = await getLot(id(req.params))
-  const doc = await db().transaction((t) =>
-    requestDocument(
-      {
-        kind: input.kind,
-        lotId: lot.id,
-        layout: input.layout,
-        filename: lotPrintFilename(lot.number, input.kind, input.layout),
-      },
-      actorOf(req),
-      t,
-    ),
-  )
-  res.status(201).json(toDocumentDto(doc))
+  res.status(201).json(await requestLotDocument(id(req.params), input, actorOf(req)))
 })

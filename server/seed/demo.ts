@@ -8,6 +8,7 @@ import { loadDemoLots } from './demoLots'
 import { loadDemoCustomers, loadDemoShipping } from './demoShipping'
 import { loadMiscountLot } from './demoMiscountLot'
 import { loadDemoRecipes } from './loadRecipes'
+import { withTransaction } from '../db/sql'
 
 /** The actor the audit log names for demo rows. */
 export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, requestId: null }
@@ -15,7 +16,7 @@ export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, re
 /** The demo people (one per role) and stations: what a test stack that builds its own data needs. */
 export async function loadPeopleAndFloor(): Promise<void> {
   const passwordHash = await hashPassword(DEMO_PASSWORD)
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     for (const u of DEMO_USERS) {
       const [user, isNew] = await User.findOrCreate({
         where: { email: u.email },

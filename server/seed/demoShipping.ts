@@ -1,4 +1,4 @@
-import { Customer, db, Lot, ServiceCase, Shipment, User } from '../models'
+import { Customer, Lot, ServiceCase, Shipment, User } from '../models'
 import type { Role } from '../../shared/roles'
 import type { Actor } from '../services/admin'
 import { createCustomer } from '../services/shipping'
@@ -8,6 +8,7 @@ import { requestDocument } from '../services/documents'
 import { listLotUnits } from '../services/lots'
 import { openServiceCase } from '../services/service-cases'
 import { createShipment, shipmentFilename } from '../services/shipping'
+import { withTransaction } from '../db/sql'
 
 /** The demo shop's buyers (invented), DESIGN.md §10. */
 export const DEMO_CUSTOMERS = [
@@ -45,7 +46,7 @@ async function requestAndRender(
   spec: Parameters<typeof requestDocument>[0],
   actor: Actor,
 ): Promise<string> {
-  const doc = await db().transaction((t) => requestDocument(spec, actor, t))
+  const doc = await withTransaction((t) => requestDocument(spec, actor, t))
   await renderDocument(doc.id, async () => {})
   return doc.id
 }

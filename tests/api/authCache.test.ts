@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { isAuthCacheLive } from '../../server/middleware/authCache'
+import { isAuthCacheLive } from '../../server/services/auth/authCache'
 import { db } from '../../server/models'
 import { resetSignInLimits, signedInAs, TestClient, uniqueSuffix } from './support/client'
 

@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs'
-import { db } from '../../models'
+import { execute } from '../../db/sql'
 import { redisConnection } from '../../redis'
 import { checkStorage } from '../../storage'
 
@@ -28,7 +28,7 @@ function withTimeout(p: Promise<unknown>, ms: number): Promise<PartState> {
 /** Asks each part once, each within 2 s, so a hung part reports down instead of hanging the check. */
 export async function checkHealth(): Promise<Health> {
   const [dbState, redisState, storageState] = await Promise.all([
-    withTimeout(db().query('SELECT 1'), 2000),
+    withTimeout(execute('SELECT 1'), 2000),
     withTimeout(redisConnection().ping(), 2000),
     withTimeout(checkStorage(), 2000),
   ])

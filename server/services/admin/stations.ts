@@ -5,9 +5,10 @@ import type {
   StationUpdateInput,
 } from '../../../shared/schemas/stations'
 import { AppError } from '../../errors'
-import { db, Station } from '../../models'
+import { Station } from '../../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
+import { withTransaction } from '../../db/sql'
 
 function toStationDto(s: Station): StationDto {
   return {
@@ -36,18 +37,16 @@ export async function listStations(): Promise<StationDto[]> {
 
 /** Adds a station; its code is unique. */
 export async function createStation(input: StationCreateInput, actor: Actor): Promise<StationDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const station = await Station.create(input, { transaction })
-      const dto = toStationDto(station)
-      await recordAudit(
-        actor,
-        { action: 'station.create', entity: 'station', entityId: station.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-    .catch(duplicateCode)
+  return withTransaction(async (transaction) => {
+    const station = await Station.create(input, { transaction })
+    const dto = toStationDto(station)
+    await recordAudit(
+      actor,
+      { action: 'station.create', entity: 'station', entityId: station.id, after: dto },
+      transaction,
+    )
+    return dto
+  }).catch(duplicateCode)
 }
 
 /** Changes a station's code, name, kind or active flag. */
@@ -56,20 +55,18 @@ export async function updateStation(
   input: StationUpdateInput,
   actor: Actor,
 ): Promise<StationDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const station = await Station.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-      if (!station) throw AppError.notFound(`station ${id}`)
-      const before = toStationDto(station)
-      await station.update(input, { transaction })
-      const after = toStationDto(station)
-      const { before: b, after: a } = changedFields(before, after)
-      await recordAudit(
-        actor,
-        { action: 'station.update', entity: 'station', entityId: id, before: b, after: a },
-        transaction,
-      )
-      return after
-    })
-    .catch(duplicateCode)
+  return withTransaction(async (transaction) => {
+    const station = await Station.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!station) throw AppError.notFound(`station ${id}`)
+    const before = toStationDto(station)
+    await station.update(input, { transaction })
+    const after = toStationDto(station)
+    const { before: b, after: a } = changedFields(before, after)
+    await recordAudit(
+      actor,
+      { action: 'station.update', entity: 'station', entityId: id, before: b, after: a },
+      transaction,
+    )
+    return after
+  }).catch(duplicateCode)
 }

@@ -1,12 +1,13 @@
-import { QueryTypes, UniqueConstraintError } from 'sequelize'
+import { UniqueConstraintError } from 'sequelize'
 import type { UserDto } from '../../../shared/schemas/auth'
 import type { UserAdminDto, UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users'
 import { AppError } from '../../errors'
-import { forgetUsers } from '../../middleware/authCache'
-import { db, User } from '../../models'
+import { forgetUsers } from '../auth/authCache'
+import { User } from '../../models'
 import { changedFields, recordAudit } from './audit'
 import type { Actor } from './audit'
 import { hashPassword } from '../auth'
+import { execute, withTransaction } from '../../db/sql'
 
 /** The public shape of a user (never the hash). */
 export function toUserDto(user: User): UserDto {
@@ -37,7 +38,7 @@ export async function listUsers(): Promise<UserAdminDto[]> {
 export async function createUser(input: UserCreateInput, actor: Actor): Promise<UserAdminDto> {
   const passwordHash = await hashPassword(input.password)
   try {
-    return await db().transaction(async (transaction) => {
+    return await withTransaction(async (transaction) => {
       const user = await User.create(
         { ...input, passwordHash, lastSignInAt: null },
         { transaction },
@@ -74,7 +75,7 @@ export async function updateUser(
       'you cannot deactivate yourself or drop your own admin role',
     )
   const { password, ...fields } = input
-  const updated = await db().transaction(async (transaction) => {
+  const updated = await withTransaction(async (transaction) => {
     const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!user) throw AppError.notFound(`user ${id}`)
     const before = toAdminDto(user)
@@ -99,9 +100,8 @@ export async function updateUser(
 
 /** Deletes every stored session that belongs to the user. */
 async function endSessionsOf(userId: string, transaction: import('sequelize').Transaction) {
-  await db().query(`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = :userId`, {
+  await execute(`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = :userId`, {
     replacements: { userId },
-    type: QueryTypes.DELETE,
     transaction,
   })
 }

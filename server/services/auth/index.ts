@@ -2,3 +2,5 @@
 export * from './auth'
 export * from './passwords'
 export * from './sessions'
+export { forgetUsers, isAuthCacheLive } from './authCache'
+export * from './sessionStore'

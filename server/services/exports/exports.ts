@@ -1,14 +1,14 @@
 import ExcelJS from 'exceljs'
-import { QueryTypes } from 'sequelize'
 import type { ExportFormat } from '../../../shared/schemas/exports'
 import type { CheckDto } from '../../../shared/schemas/recipes'
 import type { YieldSummaryQuery } from '../../../shared/schemas/yield'
 import { AppError } from '../../errors'
-import { db, Lot } from '../../models'
+import { Lot } from '../../models'
 import { safeText, writeCsv } from './csv'
 import { toRevisionDto } from '../recipes'
 import { loadRevision } from '../recipes'
 import { summarizeYield } from '../quality'
+import { select } from '../../db/sql'
 
 // Spreadsheet exports: a table of columns (headers carry their units) and rows of plain values,
 // written as RFC 4180 CSV (csv-stringify) or as an XLSX workbook (exceljs).
@@ -158,7 +158,7 @@ export async function lotMeasurementsExport(lotId: string): Promise<ExportTable>
   const rev = toRevisionDto(await loadRevision(lot.revisionId))
   const checks = rev.steps.flatMap((s) => s.checks.map((check) => ({ check, stepName: s.name })))
   const [runs, values] = await Promise.all([
-    db().query<RunRow>(
+    select<RunRow>(
       `SELECT sr.id, u.serial, rs.id AS step_id, rs.name AS step_name, sr.attempt, sr.is_rework,
               st.code AS station, us.name AS operator, sr.finished_at, sr.result
          FROM step_runs sr
@@ -168,15 +168,15 @@ export async function lotMeasurementsExport(lotId: string): Promise<ExportTable>
          JOIN users us ON us.id = sr.operator_id
         WHERE u.lot_id = :lotId
         ORDER BY u.serial, rs.position, sr.attempt`,
-      { replacements: { lotId }, type: QueryTypes.SELECT },
+      { replacements: { lotId } },
     ),
-    db().query<ValueRow>(
+    select<ValueRow>(
       `SELECT m.step_run_id, m.check_id, m.value_number, m.value_text, m.value_boolean
          FROM measurements m
          JOIN step_runs sr ON sr.id = m.step_run_id
          JOIN units u ON u.id = sr.unit_id
         WHERE u.lot_id = :lotId`,
-      { replacements: { lotId }, type: QueryTypes.SELECT },
+      { replacements: { lotId } },
     ),
   ])
   const byRun = new Map<string, Map<string, CellValue>>()

@@ -1,10 +1,10 @@
-import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import type { StepRunInput } from '../../../shared/schemas/lots'
 import type { LotToFit } from '../../../shared/floor/componentLotRefusal'
 import type { FittedSerial } from '../../../shared/floor/decideStepRun'
-import { BomLine, ComponentLot, Consumption, db, Part } from '../../models'
+import { BomLine, ComponentLot, Consumption, Part } from '../../models'
+import { select } from '../../db/sql'
 
 /** A component lot as the scan's decision reads it (shared/floor/componentLotRefusal.ts). */
 export function toLotToFit(lot: ComponentLot): LotToFit {
@@ -36,7 +36,7 @@ export async function serialsFittedAlready(
     return lot && itemSerial ? [{ partId: lot.partId, itemSerial }] : []
   })
   if (pairs.length === 0) return []
-  return db().query<FittedSerial>(
+  return select<FittedSerial>(
     `SELECT c.part_id AS "partId", c.item_serial AS "itemSerial", u.serial AS "unitSerial"
        FROM consumptions c JOIN units u ON u.id = c.unit_id
       WHERE (c.part_id, c.item_serial) IN
@@ -46,7 +46,6 @@ export async function serialsFittedAlready(
         partIds: pairs.map((p) => p.partId),
         serials: pairs.map((p) => p.itemSerial),
       },
-      type: QueryTypes.SELECT,
       transaction,
     },
   )

@@ -1,15 +1,15 @@
-import { QueryTypes } from 'sequelize'
 import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../../shared/schemas/lots'
 import { componentLotRefusal } from '../../../shared/floor/componentLotRefusal'
 import { routeRefusal } from '../../../shared/floor/routeRules'
 import { codeFromScan } from '../../../shared/links'
 import { AppError } from '../../errors'
-import { BomLine, ComponentLot, db, Lot, Part, Product, Revision, Station } from '../../models'
+import { BomLine, ComponentLot, Lot, Part, Product, Revision, Station } from '../../models'
 import { todayIso } from '../receiving'
 import { toLotToFit } from './consumptions'
 import { stepPlan, toStepDtoOf } from './stepPlans'
 import { findUnitByScan } from './stepRuns'
 import { unitSummary } from './unitMoves'
+import { select } from '../../db/sql'
 
 async function stationByCode(code: string): Promise<Station> {
   const station = await Station.findOne({ where: { code: code.toUpperCase() } })
@@ -76,7 +76,7 @@ export async function floorComponentLot(
 /** The last 20 step runs recorded at a station, newest first. */
 export async function recentRuns(stationCode: string): Promise<RecentRunDto[]> {
   const station = await stationByCode(stationCode)
-  const rows = await db().query<{
+  const rows = await select<{
     id: string
     serial: string
     step_name: string
@@ -88,7 +88,7 @@ export async function recentRuns(stationCode: string): Promise<RecentRunDto[]> {
     `SELECT sr.id, u.serial, s.name AS step_name, sr.result, sr.attempt, sr.finished_at, op.name AS operator_name
        FROM step_runs sr JOIN units u ON u.id = sr.unit_id JOIN route_steps s ON s.id = sr.step_id JOIN users op ON op.id = sr.operator_id
       WHERE sr.station_id = :stationId ORDER BY sr.finished_at DESC LIMIT 20`,
-    { replacements: { stationId: station.id }, type: QueryTypes.SELECT },
+    { replacements: { stationId: station.id } },
   )
   return rows.map((r) => ({
     id: r.id,

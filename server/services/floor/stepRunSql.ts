@@ -1,6 +1,6 @@
 import type { LotStatus, UnitState } from '../../../shared/lots'
 import type { StationKind } from '../../../shared/stations'
-import { namedSql } from '../../db/txSql'
+import { namedSql } from '../../db/sql'
 import type { Unit } from '../../models'
 import type { UnitMove } from '../../../shared/floor/unitAfterRun'
 

@@ -12,11 +12,8 @@ import type { StepRunInput, StepRunResultDto } from '../../../shared/schemas/lot
 import { codeFromScan } from '../../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../../shared/serials'
 import { AppError } from '../../errors'
-import { sqlPool } from '../../db/pool'
 import { coalesce } from '../../db/coalesce'
-import { isUniqueViolation, txQuery } from '../../db/txSql'
-import { retryOnConflict } from '../../db/retry'
-import { db, Nonconformance, StepRun, Unit } from '../../models'
+import { Nonconformance, StepRun, Unit } from '../../models'
 import type { ComponentLot } from '../../models'
 import type { Actor } from '../admin'
 import { enqueueAlertCheck } from '../quality'
@@ -48,6 +45,13 @@ import type {
   ScanRow,
   ScannedUnit,
 } from './stepRunSql'
+import {
+  isUniqueViolation,
+  prepared,
+  retryOnConflict,
+  txQuery,
+  withTransaction,
+} from '../../db/sql'
 
 /** The answer to a serial that names no unit: mistyped (bad check character) or unknown. */
 function noSuchUnit(serial: string): AppError {
@@ -111,10 +115,7 @@ function measurementRows(step: StepPlan, decision: StepRunDecision): Measurement
 const BATCHING = { maxInFlight: 8 }
 
 const readScan = coalesce(async (keys: ScanKey[]): Promise<(ScanRow | null)[]> => {
-  const { rows } = await sqlPool().query<ScanRow & { index: number }>({
-    ...READ_SCANS,
-    values: readScansValues(keys),
-  })
+  const rows = await prepared<ScanRow & { index: number }>(READ_SCANS, readScansValues(keys))
   const found: (ScanRow | null)[] = keys.map(() => null)
   for (const { index, ...row } of rows) found[index - 1] = row
   return found
@@ -122,10 +123,7 @@ const readScan = coalesce(async (keys: ScanKey[]): Promise<(ScanRow | null)[]> =
 
 /** Writes the runs of a batch; answers, for each, whether its unit moved (and so was written). */
 const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
-  const { rows } = await sqlPool().query<{ runId: string }>({
-    ...WRITE_RUNS,
-    values: writeRunsValues(batch),
-  })
+  const rows = await prepared<{ runId: string }>(WRITE_RUNS, writeRunsValues(batch))
   const written = new Set(rows.map((r) => r.runId))
   return batch.map((w) => written.has(w.runId))
 }, BATCHING)
@@ -348,7 +346,7 @@ async function recordLocked(
 async function recordOnce(input: StepRunInput, actor: Actor, at: Date): Promise<Recorded> {
   const out = await recordUnlocked(input, actor, at)
   if ('write' in out || 'repeatOf' in out) return out
-  return db().transaction((t) => recordLocked(input, actor, t, at, out))
+  return withTransaction((t) => recordLocked(input, actor, t, at, out))
 }
 
 /** The answer to a submission, and for a new run the lot and step it was recorded at. */

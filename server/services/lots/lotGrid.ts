@@ -1,9 +1,9 @@
-import { QueryTypes } from 'sequelize'
 import type { GridCell, UnitState } from '../../../shared/lots'
 import type { LotGridDto, StepRefDto, UnitSummaryDto } from '../../../shared/schemas/lots'
 import type { StationKind } from '../../../shared/stations'
 import { AppError } from '../../errors'
-import { db, Lot, RouteStep } from '../../models'
+import { Lot, RouteStep } from '../../models'
+import { select } from '../../db/sql'
 
 function stepRef(s: RouteStep): StepRefDto {
   return { id: s.id, name: s.name, stationKind: s.stationKind, position: s.position }
@@ -23,14 +23,14 @@ async function lotSteps(lotId: string): Promise<StepRefDto[]> {
 export async function listLotUnits(lotId: string): Promise<UnitSummaryDto[]> {
   const steps = await lotSteps(lotId)
   const byId = new Map(steps.map((s) => [s.id, s]))
-  const rows = await db().query<{
+  const rows = await select<{
     serial: string
     state: UnitState
     current_step_id: string | null
     rework_count: number
   }>(
     'SELECT serial, state, current_step_id, rework_count FROM units WHERE lot_id = :lotId ORDER BY serial',
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   return rows.map((r) => ({
     serial: r.serial,
@@ -57,7 +57,7 @@ interface CellRow {
  */
 export async function lotGrid(lotId: string): Promise<LotGridDto> {
   const steps = await lotSteps(lotId)
-  const rows = await db().query<CellRow>(
+  const rows = await select<CellRow>(
     `SELECT u.serial, u.state, u.rework_count, u.current_step_id, sr.step_id,
             count(sr.id) AS runs,
             bool_or(sr.attempt = 1 AND sr.result = 'pass') AS first_pass,
@@ -66,7 +66,7 @@ export async function lotGrid(lotId: string): Promise<LotGridDto> {
       WHERE u.lot_id = :lotId
       GROUP BY u.id, sr.step_id
       ORDER BY u.serial`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   const column = new Map(steps.map((s, i) => [s.id, i]))
   const units = new Map<string, LotGridDto['units'][number]>()
@@ -86,11 +86,11 @@ export async function lotGrid(lotId: string): Promise<LotGridDto> {
     else if (r.last_result === 'pass')
       unit.cells[i] = r.first_pass && Number(r.runs) === 1 ? 'passed_first' : 'passed_after_rework'
   }
-  const wipRows = await db().query<{ step_id: string; n: string }>(
+  const wipRows = await select<{ step_id: string; n: string }>(
     `SELECT current_step_id AS step_id, count(*) AS n FROM units
       WHERE lot_id = :lotId AND state IN ('queued', 'in_progress', 'in_rework', 'on_hold') AND current_step_id IS NOT NULL
       GROUP BY current_step_id`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   const wipByStep = new Map(wipRows.map((w) => [w.step_id, Number(w.n)]))
   const wip = steps.map((s) => ({

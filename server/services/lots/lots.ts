@@ -1,27 +1,33 @@
-import { Op, QueryTypes, UniqueConstraintError } from 'sequelize'
+import { Op, UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { FINISHED_UNIT_STATES, OPEN_UNIT_STATES } from '../../../shared/lots'
 import type { UnitState } from '../../../shared/lots'
-import type { LotCreateInput, LotDto, LotUpdateInput } from '../../../shared/schemas/lots'
+import type { z } from 'zod'
+import type {
+  DocumentDto,
+  DocumentRequestInput,
+  LotCreateInput,
+  LotDto,
+  LotUpdateInput,
+} from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
-import { db, Lot, Product, Revision, RouteStep, Unit } from '../../models'
-import { inTransaction } from '../../db/retry'
+import { Lot, Product, Revision, RouteStep, Unit } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
-import { lotPrintFilename, requestDocument } from '../documents'
+import { lotPrintFilename, requestDocument, toDocumentDto } from '../documents'
 import { customerForLot } from '../shipping'
 import { allocateSerials } from './serialAllocation'
+import { inTransaction, select, withTransaction } from '../../db/sql'
 
 const WITH_PRODUCT = [
   { model: Revision, as: 'revision', include: [{ model: Product, as: 'product' }] },
 ]
 
 async function unitCounts(lotIds: string[], transaction?: Transaction) {
-  const rows = await db().query<{ lot_id: string; state: UnitState; n: string }>(
+  const rows = await select<{ lot_id: string; state: UnitState; n: string }>(
     'SELECT lot_id, state, count(*) AS n FROM units WHERE lot_id IN (:lotIds) GROUP BY lot_id, state',
     {
       replacements: { lotIds: lotIds.length ? lotIds : [null] },
-      type: QueryTypes.SELECT,
       transaction,
     },
   )
@@ -90,7 +96,7 @@ export async function createLot(
   actor: Actor,
 ): Promise<LotDto> {
   try {
-    return await db().transaction(async (transaction) => {
+    return await withTransaction(async (transaction) => {
       const rev = await Revision.findByPk(input.revisionId, { transaction })
       if (!rev)
         throw AppError.badRequest('revisionId: no such revision', {
@@ -103,8 +109,7 @@ export async function createLot(
             revisionId: 'choose a released revision',
           },
         )
-      const [seq] = await db().query<{ n: string }>(`SELECT nextval('lot_number_seq') AS n`, {
-        type: QueryTypes.SELECT,
+      const [seq] = await select<{ n: string }>(`SELECT nextval('lot_number_seq') AS n`, {
         transaction,
       })
       const number = input.number ?? `L-${String(seq!.n).padStart(4, '0')}`
@@ -143,7 +148,7 @@ export async function createLot(
 
 /** Changes a lot while it is still planned. */
 export async function updateLot(id: string, input: LotUpdateInput, actor: Actor): Promise<LotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (lot.status !== 'planned')
       throw AppError.conflict(
@@ -179,7 +184,7 @@ export async function updateLot(id: string, input: LotUpdateInput, actor: Actor)
  * WRITE_RUNS, stepRunSql.ts): a change to the lot's statuses goes there too.
  */
 export async function releaseLot(id: string, actor: Actor, now = new Date()): Promise<LotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (lot.status !== 'planned')
       throw AppError.conflict('lot_not_planned', `lot ${lot.number} is already ${lot.status}`)
@@ -311,7 +316,7 @@ export async function unholdLot(id: string, reason: string, actor: Actor): Promi
 
 /** Closes a lot once every unit has finished its route. */
 export async function closeLot(id: string, actor: Actor): Promise<LotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (lot.status === 'planned' || lot.status === 'closed')
       throw AppError.conflict('lot_not_open', `lot ${lot.number} is ${lot.status}`)
@@ -332,4 +337,29 @@ export async function closeLot(id: string, actor: Actor): Promise<LotDto> {
     )
     return getLot(id, transaction)
   })
+}
+
+/**
+ * Asks for one of a lot's papers (travelers, labels, the lot report): the document row is made
+ * and audited in one transaction, and its rendering is queued once that commits.
+ */
+export async function requestLotDocument(
+  id: string,
+  input: z.output<typeof DocumentRequestInput>,
+  actor: Actor,
+): Promise<DocumentDto> {
+  const lot = await getLot(id)
+  const doc = await withTransaction((transaction) =>
+    requestDocument(
+      {
+        kind: input.kind,
+        lotId: lot.id,
+        layout: input.layout,
+        filename: lotPrintFilename(lot.number, input.kind, input.layout),
+      },
+      actor,
+      transaction,
+    ),
+  )
+  return toDocumentDto(doc)
 }

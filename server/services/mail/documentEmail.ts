@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { DOCUMENT_KIND_LABELS } from '../../../shared/lots'
 import type { DocumentKind } from '../../../shared/lots'
@@ -9,10 +8,11 @@ import type { EmailDto } from '../../../shared/schemas/outbox'
 import type { DocumentEmailDraftDto, DocumentEmailInput } from '../../../shared/schemas/shipping'
 import { env } from '../../env'
 import { AppError } from '../../errors'
-import { db, Document } from '../../models'
+import { Document } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { queueEmail } from './outbox'
+import { select, withTransaction } from '../../db/sql'
 
 /** "Certificate of conformance S-0007 from Ferncastle Power": what the paper is, and whose. */
 function subjectOf(doc: Document): string {
@@ -46,7 +46,7 @@ async function documentCustomer(
   doc: Document,
   transaction?: Transaction,
 ): Promise<Recipient | null> {
-  const [row] = await db().query<Recipient>(
+  const [row] = await select<Recipient>(
     `SELECT c.name, c.contact_email FROM customers c WHERE c.id = COALESCE(
        (SELECT s.customer_id FROM shipments s WHERE s.id = :shipmentId),
        (SELECT s.customer_id FROM shipment_units su JOIN shipments s ON s.id = su.shipment_id
@@ -55,7 +55,6 @@ async function documentCustomer(
          (SELECT u.lot_id FROM units u WHERE u.id = :unitId))))`,
     {
       replacements: { shipmentId: doc.shipmentId, unitId: doc.unitId, lotId: doc.lotId },
-      type: QueryTypes.SELECT,
       transaction,
     },
   )
@@ -121,7 +120,7 @@ export async function emailDocument(
   input: DocumentEmailInput,
   actor: Actor & { role: Role },
 ): Promise<EmailDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const doc = await finishedDocument(id, transaction)
     checkRole(doc, actor.role)
     const customer = await documentCustomer(doc, transaction)

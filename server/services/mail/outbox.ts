@@ -8,11 +8,12 @@ import type {
 } from '../../../shared/schemas/outbox'
 import { env } from '../../env'
 import { AppError } from '../../errors'
-import { db, Email } from '../../models'
+import { Email } from '../../models'
 import { enqueueMail } from './queue'
 import { putFile } from '../../storage'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { withTransaction } from '../../db/sql'
 
 /** An attachment to send: new bytes, or a file already in the object store (a document). */
 export type OutgoingAttachment =
@@ -222,7 +223,7 @@ export async function updateDraft(
   input: { subject?: string; text?: string },
   actor: Actor,
 ): Promise<EmailDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const email = await lockDraft(id, transaction)
     const before = { subject: email.subject, text: email.textBody }
     await email.update(
@@ -245,7 +246,7 @@ export async function updateDraft(
 
 /** Sends a reviewed draft: it becomes `queued` and its job is enqueued once that commits. */
 export async function sendDraft(id: string, actor: Actor): Promise<EmailDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const email = await lockDraft(id, transaction)
     await email.update({ status: 'queued' }, { transaction })
     await recordAudit(

@@ -1,5 +1,4 @@
 import { randomUUID } from 'node:crypto'
-import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import {
   alertEmailSubject,
@@ -20,10 +19,11 @@ import type { AlertDto, AlertQuery } from '../../../shared/schemas/alerts'
 import { env } from '../../env'
 import { AppError } from '../../errors'
 import { logger } from '../../logger'
-import { Alert, Check, db, Lot, Revision, RouteStep, User } from '../../models'
+import { Alert, Check, Lot, Revision, RouteStep, User } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { queueEmail } from '../mail'
+import { select, withTransaction } from '../../db/sql'
 
 /** Who raises alerts and sends their e-mails in the audit log: the alerts worker, no person. */
 export const ALERTS_ACTOR: Actor = { id: null, email: 'alerts-worker@waymark' }
@@ -42,12 +42,12 @@ interface Candidate {
 }
 
 async function stepFirstAttempts(lotId: string, stepId: string) {
-  const [row] = await db().query<{ first_attempts: string; passed_first: string }>(
+  const [row] = await select<{ first_attempts: string; passed_first: string }>(
     `SELECT count(*) FILTER (WHERE sr.attempt = 1) AS first_attempts,
             count(*) FILTER (WHERE sr.attempt = 1 AND sr.result = 'pass') AS passed_first
        FROM step_runs sr JOIN units u ON u.id = sr.unit_id
       WHERE u.lot_id = :lotId AND sr.step_id = :stepId`,
-    { replacements: { lotId, stepId }, type: QueryTypes.SELECT },
+    { replacements: { lotId, stepId } },
   )
   return {
     firstAttempts: Number(row?.first_attempts ?? 0),
@@ -66,7 +66,7 @@ async function checkSeries(
 ): Promise<Map<string, ChartPoint[]>> {
   const series = new Map<string, ChartPoint[]>(checkIds.map((id) => [id, []]))
   if (!checkIds.length) return series
-  const rows = await db().query<{ check_id: string; serial: string; value: number }>(
+  const rows = await select<{ check_id: string; serial: string; value: number }>(
     `SELECT m.check_id, u.serial, m.value_number AS value
        FROM step_runs sr
        JOIN units u ON u.id = sr.unit_id
@@ -74,7 +74,7 @@ async function checkSeries(
       WHERE u.lot_id = :lotId AND sr.step_id = :stepId AND m.check_id IN (:checkIds)
         AND m.value_number IS NOT NULL
       ORDER BY sr.finished_at, sr.id`,
-    { replacements: { lotId, stepId, checkIds }, type: QueryTypes.SELECT },
+    { replacements: { lotId, stepId, checkIds } },
   )
   for (const r of rows) series.get(r.check_id)?.push({ serial: r.serial, value: Number(r.value) })
   return series
@@ -128,7 +128,7 @@ async function raise(
   c: Candidate,
   transaction: Transaction,
 ): Promise<boolean> {
-  const inserted = await db().query<{ id: string }>(
+  const inserted = await select<{ id: string }>(
     `INSERT INTO alerts (id, lot_id, step_id, rule, check_id, details, status, created_at, updated_at)
      VALUES (:id, :lotId, :stepId, :rule, :checkId, CAST(:details AS jsonb), 'open', now(), now())
      ON CONFLICT ON CONSTRAINT alerts_once DO NOTHING
@@ -142,7 +142,6 @@ async function raise(
         checkId: c.checkId,
         details: JSON.stringify(c.details),
       },
-      type: QueryTypes.SELECT,
       transaction,
     },
   )
@@ -195,18 +194,18 @@ export async function evaluateLotStep(lotId: string, stepId: string): Promise<nu
   if (step.revisionId !== revision.id) return 0
   let raised = 0
   for (const c of await candidates(lot, step, revision))
-    if (await db().transaction((t) => raise(lot, step, c, t))) raised++
+    if (await withTransaction((t) => raise(lot, step, c, t))) raised++
   if (raised) logger.info({ lot: lot.number, step: step.name, raised }, 'quality alerts raised')
   return raised
 }
 
 /** Lots and steps with a step run finished since `since`: what the worker's sweep re-checks. */
 export async function lotStepsRunSince(since: Date): Promise<{ lotId: string; stepId: string }[]> {
-  return db().query<{ lotId: string; stepId: string }>(
+  return select<{ lotId: string; stepId: string }>(
     `SELECT DISTINCT u.lot_id AS "lotId", sr.step_id AS "stepId"
        FROM step_runs sr JOIN units u ON u.id = sr.unit_id
       WHERE sr.finished_at >= :since`,
-    { replacements: { since }, type: QueryTypes.SELECT },
+    { replacements: { since } },
   )
 }
 
@@ -274,20 +273,19 @@ export async function listAlerts(q: AlertQuery): Promise<AlertDto[]> {
   const where = ['TRUE']
   if (q.lotId) where.push('a.lot_id = :lotId')
   if (q.status) where.push('a.status = :status')
-  const rows = await db().query<AlertRow>(
+  const rows = await select<AlertRow>(
     `${SELECT_ALERT}
       WHERE ${where.join(' AND ')}
       ORDER BY a.status = 'open' DESC, a.created_at DESC, a.id
       LIMIT 200`,
-    { replacements: { ...q }, type: QueryTypes.SELECT },
+    { replacements: { ...q } },
   )
   return rows.map(toDto)
 }
 
 async function alertDto(id: string, transaction?: Transaction): Promise<AlertDto> {
-  const [row] = await db().query<AlertRow>(`${SELECT_ALERT} WHERE a.id = :id`, {
+  const [row] = await select<AlertRow>(`${SELECT_ALERT} WHERE a.id = :id`, {
     replacements: { id },
-    type: QueryTypes.SELECT,
     transaction,
   })
   if (!row) throw AppError.notFound(`alert ${id}`)
@@ -296,7 +294,7 @@ async function alertDto(id: string, transaction?: Transaction): Promise<AlertDto
 
 /** A lead acknowledges an open alert; acknowledging one twice is a 409 naming who did it first. */
 export async function acknowledgeAlert(id: string, actor: Actor): Promise<AlertDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const alert = await Alert.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!alert) throw AppError.notFound(`alert ${id}`)
     if (alert.status === 'acknowledged') {

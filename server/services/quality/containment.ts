@@ -1,4 +1,4 @@
-import { Op, QueryTypes } from 'sequelize'
+import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import type { UnitState } from '../../../shared/lots'
@@ -10,13 +10,14 @@ import type {
   EndContainmentResultDto,
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
-import { ComponentLot, db, Lot, RouteStep, Unit } from '../../models'
+import { ComponentLot, Lot, RouteStep, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { containedUnitIds, moveComponentLotStatus } from '../receiving'
 import { verifyCountersign } from '../floor'
 import { findComponentLot, recallScope } from '../trace'
 import { reworkTarget, scrapUnit, sendToRework, unitSummary } from '../floor'
+import { select, withTransaction } from '../../db/sql'
 
 // A containment (recall.ts) holds every unit still in the shop that holds a suspect component
 // lot and quarantines the lot. It ends when the investigation has an answer: the lot is cleared
@@ -32,7 +33,7 @@ interface FittedLot {
 
 /** The component lots fitted in a unit, with the step each was fitted at, in route order. */
 async function fittedLots(unitId: string, transaction: Transaction): Promise<FittedLot[]> {
-  return db().query<FittedLot>(
+  return select<FittedLot>(
     `SELECT DISTINCT ON (cl.internal_code)
             cl.internal_code AS code, cl.status, rs.id AS "stepId", rs.name AS "stepName",
             rs.position
@@ -42,7 +43,7 @@ async function fittedLots(unitId: string, transaction: Transaction): Promise<Fit
        JOIN route_steps rs ON rs.id = sr.step_id
       WHERE co.unit_id = :unitId
       ORDER BY cl.internal_code, rs.position`,
-    { replacements: { unitId }, type: QueryTypes.SELECT, transaction },
+    { replacements: { unitId }, transaction },
   )
 }
 
@@ -56,12 +57,12 @@ async function otherQuarantinedLots(
   transaction: Transaction,
 ): Promise<Map<string, string[]>> {
   if (!unitIds.length) return new Map()
-  const rows = await db().query<{ unit_id: string; codes: string[] }>(
+  const rows = await select<{ unit_id: string; codes: string[] }>(
     `SELECT co.unit_id, array_agg(DISTINCT cl.internal_code ORDER BY cl.internal_code) AS codes
        FROM consumptions co JOIN component_lots cl ON cl.id = co.component_lot_id
       WHERE co.unit_id IN (:unitIds) AND cl.status = 'quarantined' AND cl.id <> :exceptLotId
       GROUP BY co.unit_id`,
-    { replacements: { unitIds, exceptLotId }, type: QueryTypes.SELECT, transaction },
+    { replacements: { unitIds, exceptLotId }, transaction },
   )
   return new Map(rows.map((r) => [r.unit_id, r.codes]))
 }
@@ -87,7 +88,7 @@ export async function endContainment(
   input: EndContainmentInput,
   actor: Actor,
 ): Promise<EndContainmentResultDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const found = await findComponentLot(scanned, transaction)
     const lot = (await ComponentLot.findByPk(found.id, {
       transaction,
@@ -219,7 +220,7 @@ async function containedUnitOf(
 
 /** A unit held by a containment, with the decisions open to a lead. */
 export async function containedUnit(scanned: string): Promise<ContainedUnitDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     return (await containedUnitOf(scanned, transaction, false)).dto
   })
 }
@@ -235,7 +236,7 @@ export async function decideContainedUnit(
   input: ContainedUnitDecisionInput,
   actor: Actor & { role: string },
 ): Promise<UnitSummaryDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const { unit, dto, revisionId, maxPosition } = await containedUnitOf(scanned, transaction, true)
     if (dto.stillContainedBy.length)
       throw AppError.conflict(

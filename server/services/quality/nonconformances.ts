@@ -1,11 +1,11 @@
-import { QueryTypes } from 'sequelize'
 import type { DispositionInput, NonconformanceDto } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
-import { db, Lot, Nonconformance, RouteStep, StepRun, Unit } from '../../models'
+import { Lot, Nonconformance, RouteStep, StepRun, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { verifyCountersign } from '../floor'
 import { reworkTarget, scrapUnit, sendToRework, stepAfter } from '../floor'
+import { select, withTransaction } from '../../db/sql'
 
 // A failed scan opens its nonconformance in the scan's batched write (`opened` in WRITE_RUNS,
 // stepRunSql.ts), with the defect code and failed check keys decideStepRun chose; a change to
@@ -87,17 +87,16 @@ export async function listNonconformances(q: {
   if (q.serial) where.push('u.serial = :serial')
   if (q.status === 'open') where.push('nc.closed_at IS NULL')
   if (q.status === 'closed') where.push('nc.closed_at IS NOT NULL')
-  const rows = await db().query<NcRow>(
+  const rows = await select<NcRow>(
     `${SELECT_NC} WHERE ${where.join(' AND ')} ORDER BY nc.opened_at`,
-    { replacements: q, type: QueryTypes.SELECT },
+    { replacements: q },
   )
   return rows.map(toDto)
 }
 
 async function getNonconformance(id: string): Promise<NonconformanceDto> {
-  const [row] = await db().query<NcRow>(`${SELECT_NC} WHERE nc.id = :id`, {
+  const [row] = await select<NcRow>(`${SELECT_NC} WHERE nc.id = :id`, {
     replacements: { id },
-    type: QueryTypes.SELECT,
   })
   if (!row) throw AppError.notFound(`nonconformance ${id}`)
   return toDto(row)
@@ -113,7 +112,7 @@ export async function disposeNonconformance(
   input: DispositionInput,
   actor: Actor & { role: string },
 ): Promise<NonconformanceDto> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const nc = await Nonconformance.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!nc) throw AppError.notFound(`nonconformance ${id}`)
     if (nc.closedAt)

@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import { capability } from '../../../shared/quality/spc'
 import {
   deviationChart,
@@ -17,8 +16,8 @@ import type {
 import { fromSi, toSi } from '../../../shared/units'
 import type { Unit as UnitSymbol } from '../../../shared/units'
 import { AppError } from '../../errors'
-import { db } from '../../models'
 import { turnSummary } from './turnSummary'
+import { select } from '../../db/sql'
 
 // Turn-count deviation of a lot (issue #5 point 3). Self-contained: the lot report PDF calls
 // `lotTurnDeviation` too. Per winding, one SQL query returns one row per winding run (one per
@@ -157,14 +156,14 @@ async function windingRuns(lotId: string, w: WindingMeta, c: WindingChecks) {
     medianMinRuns: MEDIAN_MIN_RUNS,
   }
   const [runs, groups] = await Promise.all([
-    db().query<RunRow>(
+    select<RunRow>(
       `${RUNS_CTE}
        SELECT step_run_id, serial, attempt, finished_at, station_code, operator_name,
               inductance, ratio_turns, median_l, ratio_suspect, median_suspect
          FROM judged ORDER BY finished_at, serial, attempt`,
-      { replacements, type: QueryTypes.SELECT },
+      { replacements },
     ),
-    db().query<GroupRow>(
+    select<GroupRow>(
       `${RUNS_CTE}
        SELECT station_code, operator_name, count(*) AS runs,
               count(*) FILTER (WHERE ratio_suspect OR median_suspect) AS suspects,
@@ -172,7 +171,7 @@ async function windingRuns(lotId: string, w: WindingMeta, c: WindingChecks) {
          FROM judged
         GROUP BY GROUPING SETS ((station_code), (operator_name))
         ORDER BY station_code, operator_name`,
-      { replacements, type: QueryTypes.SELECT },
+      { replacements },
     ),
   ])
   return { runs, groups }
@@ -299,7 +298,7 @@ async function windingTurns(
  * @param lotId the lot's id; a 404 AppError when there is no such lot
  */
 export async function lotTurnDeviation(lotId: string): Promise<LotTurnDeviationDto> {
-  const [lot] = await db().query<{
+  const [lot] = await select<{
     number: string
     revision_id: string
     product_code: string
@@ -308,22 +307,22 @@ export async function lotTurnDeviation(lotId: string): Promise<LotTurnDeviationD
     `SELECT l.number, l.revision_id, p.code AS product_code, r.letter
        FROM lots l JOIN revisions r ON r.id = l.revision_id JOIN products p ON p.id = r.product_id
       WHERE l.id = :lotId`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   if (!lot) throw AppError.notFound(`lot ${lotId}`)
   const replacements = { revisionId: lot.revision_id }
   const [windings, checks] = await Promise.all([
-    db().query<WindingMeta>(
+    select<WindingMeta>(
       `SELECT id, name, nominal_turns AS "nominalTurns", al_nano_henry AS "alNanoHenry",
               al_tolerance_percent AS "alTolerancePercent"
          FROM windings WHERE revision_id = :revisionId ORDER BY position`,
-      { replacements, type: QueryTypes.SELECT },
+      { replacements },
     ),
-    db().query<CheckMeta>(
+    select<CheckMeta>(
       `SELECT id, key, label, unit, lower, upper, nominal, step_id AS "stepId", derived,
               derived_inputs AS inputs
          FROM checks WHERE revision_id = :revisionId AND kind = 'numeric'`,
-      { replacements, type: QueryTypes.SELECT },
+      { replacements },
     ),
   ])
   const linked = windingChecks(windings, checks)

@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import { pChart } from '../../../shared/quality/spc'
 import type {
   LotDailyFailuresDto,
@@ -8,8 +7,9 @@ import type {
 } from '../../../shared/schemas/yield'
 import type { StationKind } from '../../../shared/stations'
 import { AppError } from '../../errors'
-import { Lot, db } from '../../models'
+import { Lot } from '../../models'
 import { lotStepTotals } from './yieldQueries'
+import { select } from '../../db/sql'
 
 // The Yield board's lot detail beyond the step FPYs of `getLotYield`: the Pareto of defect
 // codes, WIP per station and the p-chart of daily first-pass failures. Every figure is a SQL
@@ -24,7 +24,7 @@ interface ParetoRow {
 
 /** Failed step runs of the lot per defect code, most frequent first, with the cumulative share. */
 export async function lotPareto(lotId: string): Promise<ParetoBarDto[]> {
-  const rows = await db().query<ParetoRow>(
+  const rows = await select<ParetoRow>(
     `SELECT dc.id AS defect_code_id, dc.code, dc.description, count(*) AS count
        FROM units u
        JOIN step_runs sr ON sr.unit_id = u.id AND sr.result = 'fail'
@@ -33,7 +33,7 @@ export async function lotPareto(lotId: string): Promise<ParetoBarDto[]> {
       WHERE u.lot_id = :lotId
       GROUP BY dc.id, dc.code, dc.description
       ORDER BY count(*) DESC, dc.code NULLS LAST`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   const total = rows.reduce((n, r) => n + Number(r.count), 0)
   let running = 0
@@ -51,14 +51,14 @@ export async function lotPareto(lotId: string): Promise<ParetoBarDto[]> {
 
 /** First attempts and failed first attempts of the lot per UTC day, with p-chart limits. */
 export async function lotDailyFailures(lotId: string): Promise<LotDailyFailuresDto> {
-  const rows = await db().query<{ day: string; first_attempts: string; failed: string }>(
+  const rows = await select<{ day: string; first_attempts: string; failed: string }>(
     `SELECT to_char(sr.finished_at AT TIME ZONE 'UTC', 'YYYY-MM-DD') AS day,
             count(*) AS first_attempts,
             count(*) FILTER (WHERE sr.result = 'fail') AS failed
        FROM units u JOIN step_runs sr ON sr.unit_id = u.id AND sr.attempt = 1
       WHERE u.lot_id = :lotId
       GROUP BY 1 ORDER BY 1`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   if (!rows.length) return { lotId, center: null, days: [] }
   const samples = rows.map((r) => ({ defective: Number(r.failed), size: Number(r.first_attempts) }))
@@ -79,9 +79,9 @@ export async function lotDailyFailures(lotId: string): Promise<LotDailyFailuresD
 export async function lotStationWip(lotId: string): Promise<StationWipDto[]> {
   const [steps, stations] = await Promise.all([
     lotStepTotals([lotId]),
-    db().query<{ kind: StationKind; codes: string[] }>(
+    select<{ kind: StationKind; codes: string[] }>(
       'SELECT kind, array_agg(code ORDER BY code) AS codes FROM stations GROUP BY kind',
-      { type: QueryTypes.SELECT },
+      {},
     ),
   ])
   const codes = new Map(stations.map((s) => [s.kind, s.codes]))

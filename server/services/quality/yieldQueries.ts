@@ -1,8 +1,7 @@
-import { QueryTypes } from 'sequelize'
 import { FINISHED_UNIT_STATES, OPEN_UNIT_STATES, PASSED_UNIT_STATES } from '../../../shared/lots'
 import type { StationKind } from '../../../shared/stations'
 import type { StepYieldDto } from '../../../shared/schemas/yield'
-import { db } from '../../models'
+import { execute, select } from '../../db/sql'
 
 // Yield figures (DESIGN.md §7) aggregated in SQL over step_runs and units: each query returns a
 // row per lot, or per lot and route step, never every step run. `yield.ts` assembles the DTOs.
@@ -54,7 +53,7 @@ export async function lotUnitTotals(
   lotIds: readonly string[],
 ): Promise<Map<string, LotUnitTotals>> {
   if (!lotIds.length) return new Map()
-  const rows = await db().query<UnitTotalsRow>(
+  const rows = await select<UnitTotalsRow>(
     // The per-unit counts are kept by the scan's statement (stepRuns.ts): runs at distinct steps
     // are first attempts; a clean unit has no fail and no attempt after a first.
     // MATERIALIZED: inlined, the route's step count became a sub-query per unit (67 ms → 14 ms
@@ -79,7 +78,7 @@ export async function lotUnitTotals(
        FROM units u JOIN route ON route.id = u.lot_id
       WHERE u.lot_id IN (:lotIds)
       GROUP BY u.lot_id, route.n, route.kept_runs`,
-    { replacements: { lotIds, ...STATES }, type: QueryTypes.SELECT },
+    { replacements: { lotIds, ...STATES } },
   )
   return new Map(
     rows.map((r) => [
@@ -130,7 +129,7 @@ export async function lotStepTotals(
   const kept = lotIds.filter((id) => units?.get(id)?.isKeptCurrent)
   const keptSet = new Set(kept)
   const counted = lotIds.filter((id) => !keptSet.has(id))
-  const rows = await db().query<StepRow>(
+  const rows = await select<StepRow>(
     `SELECT l.id AS lot_id, rs.revision_id, rs.id AS step_id, rs.name, rs.position, rs.station_kind,
             a.first_attempts, a.passed_first, a.runs, w.wip
        FROM lots l
@@ -157,7 +156,6 @@ export async function lotStepTotals(
       ORDER BY l.id, rs.position`,
     {
       replacements: { lotIds, kept: orNone(kept), counted: orNone(counted), open: STATES.open },
-      type: QueryTypes.SELECT,
     },
   )
   const runsCounted = new Map<string, number>()
@@ -195,7 +193,7 @@ async function keepSettledLots(
       rows.push({ lotId, stepId: s.stepId, first: s.firstAttempts, passed: s.passedFirst, runs })
   }
   if (!rows.length) return
-  await db().query(
+  await execute(
     `INSERT INTO lot_step_yields (lot_id, step_id, first_attempts, passed_first, runs)
      SELECT * FROM unnest(CAST(:lotIds AS uuid[]), CAST(:stepIds AS uuid[]),
                           CAST(:firsts AS int[]), CAST(:passes AS int[]), CAST(:runs AS int[]))
@@ -239,14 +237,14 @@ export async function lotsRunInPeriod(filter: {
   ]
   if (filter.productId) where.push('r.product_id = :productId')
   if (filter.revisionId) where.push('r.id = :revisionId')
-  return db().query<PeriodLot>(
+  return select<PeriodLot>(
     `SELECT l.id AS "lotId", l.number, p.code AS "productCode", r.letter AS "revisionLetter"
        FROM lots l
        JOIN revisions r ON r.id = l.revision_id
        JOIN products p ON p.id = r.product_id
       WHERE ${where.join(' AND ')}
       ORDER BY l.created_at DESC, l.number`,
-    { replacements: { ...filter }, type: QueryTypes.SELECT },
+    { replacements: { ...filter } },
   )
 }
 
@@ -254,12 +252,12 @@ export async function lotsRunInPeriod(filter: {
 export async function lotFieldReturns(lotIds: readonly string[]): Promise<Map<string, number>> {
   if (!lotIds.length) return new Map()
   // service_cases_unit_idx and units_lot_idx serve the join; one row per lot comes back.
-  const rows = await db().query<{ lot_id: string; n: string }>(
+  const rows = await select<{ lot_id: string; n: string }>(
     `SELECT u.lot_id, count(*) AS n
        FROM service_cases sc JOIN units u ON u.id = sc.unit_id
       WHERE u.lot_id IN (:lotIds)
       GROUP BY u.lot_id`,
-    { replacements: { lotIds }, type: QueryTypes.SELECT },
+    { replacements: { lotIds } },
   )
   return new Map(rows.map((r) => [r.lot_id, Number(r.n)]))
 }

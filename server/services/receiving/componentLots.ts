@@ -1,4 +1,4 @@
-import { Op, QueryTypes } from 'sequelize'
+import { Op } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import { mod3736CheckCharacter } from '../../../shared/checkCharacter'
 import type { ComponentLotStatus } from '../../../shared/recipes/definitions'
@@ -12,10 +12,11 @@ import type {
   PageDto,
 } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
-import { ComponentLot, db, Part, Upload } from '../../models'
+import { ComponentLot, Part, Upload } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { CERTIFICATE_MAX_BYTES, CERTIFICATE_TYPES, storeUpload, toUploadDto } from './uploads'
+import { select, withTransaction } from '../../db/sql'
 
 /** Today's date as YYYY-MM-DD (UTC), the day against which expiry dates are judged. */
 export function todayIso(now = new Date()): string {
@@ -64,8 +65,7 @@ async function loadLot(id: string, transaction?: Transaction, lock = false): Pro
  * sequence (never handed out twice), the check character is ISO/IEC 7064 MOD 37,36.
  */
 async function nextInternalCode(receivedOn: string, transaction: Transaction): Promise<string> {
-  const [row] = await db().query<{ n: string }>(`SELECT nextval('component_lot_code_seq') AS n`, {
-    type: QueryTypes.SELECT,
+  const [row] = await select<{ n: string }>(`SELECT nextval('component_lot_code_seq') AS n`, {
     transaction,
   })
   const body = `CL-${receivedOn.slice(2, 4)}-${String(row!.n).padStart(5, '0')}`
@@ -114,7 +114,7 @@ export async function receiveComponentLot(
   input: ComponentLotCreateInput,
   actor: Actor,
 ): Promise<ComponentLotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const part = await Part.findByPk(input.partId, { transaction })
     if (!part) throw AppError.badRequest('partId: no such part', { partId: 'no such part' })
     if (input.expiresOn && !part.hasExpiry)
@@ -150,7 +150,7 @@ export async function updateComponentLot(
   input: ComponentLotUpdateInput,
   actor: Actor,
 ): Promise<ComponentLotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const lot = await loadLot(id, transaction, true)
     const before = toComponentLotDto(lot)
     if (input.quantityRemaining !== undefined && input.quantityRemaining > lot.quantityReceived)
@@ -186,7 +186,7 @@ export async function setComponentLotStatus(
   input: ComponentLotStatusInput,
   actor: Actor,
 ): Promise<ComponentLotDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     // A contained lot leaves quarantine only when its containment ends (containment.ts), which
     // also decides its units.
     const lot = await ComponentLot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
@@ -205,12 +205,12 @@ export async function containedUnitIds(
   componentLotId: string,
   transaction?: Transaction,
 ): Promise<string[]> {
-  const rows = await db().query<{ id: string }>(
+  const rows = await select<{ id: string }>(
     `SELECT DISTINCT u.id
        FROM consumptions co JOIN units u ON u.id = co.unit_id
       WHERE co.component_lot_id = :componentLotId
         AND u.state = 'on_hold' AND u.hold_kind = 'containment'`,
-    { replacements: { componentLotId }, type: QueryTypes.SELECT, transaction },
+    { replacements: { componentLotId }, transaction },
   )
   return rows.map((r) => r.id)
 }
@@ -258,7 +258,7 @@ export async function attachCertificate(
 ): Promise<ComponentLotDto> {
   if (file.buffer.length > CERTIFICATE_MAX_BYTES)
     throw AppError.tooLarge('file: the certificate is over 10 MB')
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const lot = await loadLot(id, transaction, true)
     const upload = await storeUpload(file, CERTIFICATE_TYPES, 'certificates', actor.id, transaction)
     const before = lot.certificate ? toUploadDto(lot.certificate) : null

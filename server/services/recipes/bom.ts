@@ -1,11 +1,12 @@
 import type { Transaction } from 'sequelize'
 import type { BomLineDto, BomLineInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { BomLine, db, Part, RouteStep } from '../../models'
+import { BomLine, Part, RouteStep } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { toBomLineDto } from './recipePresenters'
 import { lockDraftRevision } from './revisionAccess'
+import { withTransaction } from '../../db/sql'
 
 async function withPart(line: BomLine, transaction: Transaction): Promise<BomLineDto> {
   line.part = (await Part.findByPk(line.partId, { transaction })) ?? undefined
@@ -45,7 +46,7 @@ export async function createBomLine(
   input: BomLineInput,
   actor: Actor,
 ): Promise<BomLineDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     await lockDraftRevision(revisionId, transaction)
     await checkRefs(revisionId, input, transaction)
     const position = (await BomLine.count({ where: { revisionId }, transaction })) + 1
@@ -78,7 +79,7 @@ export async function updateBomLine(
   input: Partial<BomLineInput>,
   actor: Actor,
 ): Promise<BomLineDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const line = await editableLine(id, transaction)
     await checkRefs(line.revisionId, input, transaction)
     const before = await withPart(line, transaction)
@@ -100,7 +101,7 @@ export async function updateBomLine(
 
 /** Removes a line from a draft's bill of materials. */
 export async function deleteBomLine(id: string, actor: Actor): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const line = await editableLine(id, transaction)
     const before = await withPart(line, transaction)
     await line.destroy({ transaction })

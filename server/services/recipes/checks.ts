@@ -3,11 +3,12 @@ import type { Transaction } from 'sequelize'
 import { checkLimitProblems } from '../../../shared/recipes/checkRules'
 import type { CheckDto, CheckInput, CheckUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { Check, db, RouteStep } from '../../models'
+import { Check, RouteStep } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { toCheckDto } from './recipePresenters'
 import { lockDraftRevision } from './revisionAccess'
+import { withTransaction } from '../../db/sql'
 
 function duplicateKey(err: unknown): never {
   if (err instanceof UniqueConstraintError)
@@ -30,25 +31,23 @@ export async function createCheck(
   input: CheckInput,
   actor: Actor,
 ): Promise<CheckDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const step = await RouteStep.findByPk(stepId, { transaction })
-      if (!step) throw AppError.notFound(`step ${stepId}`)
-      await lockDraftRevision(step.revisionId, transaction)
-      const position = (await Check.count({ where: { stepId }, transaction })) + 1
-      const check = await Check.create(
-        { ...input, stepId, revisionId: step.revisionId, position },
-        { transaction },
-      )
-      const dto = toCheckDto(check)
-      await recordAudit(
-        actor,
-        { action: 'check.create', entity: 'check', entityId: check.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-    .catch(duplicateKey)
+  return withTransaction(async (transaction) => {
+    const step = await RouteStep.findByPk(stepId, { transaction })
+    if (!step) throw AppError.notFound(`step ${stepId}`)
+    await lockDraftRevision(step.revisionId, transaction)
+    const position = (await Check.count({ where: { stepId }, transaction })) + 1
+    const check = await Check.create(
+      { ...input, stepId, revisionId: step.revisionId, position },
+      { transaction },
+    )
+    const dto = toCheckDto(check)
+    await recordAudit(
+      actor,
+      { action: 'check.create', entity: 'check', entityId: check.id, after: dto },
+      transaction,
+    )
+    return dto
+  }).catch(duplicateKey)
 }
 
 /** Changes a check; the limits are validated on the merged record, naming the field. */
@@ -57,37 +56,35 @@ export async function updateCheck(
   input: CheckUpdateInput,
   actor: Actor,
 ): Promise<CheckDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const check = await editableCheck(checkId, transaction)
-      const before = toCheckDto(check)
-      const merged = { ...before, ...input }
-      const problems = checkLimitProblems(merged)
-      if (problems.length)
-        throw AppError.badRequest(
-          `${problems[0]!.field}: ${problems[0]!.message}`,
-          Object.fromEntries(problems.map((p) => [p.field, p.message])),
-        )
-      await check.update(input, { transaction })
-      const after = toCheckDto(check)
-      await recordAudit(
-        actor,
-        {
-          action: 'check.update',
-          entity: 'check',
-          entityId: checkId,
-          ...changedFields(before, after),
-        },
-        transaction,
+  return withTransaction(async (transaction) => {
+    const check = await editableCheck(checkId, transaction)
+    const before = toCheckDto(check)
+    const merged = { ...before, ...input }
+    const problems = checkLimitProblems(merged)
+    if (problems.length)
+      throw AppError.badRequest(
+        `${problems[0]!.field}: ${problems[0]!.message}`,
+        Object.fromEntries(problems.map((p) => [p.field, p.message])),
       )
-      return after
-    })
-    .catch(duplicateKey)
+    await check.update(input, { transaction })
+    const after = toCheckDto(check)
+    await recordAudit(
+      actor,
+      {
+        action: 'check.update',
+        entity: 'check',
+        entityId: checkId,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return after
+  }).catch(duplicateKey)
 }
 
 /** Removes a check and closes the gap in its step's positions. */
 export async function deleteCheck(checkId: string, actor: Actor): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const check = await editableCheck(checkId, transaction)
     const before = toCheckDto(check)
     await check.destroy({ transaction })

@@ -1,9 +1,10 @@
 import { UniqueConstraintError } from 'sequelize'
 import type { DefectCodeDto, DefectCodeInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { db, DefectCode } from '../../models'
+import { DefectCode } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { withTransaction } from '../../db/sql'
 
 function toDto(d: DefectCode): DefectCodeDto {
   return {
@@ -33,18 +34,16 @@ export async function createDefectCode(
   input: DefectCodeInput,
   actor: Actor,
 ): Promise<DefectCodeDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const row = await DefectCode.create(input, { transaction })
-      const dto = toDto(row)
-      await recordAudit(
-        actor,
-        { action: 'defect_code.create', entity: 'defect_code', entityId: row.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-    .catch(duplicateCode)
+  return withTransaction(async (transaction) => {
+    const row = await DefectCode.create(input, { transaction })
+    const dto = toDto(row)
+    await recordAudit(
+      actor,
+      { action: 'defect_code.create', entity: 'defect_code', entityId: row.id, after: dto },
+      transaction,
+    )
+    return dto
+  }).catch(duplicateCode)
 }
 
 /** Changes a defect code; retire one with `isActive: false` rather than deleting history. */
@@ -53,24 +52,22 @@ export async function updateDefectCode(
   input: Partial<DefectCodeInput>,
   actor: Actor,
 ): Promise<DefectCodeDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const row = await DefectCode.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-      if (!row) throw AppError.notFound(`defect code ${id}`)
-      const before = toDto(row)
-      await row.update(input, { transaction })
-      const after = toDto(row)
-      await recordAudit(
-        actor,
-        {
-          action: 'defect_code.update',
-          entity: 'defect_code',
-          entityId: id,
-          ...changedFields(before, after),
-        },
-        transaction,
-      )
-      return after
-    })
-    .catch(duplicateCode)
+  return withTransaction(async (transaction) => {
+    const row = await DefectCode.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!row) throw AppError.notFound(`defect code ${id}`)
+    const before = toDto(row)
+    await row.update(input, { transaction })
+    const after = toDto(row)
+    await recordAudit(
+      actor,
+      {
+        action: 'defect_code.update',
+        entity: 'defect_code',
+        entityId: id,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return after
+  }).catch(duplicateCode)
 }

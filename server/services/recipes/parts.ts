@@ -2,9 +2,10 @@ import { Op, UniqueConstraintError } from 'sequelize'
 import type { PartDto, PartInput } from '../../../shared/schemas/recipes'
 import type { PageDto, PartQuery } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
-import { db, Part } from '../../models'
+import { Part } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { withTransaction } from '../../db/sql'
 
 export function toPartDto(p: Part): PartDto {
   return {
@@ -45,18 +46,16 @@ export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
 
 /** Adds a part. */
 export async function createPart(input: PartInput, actor: Actor): Promise<PartDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const part = await Part.create(input, { transaction })
-      const dto = toPartDto(part)
-      await recordAudit(
-        actor,
-        { action: 'part.create', entity: 'part', entityId: part.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-    .catch(duplicateNumber)
+  return withTransaction(async (transaction) => {
+    const part = await Part.create(input, { transaction })
+    const dto = toPartDto(part)
+    await recordAudit(
+      actor,
+      { action: 'part.create', entity: 'part', entityId: part.id, after: dto },
+      transaction,
+    )
+    return dto
+  }).catch(duplicateNumber)
 }
 
 /** Changes a part's number, description, unit or expiry flag. */
@@ -65,19 +64,17 @@ export async function updatePart(
   input: Partial<PartInput>,
   actor: Actor,
 ): Promise<PartDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-      if (!part) throw AppError.notFound(`part ${id}`)
-      const before = toPartDto(part)
-      await part.update(input, { transaction })
-      const after = toPartDto(part)
-      await recordAudit(
-        actor,
-        { action: 'part.update', entity: 'part', entityId: id, ...changedFields(before, after) },
-        transaction,
-      )
-      return after
-    })
-    .catch(duplicateNumber)
+  return withTransaction(async (transaction) => {
+    const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
+    if (!part) throw AppError.notFound(`part ${id}`)
+    const before = toPartDto(part)
+    await part.update(input, { transaction })
+    const after = toPartDto(part)
+    await recordAudit(
+      actor,
+      { action: 'part.update', entity: 'part', entityId: id, ...changedFields(before, after) },
+      transaction,
+    )
+    return after
+  }).catch(duplicateNumber)
 }

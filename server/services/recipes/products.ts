@@ -5,9 +5,10 @@ import type {
   ProductUpdateInput,
 } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { db, Product, Revision } from '../../models'
+import { Product, Revision } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { withTransaction } from '../../db/sql'
 
 function toProductDto(p: Product, includeDrafts = true): ProductDto {
   return {
@@ -37,7 +38,7 @@ export async function listProducts(includeDrafts: boolean): Promise<ProductDto[]
 /** Adds a product with an empty draft revision A to start its recipe in. */
 export async function createProduct(input: ProductCreateInput, actor: Actor): Promise<ProductDto> {
   try {
-    return await db().transaction(async (transaction) => {
+    return await withTransaction(async (transaction) => {
       const product = await Product.create(input, { transaction })
       const rev = await Revision.create(
         {
@@ -73,7 +74,7 @@ export async function updateProduct(
   input: ProductUpdateInput,
   actor: Actor,
 ): Promise<ProductDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const product = await Product.findByPk(id, {
       include: [{ model: Revision, as: 'revisions' }],
       transaction,

@@ -3,12 +3,13 @@ import { nextRevisionLetter } from '../../../shared/recipes/definitions'
 import { releaseProblems } from '../../../shared/recipes/completeness'
 import type { RevisionDto, RevisionUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { db, Product, Revision } from '../../models'
+import { Product, Revision } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { copyRecipe } from './revisionCopy'
 import { toRevisionDto } from './recipePresenters'
 import { loadRevision, lockDraftRevision } from './revisionAccess'
+import { withTransaction } from '../../db/sql'
 
 /** A revision with its windings, route, checks and bill of materials. */
 export async function getRevision(id: string): Promise<RevisionDto> {
@@ -29,7 +30,7 @@ async function nextLetter(productId: string, transaction: Transaction): Promise<
 
 /** Adds an empty draft revision with the next letter. */
 export async function createRevision(productId: string, actor: Actor): Promise<RevisionDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const letter = await nextLetter(productId, transaction)
     const rev = await Revision.create(
       { productId, letter, copiedFromId: null, releasedAt: null, releasedBy: null },
@@ -56,7 +57,7 @@ export async function updateRevision(
   input: RevisionUpdateInput,
   actor: Actor,
 ): Promise<RevisionDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const rev = await lockDraftRevision(id, transaction)
     const before = { notes: rev.notes, fpyThresholdPercent: rev.fpyThresholdPercent }
     await rev.update(input, { transaction })
@@ -77,7 +78,7 @@ export async function updateRevision(
 
 /** Deletes a draft revision and its recipe (a released one is history and stays). */
 export async function deleteRevision(id: string, actor: Actor): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const rev = await lockDraftRevision(id, transaction)
     const dto = toRevisionDto(await loadRevision(id, transaction))
     await rev.destroy({ transaction })
@@ -99,7 +100,7 @@ export async function releaseCheck(id: string): Promise<{ problems: string[] }> 
  * product stays released (lots in progress were built to it) until an engineer obsoletes it.
  */
 export async function releaseRevision(id: string, actor: Actor): Promise<RevisionDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const rev = await lockDraftRevision(id, transaction)
     const problems = releaseProblems(toRevisionDto(await loadRevision(id, transaction)))
     if (problems.length)
@@ -131,7 +132,7 @@ export async function releaseRevision(id: string, actor: Actor): Promise<Revisio
 
 /** Retires a released revision: no new lot may be made to it. */
 export async function obsoleteRevision(id: string, actor: Actor): Promise<RevisionDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const rev = await Revision.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!rev) throw AppError.notFound(`revision ${id}`)
     if (rev.status !== 'released')
@@ -157,7 +158,7 @@ export async function obsoleteRevision(id: string, actor: Actor): Promise<Revisi
 
 /** "New revision from this one": a draft with the next letter holding a deep copy of the recipe. */
 export async function copyRevision(id: string, actor: Actor): Promise<RevisionDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const source = await loadRevision(id, transaction)
     const letter = await nextLetter(source.productId, transaction)
     const copy = await Revision.create(

@@ -1,11 +1,12 @@
 import type { Transaction } from 'sequelize'
 import type { StepDto, StepInput, StepUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { Check, db, RouteStep } from '../../models'
+import { Check, RouteStep } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { toStepDto } from './recipePresenters'
 import { lockDraftRevision } from './revisionAccess'
+import { withTransaction } from '../../db/sql'
 
 async function stepsOf(revisionId: string, transaction: Transaction): Promise<RouteStep[]> {
   return RouteStep.findAll({
@@ -36,7 +37,7 @@ export async function createStep(
   input: StepInput,
   actor: Actor,
 ): Promise<StepDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     await lockDraftRevision(revisionId, transaction)
     const position = (await RouteStep.count({ where: { revisionId }, transaction })) + 1
     const step = await RouteStep.create({ ...input, revisionId, position }, { transaction })
@@ -61,7 +62,7 @@ export async function updateStep(
   input: StepUpdateInput,
   actor: Actor,
 ): Promise<StepDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const step = await editableStep(stepId, transaction)
     const before = toStepDto(step, [])
     const { position, ...fields } = input
@@ -91,7 +92,7 @@ export async function updateStep(
 
 /** Removes a step with its checks and closes the gap in the positions. */
 export async function deleteStep(stepId: string, actor: Actor): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const step = await editableStep(stepId, transaction)
     const before = toStepDto(step, await Check.findAll({ where: { stepId }, transaction }))
     await step.destroy({ transaction })
@@ -110,7 +111,7 @@ export async function reorderSteps(
   stepIds: string[],
   actor: Actor,
 ): Promise<StepDto[]> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     await lockDraftRevision(revisionId, transaction)
     const steps = await stepsOf(revisionId, transaction)
     const byId = new Map(steps.map((s) => [s.id, s]))

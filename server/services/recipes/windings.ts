@@ -2,11 +2,12 @@ import { UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import type { WindingDto, WindingInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { db, Winding } from '../../models'
+import { Winding } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { toWindingDto } from './recipePresenters'
 import { lockDraftRevision } from './revisionAccess'
+import { withTransaction } from '../../db/sql'
 
 function duplicateName(err: unknown): never {
   if (err instanceof UniqueConstraintError)
@@ -29,25 +30,23 @@ export async function createWinding(
   input: WindingInput,
   actor: Actor,
 ): Promise<WindingDto> {
-  return db()
-    .transaction(async (transaction) => {
-      await lockDraftRevision(revisionId, transaction)
-      const position = (await Winding.count({ where: { revisionId }, transaction })) + 1
-      const winding = await Winding.create({ ...input, revisionId, position }, { transaction })
-      const dto = toWindingDto(winding)
-      await recordAudit(
-        actor,
-        {
-          action: 'winding.create',
-          entity: 'winding',
-          entityId: winding.id,
-          after: { revisionId, ...dto },
-        },
-        transaction,
-      )
-      return dto
-    })
-    .catch(duplicateName)
+  return withTransaction(async (transaction) => {
+    await lockDraftRevision(revisionId, transaction)
+    const position = (await Winding.count({ where: { revisionId }, transaction })) + 1
+    const winding = await Winding.create({ ...input, revisionId, position }, { transaction })
+    const dto = toWindingDto(winding)
+    await recordAudit(
+      actor,
+      {
+        action: 'winding.create',
+        entity: 'winding',
+        entityId: winding.id,
+        after: { revisionId, ...dto },
+      },
+      transaction,
+    )
+    return dto
+  }).catch(duplicateName)
 }
 
 /** Changes a winding's turns, AL or core area. */
@@ -56,30 +55,28 @@ export async function updateWinding(
   input: Partial<WindingInput>,
   actor: Actor,
 ): Promise<WindingDto> {
-  return db()
-    .transaction(async (transaction) => {
-      const winding = await editableWinding(id, transaction)
-      const before = toWindingDto(winding)
-      await winding.update(input, { transaction })
-      const after = toWindingDto(winding)
-      await recordAudit(
-        actor,
-        {
-          action: 'winding.update',
-          entity: 'winding',
-          entityId: id,
-          ...changedFields(before, after),
-        },
-        transaction,
-      )
-      return after
-    })
-    .catch(duplicateName)
+  return withTransaction(async (transaction) => {
+    const winding = await editableWinding(id, transaction)
+    const before = toWindingDto(winding)
+    await winding.update(input, { transaction })
+    const after = toWindingDto(winding)
+    await recordAudit(
+      actor,
+      {
+        action: 'winding.update',
+        entity: 'winding',
+        entityId: id,
+        ...changedFields(before, after),
+      },
+      transaction,
+    )
+    return after
+  }).catch(duplicateName)
 }
 
 /** Removes a winding; checks that derived from it will be named by the release check. */
 export async function deleteWinding(id: string, actor: Actor): Promise<void> {
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const winding = await editableWinding(id, transaction)
     const before = toWindingDto(winding)
     await winding.destroy({ transaction })

@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import { UNIT_STATE_LABELS } from '../../../shared/lots'
@@ -12,11 +11,12 @@ import type {
   ServiceCaseUpdateInput,
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
-import { db, DefectCode, Lot, RouteStep, ServiceCase, Unit } from '../../models'
+import { DefectCode, Lot, RouteStep, ServiceCase, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { createShipment } from '../shipping'
 import { reworkTarget, sendToRework } from '../floor'
+import { select, withTransaction } from '../../db/sql'
 
 interface CaseRow {
   id: string
@@ -106,12 +106,11 @@ export async function listServiceCases(q: ServiceCaseQuery): Promise<ServiceCase
   if (q.status) where.push('sc.status = :status')
   if (q.lotId) where.push('l.id = :lotId')
   if (q.serial) where.push('u.serial = :serial')
-  const rows = await db().query<CaseRow>(
+  const rows = await select<CaseRow>(
     `${SELECT_CASE} WHERE ${where.join(' AND ')}
      ORDER BY sc.status = 'open' DESC, sc.created_at DESC LIMIT 500`,
     {
       replacements: { ...q, serial: q.serial ? codeFromScan(q.serial) : undefined },
-      type: QueryTypes.SELECT,
     },
   )
   return rows.map(toDto)
@@ -122,9 +121,8 @@ export async function getServiceCase(
   id: string,
   transaction?: Transaction,
 ): Promise<ServiceCaseDto> {
-  const [row] = await db().query<CaseRow>(`${SELECT_CASE} WHERE sc.id = :id`, {
+  const [row] = await select<CaseRow>(`${SELECT_CASE} WHERE sc.id = :id`, {
     replacements: { id },
-    type: QueryTypes.SELECT,
     transaction,
   })
   if (!row) throw AppError.notFound(`service case ${id}`)
@@ -142,7 +140,7 @@ export async function openServiceCase(
   actor: Actor,
 ): Promise<ServiceCaseDto> {
   const serial = codeFromScan(input.serial)
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const unit = await Unit.findOne({
       where: { serial },
       transaction,
@@ -155,15 +153,14 @@ export async function openServiceCase(
         `${serial} is ${stateWords(unit.state)}: a return is opened for a unit that shipped`,
         { serial: `${stateWords(unit.state)}, not shipped` },
       )
-    const [shipment] = await db().query<{ customer_id: string }>(
+    const [shipment] = await select<{ customer_id: string }>(
       `SELECT s.customer_id FROM shipment_units su JOIN shipments s ON s.id = su.shipment_id
         WHERE su.unit_id = :unitId ORDER BY su.created_at DESC LIMIT 1`,
-      { replacements: { unitId: unit.id }, type: QueryTypes.SELECT, transaction },
+      { replacements: { unitId: unit.id }, transaction },
     )
-    const [seq] = await db().query<{ n: string }>(
-      `SELECT nextval('service_case_number_seq') AS n`,
-      { type: QueryTypes.SELECT, transaction },
-    )
+    const [seq] = await select<{ n: string }>(`SELECT nextval('service_case_number_seq') AS n`, {
+      transaction,
+    })
     const sc = await ServiceCase.create(
       {
         number: `SC-${String(seq!.n).padStart(4, '0')}`,
@@ -216,7 +213,7 @@ export async function updateServiceCase(
   input: ServiceCaseUpdateInput,
   actor: Actor,
 ): Promise<ServiceCaseDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const sc = await lockOpenCase(id, transaction)
     if (input.defectCodeId && !(await DefectCode.findByPk(input.defectCodeId, { transaction })))
       throw AppError.badRequest('defectCodeId: no such defect code', {
@@ -255,7 +252,7 @@ export async function closeServiceCase(
   actor: Actor,
   now = new Date(),
 ): Promise<ServiceCaseDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const sc = await lockOpenCase(id, transaction)
     const unit = (await Unit.findByPk(sc.unitId, { transaction, lock: transaction.LOCK.UPDATE }))!
     let replacementUnitId: string | null = null

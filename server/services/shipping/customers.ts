@@ -1,4 +1,4 @@
-import { QueryTypes, UniqueConstraintError } from 'sequelize'
+import { UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import type {
   CustomerCreateInput,
@@ -6,9 +6,10 @@ import type {
   CustomerUpdateInput,
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
-import { Customer, db } from '../../models'
+import { Customer } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { execute, select, withTransaction } from '../../db/sql'
 
 interface CustomerRow {
   id: string
@@ -40,17 +41,14 @@ function toDto(r: CustomerRow): CustomerDto {
 
 /** Every customer, by name. */
 export async function listCustomers(): Promise<CustomerDto[]> {
-  const rows = await db().query<CustomerRow>(`${SELECT_CUSTOMER} ORDER BY lower(c.name)`, {
-    type: QueryTypes.SELECT,
-  })
+  const rows = await select<CustomerRow>(`${SELECT_CUSTOMER} ORDER BY lower(c.name)`)
   return rows.map(toDto)
 }
 
 /** One customer with counts of its lots and shipments. */
 export async function getCustomer(id: string, transaction?: Transaction): Promise<CustomerDto> {
-  const [row] = await db().query<CustomerRow>(`${SELECT_CUSTOMER} WHERE c.id = :id`, {
+  const [row] = await select<CustomerRow>(`${SELECT_CUSTOMER} WHERE c.id = :id`, {
     replacements: { id },
-    type: QueryTypes.SELECT,
     transaction,
   })
   if (!row) throw AppError.notFound(`customer ${id}`)
@@ -71,7 +69,7 @@ export async function createCustomer(
   actor: Actor,
 ): Promise<CustomerDto> {
   try {
-    return await db().transaction(async (transaction) => {
+    return await withTransaction(async (transaction) => {
       const c = await Customer.create(input, { transaction })
       const dto = await getCustomer(c.id, transaction)
       await recordAudit(
@@ -96,14 +94,14 @@ export async function updateCustomer(
   actor: Actor,
 ): Promise<CustomerDto> {
   try {
-    return await db().transaction(async (transaction) => {
+    return await withTransaction(async (transaction) => {
       const c = await Customer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
       if (!c) throw AppError.notFound(`customer ${id}`)
       const before = { name: c.name, contactEmail: c.contactEmail, address: c.address }
       await c.update(input, { transaction })
       const after = { name: c.name, contactEmail: c.contactEmail, address: c.address }
       if (before.name !== after.name)
-        await db().query('UPDATE lots SET customer_name = :name WHERE customer_id = :id', {
+        await execute('UPDATE lots SET customer_name = :name WHERE customer_id = :id', {
           replacements: { name: c.name, id },
           transaction,
         })

@@ -1,4 +1,4 @@
-import { Op, QueryTypes } from 'sequelize'
+import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import { PASSED_UNIT_STATES, UNIT_STATE_LABELS } from '../../../shared/lots'
@@ -10,10 +10,11 @@ import type {
   ShippableUnitDto,
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
-import { Customer, db, Document, Shipment, ShipmentUnit, Unit } from '../../models'
+import { Customer, Document, Shipment, ShipmentUnit, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { requestDocument, toDocumentDto } from '../documents'
+import { select, withTransaction } from '../../db/sql'
 
 interface UnitRow {
   id: string
@@ -42,9 +43,8 @@ export function shipRefusal(state: UnitState): string | null {
 /** A scanned serial (bare or a traveler URL) checked for packing, before anything is saved. */
 export async function checkShippable(scanned: string): Promise<ShippableUnitDto> {
   const serial = codeFromScan(scanned)
-  const [row] = await db().query<UnitRow>(`${SELECT_UNITS} WHERE u.serial = :serial`, {
+  const [row] = await select<UnitRow>(`${SELECT_UNITS} WHERE u.serial = :serial`, {
     replacements: { serial },
-    type: QueryTypes.SELECT,
   })
   if (!row) throw AppError.notFound(`unit ${serial}`)
   return {
@@ -99,26 +99,25 @@ function toSummary(r: ShipmentRow): ShipmentSummaryDto {
 
 /** Shipments, newest first, optionally of one customer. */
 export async function listShipments(q: { customerId?: string }): Promise<ShipmentSummaryDto[]> {
-  const rows = await db().query<ShipmentRow>(
+  const rows = await select<ShipmentRow>(
     `${SELECT_SHIPMENT} ${q.customerId ? 'WHERE s.customer_id = :customerId' : ''}
      ORDER BY s.shipped_on DESC, s.number DESC LIMIT 500`,
-    { replacements: q, type: QueryTypes.SELECT },
+    { replacements: q },
   )
   return rows.map(toSummary)
 }
 
 /** One shipment with its units and its documents (packing slip, certificates). */
 export async function getShipment(id: string, transaction?: Transaction): Promise<ShipmentDto> {
-  const [row] = await db().query<ShipmentRow>(`${SELECT_SHIPMENT} WHERE s.id = :id`, {
+  const [row] = await select<ShipmentRow>(`${SELECT_SHIPMENT} WHERE s.id = :id`, {
     replacements: { id },
-    type: QueryTypes.SELECT,
     transaction,
   })
   if (!row) throw AppError.notFound(`shipment ${id}`)
-  const units = await db().query<UnitRow>(
+  const units = await select<UnitRow>(
     `${SELECT_UNITS} JOIN shipment_units su ON su.unit_id = u.id
       WHERE su.shipment_id = :id ORDER BY u.serial`,
-    { replacements: { id }, type: QueryTypes.SELECT, transaction },
+    { replacements: { id }, transaction },
   )
   const documents = await Document.findAll({
     where: { shipmentId: id },
@@ -191,8 +190,7 @@ export async function createShipment(
         { serials: problems.join('; ') },
         problems,
       )
-    const [seq] = await db().query<{ n: string }>(`SELECT nextval('shipment_number_seq') AS n`, {
-      type: QueryTypes.SELECT,
+    const [seq] = await select<{ n: string }>(`SELECT nextval('shipment_number_seq') AS n`, {
       transaction: t,
     })
     const shipment = await Shipment.create(
@@ -244,12 +242,12 @@ export async function createShipment(
     )
     return getShipment(shipment.id, t)
   }
-  return transaction ? run(transaction) : db().transaction(run)
+  return transaction ? run(transaction) : withTransaction(run)
 }
 
 /** Requests a certificate of conformance listing every serial of a shipment. */
 export async function requestShipmentCertificate(id: string, actor: Actor) {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const shipment = await Shipment.findByPk(id, { transaction })
     if (!shipment) throw AppError.notFound(`shipment ${id}`)
     const doc = await requestDocument(
@@ -271,7 +269,7 @@ export async function requestShipmentCertificate(id: string, actor: Actor) {
  */
 export async function requestUnitCertificate(scanned: string, actor: Actor) {
   const serial = codeFromScan(scanned)
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const unit = await Unit.findOne({ where: { serial }, transaction })
     if (!unit) throw AppError.notFound(`unit ${serial}`)
     if (!PASSED_UNIT_STATES.includes(unit.state))

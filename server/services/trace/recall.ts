@@ -1,4 +1,4 @@
-import { Op, QueryTypes } from 'sequelize'
+import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import type { UnitState } from '../../../shared/lots'
@@ -11,13 +11,14 @@ import type {
   RecallUnitDto,
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
-import { ComponentLot, db, Email, Part, Unit } from '../../models'
+import { ComponentLot, Email, Part, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { moveComponentLotStatus } from '../receiving'
 import { writeCsv } from '../exports'
 import { draftEmail } from '../mail'
 import { RECALL_SCOPE_SQL } from './traceQueries'
+import { select, withTransaction } from '../../db/sql'
 
 interface ScopeRow {
   unit_id: string
@@ -62,9 +63,8 @@ export async function findComponentLot(scanned: string, transaction?: Transactio
  */
 export async function recallScope(scanned: string, transaction?: Transaction) {
   const lot = await findComponentLot(scanned, transaction)
-  const rows = await db().query<ScopeRow>(RECALL_SCOPE_SQL, {
+  const rows = await select<ScopeRow>(RECALL_SCOPE_SQL, {
     bind: [lot.internalCode],
-    type: QueryTypes.SELECT,
     transaction,
   })
   const units: RecallUnitDto[] = rows.map((r) => ({
@@ -180,7 +180,7 @@ export async function containComponentLot(
   reason: string,
   actor: Actor,
 ): Promise<ContainResultDto> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const found = await findComponentLot(scanned, transaction)
     // Lock the lot first, so two leads containing it at once run one after the other.
     await ComponentLot.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE })

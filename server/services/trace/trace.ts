@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import { codeFromScan } from '../../../shared/links'
 import { oneSlipCandidates, serialParts } from '../../../shared/serialSuggestions'
 import { isValidSerial, looksLikeSerial } from '../../../shared/serials'
@@ -11,8 +10,8 @@ import type {
   UnitTraceDto,
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
-import { db } from '../../models'
 import { UNIT_TRACE_SQL } from './traceQueries'
+import { select } from '../../db/sql'
 
 /** At most this many serials are offered for a mistyped one. */
 export const SUGGESTION_MAX = 5
@@ -65,9 +64,9 @@ export async function serialSuggestions(typed: string): Promise<string[]> {
   const out: string[] = []
   const candidates = oneSlipCandidates(typed)
   if (candidates.length) {
-    const rows = await db().query<{ serial: string }>(
+    const rows = await select<{ serial: string }>(
       'SELECT serial FROM units WHERE serial IN (:candidates)',
-      { replacements: { candidates }, type: QueryTypes.SELECT },
+      { replacements: { candidates } },
     )
     const existing = new Set(rows.map((r) => r.serial))
     out.push(...candidates.filter((c) => existing.has(c)))
@@ -75,7 +74,7 @@ export async function serialSuggestions(typed: string): Promise<string[]> {
   const parts = serialParts(typed)
   if (parts && out.length < SUGGESTION_MAX) {
     const prefix = `${parts.productCode}-${parts.yearWeek}-`
-    const rows = await db().query<{ serial: string }>(
+    const rows = await select<{ serial: string }>(
       `SELECT serial FROM units
        WHERE serial >= :low AND serial < :high
        ORDER BY abs(substr(serial, :at, 5)::int - :sequence), serial
@@ -88,7 +87,6 @@ export async function serialSuggestions(typed: string): Promise<string[]> {
           sequence: parts.sequence,
           limit: SUGGESTION_MAX * 2,
         },
-        type: QueryTypes.SELECT,
       },
     )
     for (const r of rows) if (!out.includes(r.serial)) out.push(r.serial)
@@ -184,9 +182,8 @@ function toTrace(row: TraceRow): UnitTraceDto {
  */
 export async function traceUnit(scanned: string): Promise<UnitTraceDto> {
   const serial = codeFromScan(scanned)
-  const [row] = await db().query<TraceRow>(UNIT_TRACE_SQL, {
+  const [row] = await select<TraceRow>(UNIT_TRACE_SQL, {
     bind: [serial],
-    type: QueryTypes.SELECT,
   })
   if (row) return toTrace(row)
   if (looksLikeSerial(serial) && !isValidSerial(serial)) throw await mistyped(serial)

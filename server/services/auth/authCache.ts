@@ -1,7 +1,6 @@
 import pg from 'pg'
-import { CONNECT_TIMEOUT_MS } from '../db/pool'
-import { env, requireSetting } from '../env'
-import { logger } from '../logger'
+import { CONNECT_TIMEOUT_MS, env, requireSetting } from '../../env'
+import { logger } from '../../logger'
 
 /**
  * An in-memory cache of session rows and signed-in users, so that a signed-in request does not
