@@ -54,5 +54,24 @@ export default defineConfig(
       ],
     },
   },
+  {
+    // PDF renderers draw the data they are given and never load it: the documents service
+    // (server/services/documents/) reads the database and passes the data in.
+    files: ['server/documents/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: ['sequelize'],
+          patterns: [
+            {
+              regex: '^\\.\\.?/(\\.\\./)*(services|models|db)(/|$)',
+              message: 'load the data in server/services/documents/ and pass it in',
+            },
+          ],
+        },
+      ],
+    },
+  },
   prettier,
 )

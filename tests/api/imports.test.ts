@@ -14,7 +14,7 @@ import {
   failImport,
   pendingImports,
   processImport,
-} from '../../server/services/imports/imports'
+} from '../../server/services/imports'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'

@@ -1,13 +1,15 @@
 import { Op } from 'sequelize'
-import { RENDERERS } from '../../documents/renderers'
+import { isRenderedKind, renderDocumentPdf } from '../../documents/renderers'
 import { logger } from '../../logger'
 import { Document } from '../../models'
 import { putFile } from '../../storage'
+import { loadDocumentData } from './documentData'
 
 /**
- * Makes one document's PDF and stores it. Safe to run twice: a finished document is left as
- * it is, and the renderers are deterministic for a lot, so a rerun writes the same object
- * (files are keyed by their sha256) rather than a second one.
+ * Makes one document's PDF and stores it: its data is read here (documentData.ts) and drawn by
+ * the renderers in server/documents/, which never read the database. Safe to run twice: a
+ * finished document is left as it is, and the renderers are deterministic for a lot, so a rerun
+ * writes the same object (files are keyed by their sha256) rather than a second one.
  */
 export async function renderDocument(
   id: string,
@@ -16,8 +18,8 @@ export async function renderDocument(
   const doc = await Document.findByPk(id)
   if (!doc) throw new Error(`document ${id} does not exist`)
   if (doc.status === 'done') return
-  const render = RENDERERS[doc.kind]
-  if (!render) throw new Error(`no renderer for documents of kind ${doc.kind}`)
+  const kind = doc.kind
+  if (!isRenderedKind(kind)) throw new Error(`no renderer for documents of kind ${kind}`)
   await doc.update({ status: 'running', progress: 0, error: null })
   let last = -1
   const progress = async (fraction: number) => {
@@ -27,7 +29,8 @@ export async function renderDocument(
     await doc.update({ progress: percent })
     await onProgress(percent)
   }
-  const pdf = await render(doc, progress)
+  const loaded = await loadDocumentData(doc, kind, progress)
+  const pdf = await renderDocumentPdf(loaded.input, loaded.progress)
   const stored = await putFile('documents', pdf, 'application/pdf')
   await doc.update({
     status: 'done',

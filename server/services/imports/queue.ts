@@ -3,7 +3,9 @@ import type { Redis } from 'ioredis'
 import { logger } from '../../logger'
 import { redisPrefix } from '../../redis'
 import { jobLocks, makeProducer, STANDARD_JOB_OPTIONS } from '../../queue'
-import { checkImport, failImport, pendingImports, processImport } from './imports'
+import { checkImport } from './dryRun'
+import { failImport, pendingImports } from './importJobs'
+import { processImport } from './importRun'
 
 /** The queue the import worker (below) takes bench-file jobs from. */
 export const IMPORTS_QUEUE = 'imports'

@@ -1,13 +1,14 @@
 import { QueryTypes } from 'sequelize'
+import type { CertificateData, CertificateGroup, CertificateRun } from '../../documents/certificate'
+import type { PackingSlipData } from '../../documents/packingSlip'
 import { env } from '../../env'
 import { db, User } from '../../models'
 import type { Document } from '../../models'
-import { toRevisionDto } from '../../services/recipes'
-import { loadRevision } from '../../services/recipes'
-import { certificatePdf } from '../certificate'
-import type { CertificateData, CertificateGroup, CertificateRun } from '../certificate'
-import { packingSlipPdf } from '../packingSlip'
-import type { Progress } from './types'
+import { toRevisionDto } from '../recipes'
+import { loadRevision } from '../recipes'
+
+// What a shipment's or a unit's customer papers print (the certificate of conformance and the
+// packing slip), read from the database for the renderers in server/documents/.
 
 interface PaperUnit {
   id: string
@@ -167,13 +168,8 @@ export async function certificateData(doc: Document): Promise<CertificateData> {
   }
 }
 
-/** A certificate of conformance for a shipment's serials or for one serial. */
-export async function renderCertificate(doc: Document, progress: Progress): Promise<Buffer> {
-  return certificatePdf(await certificateData(doc), progress)
-}
-
-/** The packing slip of a shipment. */
-export async function renderPackingSlip(doc: Document, progress: Progress): Promise<Buffer> {
+/** What a shipment's packing slip prints, read from the database. */
+export async function packingSlipData(doc: Document): Promise<PackingSlipData> {
   const shipment = await paperShipment(doc)
   if (!shipment) throw new Error(`document ${doc.id} has no shipment`)
   const units = await db().query<{
@@ -190,28 +186,24 @@ export async function renderPackingSlip(doc: Document, progress: Progress): Prom
       WHERE su.shipment_id = :id ORDER BY p.code, u.serial`,
     { replacements: { id: doc.shipmentId }, type: QueryTypes.SELECT },
   )
-  await progress(0.2)
-  return packingSlipPdf(
-    {
-      shopName: env.WAYMARK_SHOP_NAME,
-      shipment: {
-        number: shipment.number,
-        orderRef: shipment.order_ref,
-        carrier: shipment.carrier,
-        tracking: shipment.tracking,
-        shippedOn: shipment.shipped_on,
-      },
-      customer: { name: shipment.customer_name, address: shipment.customer_address },
-      units: units.map((u) => ({
-        serial: u.serial,
-        productCode: u.product_code,
-        productName: u.product_name,
-        revision: u.letter,
-        lotNumber: u.lot_number,
-      })),
-      packedBy: await issuerName(doc),
-      issuedAt: doc.createdAt,
+  return {
+    shopName: env.WAYMARK_SHOP_NAME,
+    shipment: {
+      number: shipment.number,
+      orderRef: shipment.order_ref,
+      carrier: shipment.carrier,
+      tracking: shipment.tracking,
+      shippedOn: shipment.shipped_on,
     },
-    progress,
-  )
+    customer: { name: shipment.customer_name, address: shipment.customer_address },
+    units: units.map((u) => ({
+      serial: u.serial,
+      productCode: u.product_code,
+      productName: u.product_name,
+      revision: u.letter,
+      lotNumber: u.lot_number,
+    })),
+    packedBy: await issuerName(doc),
+    issuedAt: doc.createdAt,
+  }
 }
