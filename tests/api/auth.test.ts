@@ -93,19 +93,23 @@ describe('sign-in', () => {
     expect(recent).toEqual(expect.arrayContaining(['auth.sign_in_failed', 'auth.sign_in']))
   })
 
-  it('rate-limits failed sign-ins per account, then refuses even the right password', async () => {
-    await resetSignInLimits()
-    const c = new TestClient()
-    const email = 'engineer@ferncastle.example'
-    for (let i = 0; i < SIGN_IN_LIMITS.perAccount; i++)
-      expect((await c.signIn(email, `guess-${i}`)).status).toBe(401)
-    const blocked = await c.signIn(email)
-    expect(blocked.status).toBe(429)
-    expect(blocked.body.error).toBe('too_many_attempts')
-    await resetSignInLimits()
-  })
+  it(
+    'rate-limits failed sign-ins per account, then refuses even the right password',
+    { timeout: 120_000 },
+    async () => {
+      await resetSignInLimits()
+      const c = new TestClient()
+      const email = 'engineer@ferncastle.example'
+      for (let i = 0; i < SIGN_IN_LIMITS.perAccount; i++)
+        expect((await c.signIn(email, `guess-${i}`)).status).toBe(401)
+      const blocked = await c.signIn(email)
+      expect(blocked.status).toBe(429)
+      expect(blocked.body.error).toBe('too_many_attempts')
+      await resetSignInLimits()
+    },
+  )
 
-  it('rate-limits failed sign-ins per address across accounts', { timeout: 60_000 }, async () => {
+  it('rate-limits failed sign-ins per address across accounts', { timeout: 240_000 }, async () => {
     await resetSignInLimits()
     const c = new TestClient()
     let last = 0
