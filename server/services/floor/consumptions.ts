@@ -26,11 +26,16 @@ type Scan = StepRunInput['consumptions'][number]
  * (whichever lot they came from), for decideStepRun's one-unit-per-serial rule.
  */
 export async function serialsFittedAlready(
+  lines: readonly BomLine[],
   lots: readonly ComponentLot[],
   scans: Scan[],
   transaction: Transaction,
 ): Promise<FittedSerial[]> {
+  // Only serial-traced lines keep an item serial (decideStepRun drops the others'), so only
+  // theirs are looked up: a lot-traced scan costs the scan's locked path no query.
+  const serialLines = new Set(lines.filter((l) => l.traceLevel === 'serial').map((l) => l.id))
   const pairs = scans.flatMap((scan) => {
+    if (!serialLines.has(scan.bomLineId)) return []
     const lot = lots.find((l) => l.internalCode === codeFromScan(scan.code))
     const itemSerial = scan.itemSerial?.trim().toUpperCase()
     return lot && itemSerial ? [{ partId: lot.partId, itemSerial }] : []

@@ -1,3 +1,5 @@
+// Just over 400 lines on purpose: the scan's fast and locked paths and the decision they share
+// stay in one file, so the order of reads, locks and writes can be read in one place.
 import { randomUUID } from 'node:crypto'
 import type { Transaction } from 'sequelize'
 import { decideStepRun } from '../../../shared/floor/decideStepRun'
@@ -325,7 +327,12 @@ async function recordLocked(
   const extra: Extra = {
     step,
     componentLots,
-    fittedSerials: await serialsFittedAlready(componentLots, input.consumptions, transaction),
+    fittedSerials: await serialsFittedAlready(
+      step?.bomLines ?? [],
+      componentLots,
+      input.consumptions,
+      transaction,
+    ),
     countersign: step?.requiresSignoff
       ? await readCountersign(input.countersign, transaction)
       : null,
