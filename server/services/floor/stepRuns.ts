@@ -26,8 +26,8 @@ import {
   toLotToFit,
 } from './consumptions'
 import type { PlannedConsumption } from './consumptions'
-import { auditCountersignFailure, readCountersign } from './countersign'
-import { unitSummary } from './unitMoves'
+import { auditCountersignFailure, readCountersign } from '../auth'
+import { unitSummary } from '../units'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 import {
