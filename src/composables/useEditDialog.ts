@@ -43,9 +43,10 @@ export function useEditDialog<T, I>(
  */
 export type EditDialog<T, I> = ReturnType<typeof useEditDialog<T, I>>
 
-/** The part of a dialog's state that FormDialog reads: whether it is open, and saving. */
+/** The part of a dialog's state that FormDialog reads: open, saving, the server's messages. */
 export interface DialogState {
   readonly isOpen: boolean
   readonly isSaving: boolean
+  readonly fieldErrors?: Readonly<Record<string, string>>
   close(): void
 }
