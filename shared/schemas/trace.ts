@@ -1,7 +1,8 @@
 import { z } from 'zod'
 import { scanText, text } from './common'
-import type { Disposition, DocumentKind, DocumentStatus, UnitState } from '../lots'
+import type { DocumentKind, DocumentStatus, UnitState } from '../lots'
 import { CountersignInput } from './lots'
+import type { NonconformanceDto } from './lots'
 
 /** What the Trace scan box sends: a bare serial or a traveler URL, as scanned or typed. */
 export const TraceScanParam = scanText('serial', 'scan or type a serial', 300)
@@ -115,23 +116,24 @@ export interface TraceConsumptionDto {
   fittedAt: string
 }
 
-export interface TraceNonconformanceDto {
-  id: string
-  stepRunId: string
-  stepName: string
-  defectCode: string | null
-  defectDescription: string | null
-  description: string
-  failedChecks: string[]
-  disposition: Disposition | null
-  reworkToStepName: string | null
-  reason: string
-  openedBy: string | null
-  decidedBy: string | null
-  countersignedBy: string | null
-  openedAt: string
-  closedAt: string | null
-}
+/** A nonconformance as a unit's history shows it: the lot view's, with the step run it came from. */
+export type TraceNonconformanceDto = Pick<
+  NonconformanceDto,
+  | 'id'
+  | 'stepName'
+  | 'defectCode'
+  | 'defectDescription'
+  | 'description'
+  | 'failedChecks'
+  | 'disposition'
+  | 'reworkToStepName'
+  | 'reason'
+  | 'openedBy'
+  | 'decidedBy'
+  | 'countersignedBy'
+  | 'openedAt'
+  | 'closedAt'
+> & { stepRunId: string }
 
 export interface TraceDocumentDto {
   id: string

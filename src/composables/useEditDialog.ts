@@ -5,7 +5,8 @@ import { useSubmit } from './useSubmit'
  * State of one create/edit dialog: what it edits, whether it is open, and its save.
  * Returned reactive, so a template reads `winding.isOpen` without `.value`.
  * @param save stores the input; `target` is null when creating
- * @param success the message after saving, e.g. "Winding added"; it also gets the input
+ * @param success the message after saving, e.g. "Winding added"; it also gets the input, and
+ *   is asked once the save is done, so it may read what the save changed
  * @param onError called after a refusal was shown, e.g. to reload a frozen revision
  */
 export function useEditDialog<T, I>(
@@ -26,7 +27,13 @@ export function useEditDialog<T, I>(
 
   async function submit(input: I) {
     const current = target.value
-    if (await run(() => save(current, input), success(current, input), onError))
+    if (
+      await run(
+        () => save(current, input),
+        () => success(current, input),
+        onError,
+      )
+    )
       isOpen.value = false
   }
 
@@ -43,9 +50,10 @@ export function useEditDialog<T, I>(
  */
 export type EditDialog<T, I> = ReturnType<typeof useEditDialog<T, I>>
 
-/** The part of a dialog's state that FormDialog reads: whether it is open, and saving. */
+/** The part of a dialog's state that FormDialog reads: open, saving, the server's messages. */
 export interface DialogState {
   readonly isOpen: boolean
   readonly isSaving: boolean
+  readonly fieldErrors?: Readonly<Record<string, string>>
   close(): void
 }

@@ -14,20 +14,21 @@ export function useSubmit() {
 
   /**
    * @param action the store call
-   * @param success the message on success, or nothing to stay quiet
+   * @param success the message on success (a function is asked after the action, so it may tell
+   *   what the action did), or nothing to stay quiet
    * @param onError called with the error after it was shown, e.g. to reload a frozen revision
    * @returns true when the action succeeded
    */
   async function run(
     action: () => Promise<unknown>,
-    success?: string,
+    success?: string | (() => string),
     onError?: (error: unknown) => void,
   ) {
     clear()
     isSaving.value = true
     try {
       await action()
-      if (success) ElMessage.success(success)
+      if (success) ElMessage.success(typeof success === 'function' ? success() : success)
       return true
     } catch (error) {
       if (!apply(error)) ElMessage.error(messageOf(error))

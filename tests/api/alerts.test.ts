@@ -1,26 +1,21 @@
 import { randomUUID } from 'node:crypto'
-import type { Redis } from 'ioredis'
 import { Op } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AlertDto } from '../../shared/schemas/alerts'
 import type { LotDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { AuditEvent, Email, User } from '../../server/models'
 import {
   alertJobKey,
   alertsQueue,
   closeAlertsQueue,
 } from '../../server/services/quality/alertQueue'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
 import { processAlertJob } from '../../server/services/quality'
-import { startMailWorker } from '../../server/services/mail'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
+import { startMailRig } from './support/mailRig'
 import { buildSmallRecipe } from './support/recipes'
 
 let engineer: TestClient
@@ -28,9 +23,7 @@ let lead: TestClient
 let stores: TestClient
 let operator: TestClient
 let defectId: string
-let fake: Awaited<ReturnType<typeof startSmtpFake>>
-let connection: Redis
-let mail: ReturnType<typeof startMailWorker>
+let mailRig: Awaited<ReturnType<typeof startMailRig>>
 
 /**
  * A released lot of the small test recipe (winding with an inductance check and its derived
@@ -117,21 +110,10 @@ beforeAll(async () => {
   defectId = (await operator.get('/api/defect-codes')).body.find(
     (d: { code: string }) => d.code === 'L-VOUT',
   ).id
-  fake = await startSmtpFake({ port: 0 })
-  setSmtpPortForTests(fake.port)
-  connection = newQueueConnection()
-  mail = startMailWorker(connection)
+  mailRig = await startMailRig()
 })
 
-afterAll(async () => {
-  mail.stop()
-  await mail.worker.close()
-  await closeMailQueue()
-  await closeAlertsQueue()
-  await connection.quit()
-  closeMail()
-  await fake.close()
-})
+afterAll(() => mailRig.stop(closeAlertsQueue))
 
 describe('quality alerts', () => {
   it('takes the FPY threshold from the draft revision, frozen on release, carried by a copy', async () => {

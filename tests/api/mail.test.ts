@@ -1,16 +1,12 @@
 import { createServer } from 'node:net'
-import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { db, Email, User } from '../../server/models'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
+import { setSmtpPortForTests } from '../../server/mail'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/audit'
-import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
+import { startMailRig } from './support/mailRig'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.
 vi.hoisted(() => {
@@ -24,9 +20,7 @@ const PDF = Buffer.from(
     '2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
 )
 
-let fake: Awaited<ReturnType<typeof startSmtpFake>>
-let connection: Redis
-let mail: ReturnType<typeof startMailWorker>
+let mailRig: Awaited<ReturnType<typeof startMailRig>>
 let actor: Actor
 
 async function waitForStatus(id: string, status: string): Promise<Email> {
@@ -65,22 +59,12 @@ async function queue(subject: string, withPdf: boolean): Promise<string> {
 }
 
 beforeAll(async () => {
-  fake = await startSmtpFake({ port: 0 })
-  setSmtpPortForTests(fake.port)
+  mailRig = await startMailRig()
   const admin = (await User.findOne({ where: { email: 'admin@ferncastle.example' } }))!
   actor = { id: admin.id, email: admin.email }
-  connection = newQueueConnection()
-  mail = startMailWorker(connection)
 })
 
-afterAll(async () => {
-  mail.stop()
-  await mail.worker.close()
-  await closeMailQueue()
-  await connection.quit()
-  closeMail()
-  await fake.close()
-})
+afterAll(() => mailRig.stop())
 
 describe('mail', () => {
   it('sends a queued e-mail once, with its attachment, and the fake files it', async () => {
@@ -143,7 +127,7 @@ describe('mail', () => {
       expect(failed.attempts).toBe(2)
       expect(failed.error).toMatch(/ECONNREFUSED|connect/i)
     } finally {
-      setSmtpPortForTests(fake.port)
+      setSmtpPortForTests(mailRig.fake.port)
     }
   })
 

@@ -1,21 +1,16 @@
 import { PDFParse } from 'pdf-parse'
-import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { DocumentDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
 import type { CustomerDto, ServiceCaseDto, ShipmentDto } from '../../shared/schemas/shipping'
 import { limitNumber } from '../../shared/recipes/limitText'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { AuditEvent, Check, Email, Measurement, Shipment, StepRun, Unit } from '../../server/models'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
 import { renderDocument } from '../../server/services/documents/documentRender'
-import { startMailWorker } from '../../server/services/mail'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
+import { startMailRig } from './support/mailRig'
 
 vi.hoisted(() => {
   process.env.WAYMARK_MAIL_ATTEMPTS = '2'
@@ -63,9 +58,7 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
   /** Three units that passed both steps; the fourth only passed winding. */
   let passed: string[]
   let unfinished: string
-  let fake: Awaited<ReturnType<typeof startSmtpFake>>
-  let connection: Redis
-  let mail: ReturnType<typeof startMailWorker>
+  let mailRig: Awaited<ReturnType<typeof startMailRig>>
 
   const passUnit = async (serial: string) => {
     await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
@@ -78,10 +71,7 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
     ;[engineer, lead, stores, operator, service] = await Promise.all(
       ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
     )
-    fake = await startSmtpFake({ port: 0 })
-    setSmtpPortForTests(fake.port)
-    connection = newQueueConnection()
-    mail = startMailWorker(connection)
+    mailRig = await startMailRig()
     t = await releasedTestLot({ engineer, lead, stores }, 4)
     const serials = t.units.map((u) => u.serial)
     passed = serials.slice(0, 3)
@@ -99,14 +89,7 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
     ).body as CustomerDto
   })
 
-  afterAll(async () => {
-    mail.stop()
-    await mail.worker.close()
-    await closeMailQueue()
-    await connection.quit()
-    closeMail()
-    await fake.close()
-  })
+  afterAll(() => mailRig.stop())
 
   describe('customers', () => {
     it('refuses bad input with a 4xx naming the field', async () => {

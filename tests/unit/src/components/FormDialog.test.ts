@@ -4,6 +4,7 @@ import { ElFormItem } from 'element-plus'
 import { describe, expect, it } from 'vitest'
 import { z } from 'zod'
 import FormDialog from '@/components/FormDialog.vue'
+import { ApiError } from '@/api/client'
 import { useEditDialog } from '@/composables/useEditDialog'
 import { useZodRules } from '@/composables/useZodRules'
 
@@ -121,6 +122,45 @@ describe('FormDialog', () => {
     await flushPromises()
     expect(dialog.isOpen).toBe(false)
     expect(saved).toEqual(['Hipot tester'])
+    wrapper.unmount()
+  })
+
+  it('lists every field message when asked, and asks for the success words after the save', async () => {
+    let saved = 0
+    const dialog = useEditDialog<null, string>(
+      async () => {
+        saved += 1
+        if (saved === 1)
+          throw new ApiError(400, 'validation_failed', 'bad', { reason: 'too short' })
+      },
+      () => `saved ${saved} time(s)`,
+    )
+    const form = reactive({ reason: '' })
+    const wrapper = mount(FormDialog, {
+      props: {
+        dialog,
+        title: 'Contain',
+        model: form,
+        submitLabel: 'Hold',
+        submitTest: 'hold-confirm',
+        isListingErrors: true,
+        onSubmit: () => dialog.submit(form.reason),
+      },
+      attachTo: document.body,
+    })
+    dialog.open(null)
+    await flushPromises()
+    const button = document.querySelector('[data-test=hold-confirm]') as HTMLButtonElement
+    button.click()
+    await flushPromises()
+    expect(document.querySelector('.form-dialog__error')?.textContent?.trim()).toBe('Too short')
+    expect(dialog.isOpen).toBe(true)
+
+    button.click()
+    await flushPromises()
+    expect(dialog.isOpen).toBe(false)
+    const messages = [...document.querySelectorAll('.el-message')].map((m) => m.textContent)
+    expect(messages).toContain('saved 2 time(s)')
     wrapper.unmount()
   })
 })

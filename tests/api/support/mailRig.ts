@@ -1,0 +1,32 @@
+import { startSmtpFake } from '../../../server/devMail/smtpFake'
+import { closeMail, setSmtpPortForTests } from '../../../server/mail'
+import { newQueueConnection } from '../../../server/redis'
+import { startMailWorker } from '../../../server/services/mail'
+import { closeMailQueue } from '../../../server/services/mail/queue'
+
+/**
+ * A fake SMTP server on a free loopback port with the mail worker sending to it, for tests
+ * that follow an e-mail out of the Outbox. Call `stop` in `afterAll`.
+ */
+export async function startMailRig() {
+  const fake = await startSmtpFake({ port: 0 })
+  setSmtpPortForTests(fake.port)
+  const connection = newQueueConnection()
+  const mail = startMailWorker(connection)
+  return {
+    fake,
+    /**
+     * Stops the worker and its queue, then the Redis connection, the transport and the fake.
+     * @param closeQueues closes the other queues a test used, before the connection goes
+     */
+    async stop(closeQueues?: () => Promise<void>) {
+      mail.stop()
+      await mail.worker.close()
+      await closeMailQueue()
+      await closeQueues?.()
+      await connection.quit()
+      closeMail()
+      await fake.close()
+    },
+  }
+}
