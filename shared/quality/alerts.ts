@@ -47,9 +47,9 @@ export interface RunRuleAlertDetails {
   kind: 'run_rule'
   /** Every rule broken in the episode, ascending. */
   rules: (1 | 2 | 3 | 4)[]
-  /** The check's nominal when it has one, else the mean of the lot's values. */
+  /** The check's nominal, or the median of the lot's values (the mean in alerts before episodes). */
   centre: number
-  centreSource: 'nominal' | 'lot_mean'
+  centreSource: 'nominal' | 'lot_median' | 'lot_mean'
   /** Within sigma: average moving range of the lot's values in build order / d2 (1.128). */
   sigma: number
   /** How many values the chart had when the episode was last judged. */
@@ -244,10 +244,12 @@ export function alertEmailSubject(a: AlertSubject): string {
 /** How the chart's centre and sigma were found, for the alert text. */
 export function chartBasis(d: RunRuleAlertDetails, unit: string | null): string {
   const u = unit ? ` ${unit}` : ''
-  const centre =
-    d.centreSource === 'nominal'
-      ? `centre ${formatFigure(d.centre)}${u} (the check's nominal)`
-      : `centre ${formatFigure(d.centre)}${u} (the lot mean; the check has no nominal)`
+  const whence = {
+    nominal: "the check's nominal",
+    lot_median: "the lot's median: this value carries the core's AL tolerance",
+    lot_mean: 'the lot mean; the check has no nominal',
+  }[d.centreSource]
+  const centre = `centre ${formatFigure(d.centre)}${u} (${whence})`
   return `${centre}; σ ${formatFigure(d.sigma)}${u} (within sigma: average moving range of the lot's ${d.points} values in build order / 1.128)`
 }
 

@@ -4,6 +4,7 @@
 // the series it read and stores what `planEpisodes` says.
 import { runRuleViolations } from './runRules'
 import { capability } from './spc'
+import { median } from './turnReview'
 
 /**
  * Run rules are judged only from this many values on: rule 4 needs 8 points, and a sigma from
@@ -31,7 +32,7 @@ export const NOT_ENOUGH_VARIATION = 'not enough variation to judge'
 export interface SeriesBasis {
   judgement: SeriesJudgement
   centre: number | null
-  centreSource: 'nominal' | 'lot_mean'
+  centreSource: 'nominal' | 'lot_median'
   /** Within sigma: average moving range / d2 (1.128); null when not judged. */
   sigma: number | null
 }
@@ -43,12 +44,12 @@ export interface SeriesBasis {
 const RELATIVE_NOISE = 1e-9
 
 /**
- * Centre (the nominal when given, else the series mean) and within sigma of a series in build
- * order. Fewer than RUN_RULE_MIN_POINTS values, or no spread (every value equal, or a sigma
+ * Centre (the nominal when given, else the series median, which a run of bad units does not
+ * drag towards itself) and within sigma of a series in build order. Fewer than RUN_RULE_MIN_POINTS values, or no spread (every value equal, or a sigma
  * that is rounding noise), is not judged: no rule can fire on it.
  */
 export function seriesBasis(values: readonly number[], nominal: number | null): SeriesBasis {
-  const centreSource = nominal === null ? 'lot_mean' : 'nominal'
+  const centreSource = nominal === null ? 'lot_median' : 'nominal'
   if (values.length < RUN_RULE_MIN_POINTS)
     return { judgement: 'too_few_points', centre: null, centreSource, sigma: null }
   const { mean, sdWithin } = capability(values)
@@ -56,7 +57,7 @@ export function seriesBasis(values: readonly number[], nominal: number | null): 
   const isFlat = values.every((v) => v === values[0])
   if (isFlat || mean === null || sdWithin === null || !(sdWithin > RELATIVE_NOISE * scale))
     return { judgement: 'no_spread', centre: null, centreSource, sigma: null }
-  return { judgement: 'judged', centre: nominal ?? mean, centreSource, sigma: sdWithin }
+  return { judgement: 'judged', centre: nominal ?? median(values)!, centreSource, sigma: sdWithin }
 }
 
 /** One out-of-control stretch of a series, by 0-based build-order index. */

@@ -4,6 +4,8 @@
 
 import { individualsChart, runRuleViolations } from './spc'
 import type { RuleViolation } from './spc'
+import { NOT_ENOUGH_VARIATION, RUN_RULE_MIN_POINTS } from './episodes'
+import type { SeriesJudgement } from './episodes'
 
 /**
  * A unit's inductance this many turns or more away from what the lot's median implies is a
@@ -78,25 +80,44 @@ export interface DeviationChart {
   ucl: number | null
   lcl: number | null
   violations: RuleViolation[]
+  /** Whether the run rules could judge the series: enough points and some spread. */
+  judgement: SeriesJudgement
+  /** "not enough variation to judge" when they could not, else null. */
+  judgementText: string | null
 }
 
 /**
  * Individuals chart of deviations in build order, centred on zero (the target is known, so a
  * run of miscounts does not drag the centre line towards itself and flag the good units by
  * rule 4), with σ from the moving range and Western Electric rules 1–4. Null limits and no
- * violations when there are fewer than 2 values or no spread.
+ * violations when there are fewer than 2 values or no spread; limits but no rules judged with
+ * fewer than RUN_RULE_MIN_POINTS values. Either way the chart says it cannot judge.
  */
 export function deviationChart(values: readonly number[]): DeviationChart {
-  if (values.length < 2) return { center: 0, sigma: null, ucl: null, lcl: null, violations: [] }
+  const unjudged = (judgement: SeriesJudgement, limits?: { sigma: number }): DeviationChart => ({
+    center: 0,
+    sigma: limits?.sigma ?? null,
+    ucl: limits ? 3 * limits.sigma : null,
+    lcl: limits ? -3 * limits.sigma : null,
+    violations: [],
+    judgement,
+    judgementText: NOT_ENOUGH_VARIATION,
+  })
+  if (values.length < 2) return unjudged('too_few_points')
   const chart = individualsChart(values)
   const sigma = (chart.ucl - chart.center) / 3
-  if (!(sigma > 0)) return { center: 0, sigma: null, ucl: null, lcl: null, violations: [] }
+  if (!(sigma > 0) || values.every((v) => v === values[0])) return unjudged('no_spread')
+  // The limits are drawn from 2 points on; the rules judge only from RUN_RULE_MIN_POINTS, as
+  // the alerts do (episodes.ts).
+  if (values.length < RUN_RULE_MIN_POINTS) return unjudged('too_few_points', { sigma })
   return {
     center: 0,
     sigma,
     ucl: 3 * sigma,
     lcl: -3 * sigma,
     violations: runRuleViolations(values, 0, sigma),
+    judgement: 'judged',
+    judgementText: null,
   }
 }
 

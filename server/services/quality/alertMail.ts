@@ -129,7 +129,7 @@ async function mailLead(
       transaction,
     },
   )
-  return null
+  return { isSent: true, dueAt: null }
 }
 
 /**

@@ -40,14 +40,17 @@ describe('seriesBasis', () => {
     expect(NOT_ENOUGH_VARIATION).toBe('not enough variation to judge')
   })
 
-  it('takes the nominal as centre when given, else the mean, and σ = MR̄ / 1.128', () => {
+  it('takes the nominal as centre when given, else the median, and σ = MR̄ / 1.128', () => {
     // d2 = 1.128 for moving ranges of 2 (NIST/SEMATECH e-Handbook §6.3.2, constants table).
     const b = seriesBasis(calm(10), 10.1)
     expect(b).toMatchObject({ judgement: 'judged', centre: 10.1, centreSource: 'nominal' })
     expect(b.sigma).toBeCloseTo(0.2 / 1.128, TOL)
     const m = seriesBasis(calm(10), null)
-    expect(m.centreSource).toBe('lot_mean')
+    expect(m.centreSource).toBe('lot_median')
     expect(m.centre).toBeCloseTo(10.1, TOL) // arithmetic: five 10.0 and five 10.2
+    // A run of bad units barely moves the median (constructed: 8 calm values, 4 at 15; the 6th
+    // and 7th of the 12 sorted are both 10.2), where the mean would move to 11.73.
+    expect(seriesBasis([...calm(8), 15, 15, 15, 15], null).centre).toBeCloseTo(10.2, TOL)
   })
 })
 
