@@ -3,8 +3,7 @@
 // alert and one e-mail, however many rules its points break. Pure: the alerts worker feeds in
 // the series it read and stores what `planEpisodes` says.
 import { runRuleViolations } from './runRules'
-import { capability } from './spc'
-import { median } from './turnReview'
+import { capability, median } from './spc'
 
 /**
  * Run rules are judged only from this many values on: rule 4 needs 8 points, and a sigma from

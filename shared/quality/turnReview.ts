@@ -3,6 +3,8 @@
 // ferrite: often ±25 %), so it is read against the lot's own median as well as the nominal.
 
 import { individualsChart, runRuleViolations } from './spc'
+
+export { median } from './spc'
 import type { RuleViolation } from './spc'
 import { NOT_ENOUGH_VARIATION, RUN_RULE_MIN_POINTS } from './episodes'
 import type { SeriesJudgement } from './episodes'
@@ -19,14 +21,6 @@ export const MEDIAN_SUSPECT_TURNS = 1.5
  * unit is judged against it and no core-lot offset is claimed. Common practice, no source.
  */
 export const MEDIAN_MIN_RUNS = 5
-
-/** Median of a list; null for an empty one. */
-export function median(values: readonly number[]): number | null {
-  if (!values.length) return null
-  const s = [...values].sort((a, b) => a - b)
-  const mid = Math.floor(s.length / 2)
-  return s.length % 2 ? s[mid]! : (s[mid - 1]! + s[mid]!) / 2
-}
 
 /**
  * Turns a unit's inductance implies relative to the lot median, minus the nominal:
