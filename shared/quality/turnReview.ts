@@ -6,7 +6,7 @@ import { individualsChart, runRuleViolations } from './spc'
 
 export { median } from './spc'
 import type { RuleViolation } from './spc'
-import { NOT_ENOUGH_VARIATION, RUN_RULE_MIN_POINTS } from './episodes'
+import { NOT_ENOUGH_VARIATION } from './episodes'
 import type { SeriesJudgement } from './episodes'
 
 /**
@@ -84,15 +84,16 @@ export interface DeviationChart {
  * Individuals chart of deviations in build order, centred on zero (the target is known, so a
  * run of miscounts does not drag the centre line towards itself and flag the good units by
  * rule 4), with σ from the moving range and Western Electric rules 1–4. Null limits and no
- * violations when there are fewer than 2 values or no spread; limits but no rules judged with
- * fewer than RUN_RULE_MIN_POINTS values. Either way the chart says it cannot judge.
+ * violations when there are fewer than 2 values or no spread, and the chart says it cannot
+ * judge. (The alerts wait for RUN_RULE_MIN_POINTS values before they e-mail anyone; the chart
+ * marks what the rules see from 2 values on.)
  */
 export function deviationChart(values: readonly number[]): DeviationChart {
-  const unjudged = (judgement: SeriesJudgement, limits?: { sigma: number }): DeviationChart => ({
+  const unjudged = (judgement: SeriesJudgement): DeviationChart => ({
     center: 0,
-    sigma: limits?.sigma ?? null,
-    ucl: limits ? 3 * limits.sigma : null,
-    lcl: limits ? -3 * limits.sigma : null,
+    sigma: null,
+    ucl: null,
+    lcl: null,
     violations: [],
     judgement,
     judgementText: NOT_ENOUGH_VARIATION,
@@ -101,9 +102,6 @@ export function deviationChart(values: readonly number[]): DeviationChart {
   const chart = individualsChart(values)
   const sigma = (chart.ucl - chart.center) / 3
   if (!(sigma > 0) || values.every((v) => v === values[0])) return unjudged('no_spread')
-  // The limits are drawn from 2 points on; the rules judge only from RUN_RULE_MIN_POINTS, as
-  // the alerts do (episodes.ts).
-  if (values.length < RUN_RULE_MIN_POINTS) return unjudged('too_few_points', { sigma })
   return {
     center: 0,
     sigma,

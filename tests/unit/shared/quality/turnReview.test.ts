@@ -105,19 +105,21 @@ describe('deviationChart', () => {
     expect(c).toMatchObject({ judgement: 'judged', judgementText: null })
   })
 
-  it('draws limits but judges no rule below 8 points', () => {
-    // Seven points: MR̄ 0.7 (arithmetic), limits drawn, rules not judged (rule 4 needs 8).
+  it('marks what the rules see from 2 values on', () => {
+    // Seven points: MR̄ 4.2 / 6 = 0.7 (arithmetic), 3σ = 1.8617; 2.02 is beyond: rule 1 at 2.
     const c = deviationChart([-0.02, 0.04, 2.02, -0.08, -0.02, -0.02, -0.02])
     expect(c.sigma).toBeCloseTo(0.7 / 1.128, 12)
-    expect(c).toMatchObject({
+    expect(c).toMatchObject({ violations: [{ rule: 1, index: 2 }], judgement: 'judged' })
+  })
+
+  it('gives no limits for one value or no spread', () => {
+    expect(deviationChart([1])).toMatchObject({
+      sigma: null,
+      ucl: null,
       violations: [],
       judgement: 'too_few_points',
       judgementText: 'not enough variation to judge',
     })
-  })
-
-  it('gives no limits for one value or no spread', () => {
-    expect(deviationChart([1])).toMatchObject({ sigma: null, ucl: null, violations: [] })
     expect(deviationChart([0.5, 0.5, 0.5])).toMatchObject({
       sigma: null,
       violations: [],
