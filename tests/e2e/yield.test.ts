@@ -21,6 +21,8 @@ describe('Yield board', { timeout: 120_000 }, () => {
 
   it('shows open alerts one line each above the figures, which stay on the first screen', async () => {
     const page = await openPage(e2e, 'yield-alerts')
+    // The tabs of one run share their cookies: start each test signed out.
+    await page.context().clearCookies()
     await page.setViewportSize({ width: 1280, height: 800 })
     await signInAs(e2e, page, 'lead', '/yield')
     await page.getByRole('heading', { name: 'Yield board' }).waitFor()
@@ -44,6 +46,7 @@ describe('Yield board', { timeout: 120_000 }, () => {
 
   it('shows each e-mail once in the Outbox, sent ones with their receipt', async () => {
     const page = await openPage(e2e, 'outbox')
+    await page.context().clearCookies()
     await page.setViewportSize({ width: 1280, height: 800 })
     await signInAs(e2e, page, 'admin', '/outbox')
     await page.getByRole('heading', { name: 'Outbox' }).waitFor()
@@ -60,6 +63,7 @@ describe('Yield board', { timeout: 120_000 }, () => {
 
   it('shows a lead the miscount lot and names the winding bench that caused it', async () => {
     const page = await openPage(e2e, 'yield-board')
+    await page.context().clearCookies()
     const picture = picturesOf(page)
 
     await signInAs(e2e, page, 'lead', '/yield')
