@@ -45,6 +45,8 @@ const EnvSchema = z.object({
   WAYMARK_SHOP_NAME: z.string().min(1).max(120).default('Ferncastle Power'),
   WAYMARK_MAIL_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(5),
   WAYMARK_MAIL_BACKOFF_MS: z.coerce.number().int().min(10).default(30_000),
+  // At most one alert digest per lead in this many minutes; 0 sends each alert's e-mail at once.
+  WAYMARK_ALERT_DIGEST_MINUTES: z.coerce.number().int().min(0).max(1440).default(60),
   WAYMARK_WORKERS: z.enum(['on', 'off']).default('on'),
   // How long a worker's hold on a job lasts, and how often workers look for jobs whose holder
   // died; BullMQ's defaults. The fault tests shorten them to see a killed worker's job run again.

@@ -3,7 +3,7 @@ import { simpleParser } from 'mailparser'
 import type { AddressObject, ParsedMail } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import type { SMTPServerSession } from 'smtp-server'
-import { UniqueConstraintError } from 'sequelize'
+import { Op, UniqueConstraintError } from 'sequelize'
 import type { EmailAttachmentRecord } from '../../shared/schemas/outbox'
 import { logger } from '../logger'
 import { db, Email } from '../models'
@@ -16,8 +16,25 @@ function addressText(a: AddressObject | AddressObject[] | undefined): string | u
   return (Array.isArray(a) ? a : [a]).map((x) => x.text).join(', ')
 }
 
-/** Files one parsed message as a `received` row; a Message-ID already filed is skipped. */
+/**
+ * A message the app itself sent (a row with its Message-ID that is not a copy) gets a delivery
+ * receipt on that row instead of a row of its own. True when one did.
+ */
+async function fileReceipt(messageId: string | undefined): Promise<boolean> {
+  if (!messageId) return false
+  const [count] = await Email.update(
+    { receiptAt: new Date() },
+    { where: { messageId, status: { [Op.ne]: 'received' } } },
+  )
+  return count > 0
+}
+
+/**
+ * Files one parsed message: a receipt on the row that sent it, else (mail the app did not send)
+ * a `received` row; a Message-ID already filed is skipped.
+ */
 async function fileMessage(parsed: ParsedMail, session: SMTPServerSession): Promise<void> {
+  if (await fileReceipt(parsed.messageId)) return
   const attachments: EmailAttachmentRecord[] = []
   for (const a of parsed.attachments) {
     const contentType = a.contentType || 'application/octet-stream'

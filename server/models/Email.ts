@@ -24,6 +24,8 @@ export class Email extends RecordModel<Email> {
   declare relatedId: string | null
   declare createdBy: string | null
   declare sentAt: Date | null
+  /** When the local mail fake filed its copy of this sent message (matched by Message-ID). */
+  declare receiptAt: CreationOptional<Date | null>
 }
 
 export function initEmail(sequelize: Sequelize): void {
@@ -61,5 +63,6 @@ export function initEmail(sequelize: Sequelize): void {
     relatedId: { type: DataTypes.UUID, allowNull: true },
     createdBy: { type: DataTypes.UUID, allowNull: true },
     sentAt: { type: DataTypes.DATE, allowNull: true },
+    receiptAt: { type: DataTypes.DATE, allowNull: true },
   })
 }

@@ -5,6 +5,14 @@ import { controlChartConstants } from './chartConstants'
 export { controlChartConstants, type ChartConstants } from './chartConstants'
 export { runRuleViolations, type RuleViolation } from './runRules'
 
+/** Median of a list; null for an empty one. */
+export function median(values: readonly number[]): number | null {
+  if (!values.length) return null
+  const s = [...values].sort((a, b) => a - b)
+  const mid = Math.floor(s.length / 2)
+  return s.length % 2 ? s[mid]! : (s[mid - 1]! + s[mid]!) / 2
+}
+
 /** Specification limits; either may be missing for a one-sided characteristic. */
 export interface SpecLimits {
   lower?: number

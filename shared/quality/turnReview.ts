@@ -3,7 +3,11 @@
 // ferrite: often ±25 %), so it is read against the lot's own median as well as the nominal.
 
 import { individualsChart, runRuleViolations } from './spc'
+
+export { median } from './spc'
 import type { RuleViolation } from './spc'
+import { NOT_ENOUGH_VARIATION } from './episodes'
+import type { SeriesJudgement } from './episodes'
 
 /**
  * A unit's inductance this many turns or more away from what the lot's median implies is a
@@ -17,14 +21,6 @@ export const MEDIAN_SUSPECT_TURNS = 1.5
  * unit is judged against it and no core-lot offset is claimed. Common practice, no source.
  */
 export const MEDIAN_MIN_RUNS = 5
-
-/** Median of a list; null for an empty one. */
-export function median(values: readonly number[]): number | null {
-  if (!values.length) return null
-  const s = [...values].sort((a, b) => a - b)
-  const mid = Math.floor(s.length / 2)
-  return s.length % 2 ? s[mid]! : (s[mid - 1]! + s[mid]!) / 2
-}
 
 /**
  * Turns a unit's inductance implies relative to the lot median, minus the nominal:
@@ -78,25 +74,42 @@ export interface DeviationChart {
   ucl: number | null
   lcl: number | null
   violations: RuleViolation[]
+  /** Whether the run rules could judge the series: enough points and some spread. */
+  judgement: SeriesJudgement
+  /** "not enough variation to judge" when they could not, else null. */
+  judgementText: string | null
 }
 
 /**
  * Individuals chart of deviations in build order, centred on zero (the target is known, so a
  * run of miscounts does not drag the centre line towards itself and flag the good units by
  * rule 4), with σ from the moving range and Western Electric rules 1–4. Null limits and no
- * violations when there are fewer than 2 values or no spread.
+ * violations when there are fewer than 2 values or no spread, and the chart says it cannot
+ * judge. (The alerts wait for RUN_RULE_MIN_POINTS values before they e-mail anyone; the chart
+ * marks what the rules see from 2 values on.)
  */
 export function deviationChart(values: readonly number[]): DeviationChart {
-  if (values.length < 2) return { center: 0, sigma: null, ucl: null, lcl: null, violations: [] }
+  const unjudged = (judgement: SeriesJudgement): DeviationChart => ({
+    center: 0,
+    sigma: null,
+    ucl: null,
+    lcl: null,
+    violations: [],
+    judgement,
+    judgementText: NOT_ENOUGH_VARIATION,
+  })
+  if (values.length < 2) return unjudged('too_few_points')
   const chart = individualsChart(values)
   const sigma = (chart.ucl - chart.center) / 3
-  if (!(sigma > 0)) return { center: 0, sigma: null, ucl: null, lcl: null, violations: [] }
+  if (!(sigma > 0) || values.every((v) => v === values[0])) return unjudged('no_spread')
   return {
     center: 0,
     sigma,
     ucl: 3 * sigma,
     lcl: -3 * sigma,
     violations: runRuleViolations(values, 0, sigma),
+    judgement: 'judged',
+    judgementText: null,
   }
 }
 

@@ -44,6 +44,8 @@ export interface EmailSummaryDto {
   related: { entity: string; id: string } | null
   createdAt: string
   sentAt: string | null
+  /** When the local mail fake filed its copy of this sent message: a delivery receipt. */
+  receiptAt: string | null
 }
 
 /** One e-mail with its bodies and attachments. */

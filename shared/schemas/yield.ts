@@ -3,6 +3,7 @@ import { text } from './common'
 import type { ProportionInterval } from '../quality/proportion'
 import type { Capability, RuleViolation } from '../quality/spc'
 import type { TurnVerdict } from '../quality/turnReview'
+import type { SeriesJudgement } from '../quality/episodes'
 import type { StationKind } from '../stations'
 
 const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
@@ -211,6 +212,10 @@ export interface TurnChartDto {
   ucl: number | null
   lcl: number | null
   violations: RuleViolation[]
+  /** Whether the run rules could judge the series: enough points and some spread. */
+  judgement: SeriesJudgement
+  /** "not enough variation to judge" when they could not, else null. */
+  judgementText: string | null
 }
 
 /** Histogram bar: deviations (turns) in [from, to) from the ratio test and from inductance. */

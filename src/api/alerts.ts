@@ -1,4 +1,4 @@
-import type { AlertDto, AlertQuery } from '@shared/schemas/alerts'
+import type { AlertDto, AlertQuery, AlertsAcknowledgedDto } from '@shared/schemas/alerts'
 import { json, request } from './client'
 import { toSearchParams } from './query'
 
@@ -8,4 +8,7 @@ export const alertsApi = {
   /** Lead only; 409 `alert_acknowledged` when someone acknowledged it first. */
   acknowledge: (id: string) =>
     request<AlertDto>(`/alerts/${encodeURIComponent(id)}/acknowledge`, json('POST')),
+  /** Lead only: every open alert, or every open alert of one lot. */
+  acknowledgeAll: (lotId?: string) =>
+    request<AlertsAcknowledgedDto>('/alerts/acknowledge', json('POST', lotId ? { lotId } : {})),
 }

@@ -39,8 +39,23 @@ export function useAlerts(lotId: MaybeRefOrGetter<string | undefined>, intervalM
     }
   }
 
+  /**
+   * Acknowledges every open alert, or those of one lot, then loads the list again (the server
+   * says which it acknowledged; others may have come meanwhile). Throws ApiError.
+   */
+  async function acknowledgeAll(ofLotId?: string): Promise<number> {
+    busyId.value = ofLotId ? `lot:${ofLotId}` : 'all'
+    try {
+      const done = await alertsApi.acknowledgeAll(ofLotId)
+      await refresh()
+      return done.acknowledged
+    } finally {
+      busyId.value = null
+    }
+  }
+
   watch(() => toValue(lotId), refresh, { immediate: true })
   const timer = setInterval(() => void refresh(), intervalMs)
   onScopeDispose(() => clearInterval(timer))
-  return { alerts, isLoading, error, busyId, openCount, refresh, acknowledge }
+  return { alerts, isLoading, error, busyId, openCount, refresh, acknowledge, acknowledgeAll }
 }

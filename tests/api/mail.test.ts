@@ -1,12 +1,17 @@
 import { createServer } from 'node:net'
+import { createTransport } from 'nodemailer'
+import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
+import { startSmtpFake } from '../../server/devMail/smtpFake'
+import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { db, Email, User } from '../../server/models'
-import { setSmtpPortForTests } from '../../server/mail'
+import { closeMailQueue } from '../../server/services/mail/queue'
+import { newQueueConnection } from '../../server/redis'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/audit'
+import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
-import { startMailRig } from './support/mailRig'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.
 vi.hoisted(() => {
@@ -20,7 +25,9 @@ const PDF = Buffer.from(
     '2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
 )
 
-let mailRig: Awaited<ReturnType<typeof startMailRig>>
+let fake: Awaited<ReturnType<typeof startSmtpFake>>
+let connection: Redis
+let mail: ReturnType<typeof startMailWorker>
 let actor: Actor
 
 async function waitForStatus(id: string, status: string): Promise<Email> {
@@ -28,6 +35,16 @@ async function waitForStatus(id: string, status: string): Promise<Email> {
   for (;;) {
     const row = (await Email.findByPk(id))!
     if (row.status === status || Date.now() > deadline) return row
+    await new Promise((r) => setTimeout(r, 100))
+  }
+}
+
+/** The first truthy answer of `read`, polled until a deadline (then its last answer). */
+async function waitFor<T>(read: () => Promise<T>): Promise<T> {
+  const deadline = Date.now() + 15_000
+  for (;;) {
+    const value = await read()
+    if (value || Date.now() > deadline) return value
     await new Promise((r) => setTimeout(r, 100))
   }
 }
@@ -59,43 +76,50 @@ async function queue(subject: string, withPdf: boolean): Promise<string> {
 }
 
 beforeAll(async () => {
-  mailRig = await startMailRig()
+  fake = await startSmtpFake({ port: 0 })
+  setSmtpPortForTests(fake.port)
   const admin = (await User.findOne({ where: { email: 'admin@ferncastle.example' } }))!
   actor = { id: admin.id, email: admin.email }
+  connection = newQueueConnection()
+  mail = startMailWorker(connection)
 })
 
-afterAll(() => mailRig.stop())
+afterAll(async () => {
+  mail.stop()
+  await mail.worker.close()
+  await closeMailQueue()
+  await connection.quit()
+  closeMail()
+  await fake.close()
+})
 
 describe('mail', () => {
-  it('sends a queued e-mail once, with its attachment, and the fake files it', async () => {
+  it('sends a queued e-mail once, and the Outbox shows it once with its delivery receipt', async () => {
     const subject = `Lot certificate ${uniqueSuffix()}`
     const id = await queue(subject, true)
+    // The Message-ID is fixed when the row is written, before any send.
+    expect((await Email.findByPk(id))!.messageId).toMatch(new RegExp(`^<${id}@`))
     const sent = await waitForStatus(id, 'sent')
     expect(sent.status).toBe('sent')
     expect(sent.attempts).toBe(1)
     expect(sent.messageId).toMatch(new RegExp(`^<${id}@`))
     expect(sent.sentAt).toBeInstanceOf(Date)
 
-    const received = await Email.findAll({ where: { status: 'received', subject } })
-    expect(received).toHaveLength(1)
-    expect(received[0].toAddresses).toEqual(['quality@customer.example'])
-    expect(received[0].messageId).toBe(sent.messageId)
-    expect(received[0].attachments).toHaveLength(1)
-    expect(received[0].attachments[0]).toMatchObject({
-      filename: 'coc.pdf',
-      contentType: 'application/pdf',
-      size: PDF.length,
-    })
+    // The fake matched its copy to the sent row by Message-ID: a receipt, not a row of its own.
+    const receipted = await waitFor(async () => (await Email.findByPk(id))!.receiptAt)
+    expect(receipted).toBeInstanceOf(Date)
+    expect(await Email.count({ where: { status: 'received', subject } })).toBe(0)
 
     const admin = await signedInAs('admin')
-    const page = (await admin.get('/api/outbox?status=received&pageSize=200').expect(200))
-      .body as OutboxPageDto
-    const row = page.rows.find((r) => r.subject === subject)
-    expect(row?.attachmentCount).toBe(1)
-    const one = (await admin.get(`/api/outbox/${row!.id}`).expect(200)).body as EmailDto
+    const page = (await admin.get('/api/outbox?pageSize=200').expect(200)).body as OutboxPageDto
+    const rows = page.rows.filter((r) => r.subject === subject)
+    expect(rows).toHaveLength(1)
+    expect(rows[0]).toMatchObject({ id, status: 'sent', attachmentCount: 1 })
+    expect(rows[0]!.receiptAt).not.toBeNull()
+    const one = (await admin.get(`/api/outbox/${id}`).expect(200)).body as EmailDto
     expect(one.text).toContain('certificate of conformity')
     const file = await admin
-      .get(`/api/outbox/${row!.id}/attachments/0`)
+      .get(`/api/outbox/${id}/attachments/0`)
       .buffer(true)
       .parse((res, done) => {
         const chunks: Buffer[] = []
@@ -105,7 +129,59 @@ describe('mail', () => {
       .expect(200)
     expect(file.headers['content-type']).toMatch(/^application\/pdf/)
     expect(Buffer.compare(file.body as Buffer, PDF)).toBe(0)
-    await admin.get(`/api/outbox/${row!.id}/attachments/1`).expect(404)
+    await admin.get(`/api/outbox/${id}/attachments/1`).expect(404)
+  })
+
+  it('files mail the app did not send as a received row of its own', async () => {
+    const subject = `From outside ${uniqueSuffix()}`
+    const messageId = `<outside-${uniqueSuffix()}@elsewhere.example>`
+    const transport = createTransport({
+      host: '127.0.0.1',
+      port: fake.port,
+      secure: false,
+      ignoreTLS: true,
+    })
+    try {
+      await transport.sendMail({
+        from: 'someone@elsewhere.example',
+        to: 'lead@ferncastle.example',
+        subject,
+        text: 'Not from Waymark.',
+        messageId,
+      })
+    } finally {
+      transport.close()
+    }
+    const rows = await Email.findAll({ where: { subject } })
+    expect(rows.map((r) => [r.status, r.messageId])).toEqual([['received', messageId]])
+    const admin = await signedInAs('admin')
+    const page = (await admin.get('/api/outbox?status=received&pageSize=200').expect(200))
+      .body as OutboxPageDto
+    expect(page.rows.filter((r) => r.subject === subject)).toHaveLength(1)
+  })
+
+  it('hides a copy filed before receipts existed behind the row that sent it', async () => {
+    const subject = `Filed twice ${uniqueSuffix()}`
+    const id = await queue(subject, false)
+    const sent = await waitForStatus(id, 'sent')
+    // A copy as the fake filed it before it matched Message-IDs.
+    await Email.create({
+      status: 'received',
+      toAddresses: sent.toAddresses,
+      fromAddress: sent.fromAddress,
+      subject,
+      textBody: sent.textBody,
+      htmlBody: null,
+      messageId: sent.messageId,
+      error: null,
+      relatedEntity: null,
+      relatedId: null,
+      createdBy: null,
+      sentAt: sent.sentAt,
+    })
+    const admin = await signedInAs('admin')
+    const page = (await admin.get('/api/outbox?pageSize=200').expect(200)).body as OutboxPageDto
+    expect(page.rows.filter((r) => r.subject === subject).map((r) => r.id)).toEqual([id])
   })
 
   it('does not send an e-mail that is already sent', async () => {
@@ -115,7 +191,8 @@ describe('mail', () => {
     const { sendEmail } = await import('../../server/services/mail/mailDelivery')
     await sendEmail(id)
     expect((await Email.findByPk(id))!.attempts).toBe(1)
-    expect(await Email.count({ where: { status: 'received', subject } })).toBe(1)
+    expect(await waitFor(async () => (await Email.findByPk(id))!.receiptAt)).toBeInstanceOf(Date)
+    expect(await Email.count({ where: { status: 'received', subject } })).toBe(0)
   })
 
   it('marks an e-mail failed with the reason after its last attempt', async () => {
@@ -127,7 +204,7 @@ describe('mail', () => {
       expect(failed.attempts).toBe(2)
       expect(failed.error).toMatch(/ECONNREFUSED|connect/i)
     } finally {
-      setSmtpPortForTests(mailRig.fake.port)
+      setSmtpPortForTests(fake.port)
     }
   })
 

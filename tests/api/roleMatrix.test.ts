@@ -118,6 +118,7 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/yield/summary', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/alerts', who: ['lead', 'engineer', 'admin'] },
+  { method: 'post', path: '/api/alerts/acknowledge', who: ['lead'] },
   { method: 'post', path: '/api/alerts/:id/acknowledge', who: ['lead'] },
   { method: 'get', path: '/api/imports', who: ['lead', 'engineer'] },
   { method: 'post', path: '/api/imports', who: ['lead', 'engineer'] },

@@ -263,7 +263,7 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
   })
 
   describe('e-mailing a document', () => {
-    it('queues a finished certificate to the customer’s contact, and the fake receives the PDF', async () => {
+    it('queues a finished certificate to the customer’s contact, and the fake files a receipt', async () => {
       const shipment = (await Shipment.findOne({ where: { customerId: customer.id } }))!
       const detail = (await service.get(`/api/shipments/${shipment.id}`)).body as ShipmentDto
       const cert = detail.documents.find((d) => d.kind === 'certificate' && d.status === 'done')!
@@ -281,17 +281,19 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
       expect(
         await AuditEvent.count({ where: { action: 'document.email', entityId: cert.id } }),
       ).toBe(1)
-      const received = await waitFor(
-        () => Email.findOne({ where: { status: 'received', subject: queued.subject } }),
-        'the fake SMTP server to file the message',
-      )
-      expect(received.toAddresses).toEqual([customer.contactEmail])
-      expect(received.textBody).toContain('As promised on the phone.')
+      // The fake files its copy as a delivery receipt on the sent row (matched by Message-ID).
+      const receipted = await waitFor(async () => {
+        const e = await Email.findByPk(queued.id)
+        return e?.receiptAt ? e : null
+      }, 'the fake SMTP server to file the message')
+      expect(receipted.toAddresses).toEqual([customer.contactEmail])
+      expect(receipted.textBody).toContain('As promised on the phone.')
+      expect(await Email.count({ where: { status: 'received', subject: queued.subject } })).toBe(0)
       const admin = await signedInAs('admin')
-      const page = (await admin.get('/api/outbox?status=received&pageSize=200'))
-        .body as OutboxPageDto
-      const row = page.rows.find((r) => r.id === received.id)!
+      const page = (await admin.get('/api/outbox?pageSize=200')).body as OutboxPageDto
+      const row = page.rows.find((r) => r.id === queued.id)!
       expect(row.attachmentCount).toBe(1)
+      expect(row.receiptAt).not.toBeNull()
       const pdf = await binary(admin.get(`/api/outbox/${row.id}/attachments/0`)).expect(200)
       const text = await pdfText(pdf.body as Buffer)
       expect(text).toContain('Certificate of conformance')

@@ -1,5 +1,5 @@
 import type { Redis } from 'ioredis'
-import { QueryTypes } from 'sequelize'
+import { Op, QueryTypes } from 'sequelize'
 import { describe, expect, it } from 'vitest'
 import { startSmtpFake } from '../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../server/mail'
@@ -73,7 +73,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     await expect.poll(() => page.locator('[data-test=trace-serial]').textContent()).toBe(serial)
     expect(await page.getByText('History, step by step').isVisible()).toBe(true)
 
-    const sentBefore = await Email.count({ where: { status: 'received' } })
+    const sentBefore = await Email.count({ where: { receiptAt: { [Op.ne]: null } } })
     await page.getByRole('button', { name: `Make certificate for ${serial}` }).click()
     // The documents worker makes it; the list polls until it is ready to send.
     const emailButton = page.getByRole('button', { name: 'E-mail to customer' }).first()
@@ -90,13 +90,14 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     await dialog.getByRole('button', { name: 'Queue e-mail' }).click()
     await page.getByText('E-mail queued').waitFor()
 
-    // The fake SMTP server filed the message with the certificate attached.
+    // The fake SMTP server filed the message: a delivery receipt on the sent row, which
+    // carries the certificate.
     await expect
-      .poll(() => Email.count({ where: { status: 'received' } }), { timeout: 30_000 })
+      .poll(() => Email.count({ where: { receiptAt: { [Op.ne]: null } } }), { timeout: 30_000 })
       .toBeGreaterThan(sentBefore)
     const received = await Email.findOne({
-      where: { status: 'received' },
-      order: [['createdAt', 'DESC']],
+      where: { receiptAt: { [Op.ne]: null } },
+      order: [['receiptAt', 'DESC']],
     })
     expect(received!.subject).toContain(serial)
     expect(received!.attachments.map((a) => a.contentType)).toContain('application/pdf')

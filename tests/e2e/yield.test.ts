@@ -2,6 +2,7 @@ import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
 import { MISCOUNT_ORDER_REF } from '../../server/seed/demoMiscountLot'
+import { evaluateLotStep, lotStepsRunSince } from '../../server/services/quality'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */
@@ -9,11 +10,60 @@ function demoLots(page: Page): Promise<LotDto[]> {
   return page.evaluate(async () => (await fetch('/api/lots')).json()) as Promise<LotDto[]>
 }
 
+/** Judges every lot step of the demo data, as the alerts worker would after its scans. */
+async function judgeDemo(): Promise<void> {
+  for (const { lotId, stepId } of await lotStepsRunSince(new Date(0)))
+    await evaluateLotStep(lotId, stepId)
+}
+
 describe('Yield board', { timeout: 120_000 }, () => {
-  const e2e = useE2eApp()
+  const e2e = useE2eApp({ before: judgeDemo, timeout: 120_000 })
+
+  it('shows open alerts one line each above the figures, which stay on the first screen', async () => {
+    const page = await openPage(e2e, 'yield-alerts')
+    // The tabs of one run share their cookies: start each test signed out.
+    await page.context().clearCookies()
+    await page.setViewportSize({ width: 1280, height: 800 })
+    await signInAs(e2e, page, 'lead', '/yield')
+    await page.getByRole('heading', { name: 'Yield board' }).waitFor()
+    const panel = page.getByRole('region', { name: 'Quality alerts' })
+    await expect.poll(() => panel.textContent()).toMatch(/\d+ open alert/)
+    const lines = panel.locator('.alerts__item')
+    expect(await lines.count()).toBeLessThanOrEqual(4)
+    // Each alert is one line: no taller than two rows of text.
+    for (const box of await lines.evaluateAll((els) => els.map((e) => e.clientHeight)))
+      expect(box).toBeLessThan(48)
+    // The figures start on the first screen, whatever the number of alerts.
+    const lots = page.getByRole('heading', { name: /^Lots/ })
+    await lots.waitFor()
+    expect((await lots.boundingBox())!.y).toBeLessThan(800)
+    if ((await lines.count()) > 0) {
+      await panel.getByRole('button', { name: 'Figures' }).first().click()
+      await panel.locator('.alerts__figures').waitFor()
+    }
+    await picturesOf(page)('yield-alerts')
+  })
+
+  it('shows each e-mail once in the Outbox, sent ones with their receipt', async () => {
+    const page = await openPage(e2e, 'outbox')
+    await page.context().clearCookies()
+    await page.setViewportSize({ width: 1280, height: 800 })
+    await signInAs(e2e, page, 'admin', '/outbox')
+    await page.getByRole('heading', { name: 'Outbox' }).waitFor()
+    await page.locator('.el-table__row').first().waitFor()
+    const rows = await page
+      .locator('.el-table__row')
+      .evaluateAll((trs) => trs.map((tr) => (tr as HTMLElement).innerText.split('\t')))
+    // A message the app sent never shows again as a received copy of the same subject.
+    const sent = new Set(rows.filter((r) => !/Received/.test(r[0] ?? '')).map((r) => r[2]))
+    const copies = rows.filter((r) => /Received/.test(r[0] ?? '') && sent.has(r[2]))
+    expect(copies).toEqual([])
+    await picturesOf(page)('outbox')
+  })
 
   it('shows a lead the miscount lot and names the winding bench that caused it', async () => {
     const page = await openPage(e2e, 'yield-board')
+    await page.context().clearCookies()
     const picture = picturesOf(page)
 
     await signInAs(e2e, page, 'lead', '/yield')

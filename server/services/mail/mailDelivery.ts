@@ -16,22 +16,30 @@ export async function sendEmail(id: string): Promise<void> {
   // A draft waits for a person to send it; a stray job for one sends nothing.
   if (email.status === 'sent' || email.status === 'received' || email.status === 'draft') return
   await email.increment('attempts')
+  // The mail fake matches its copy to this row by Message-ID: fix it before the send.
+  const messageId = email.messageId ?? `<${email.id}@${mailDomain()}>`
+  if (!email.messageId) await email.update({ messageId })
   const attachments = []
   for (const a of email.attachments) {
     const file = await getFile(a.storageKey)
     attachments.push({ filename: a.filename, contentType: a.contentType, content: file.body })
   }
   try {
-    const { messageId } = await deliverMail({
+    const sent = await deliverMail({
       from: email.fromAddress,
       to: email.toAddresses,
       subject: email.subject,
       text: email.textBody,
       html: email.htmlBody ?? undefined,
       attachments,
-      messageId: `<${email.id}@${mailDomain()}>`,
+      messageId,
     })
-    await email.update({ status: 'sent', messageId, sentAt: new Date(), error: null })
+    await email.update({
+      status: 'sent',
+      messageId: sent.messageId,
+      sentAt: new Date(),
+      error: null,
+    })
   } catch (err) {
     // Keep the latest reason on the row while the job retries, so the Outbox shows why.
     await email.update({ error: (err as Error).message })

@@ -1,3 +1,5 @@
+import { randomUUID } from 'node:crypto'
+import { Op } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import type {
   EmailAttachmentRecord,
@@ -7,8 +9,9 @@ import type {
   OutboxQuery,
 } from '../../../shared/schemas/outbox'
 import { env } from '../../env'
+import { mailDomain } from '../../mail'
 import { AppError } from '../../errors'
-import { Email } from '../../models'
+import { db, Email } from '../../models'
 import { enqueueMail } from './queue'
 import { putFile } from '../../storage'
 import { changedFields, recordAudit } from '../admin'
@@ -44,7 +47,17 @@ function toSummaryDto(e: Email): EmailSummaryDto {
     related: e.relatedEntity && e.relatedId ? { entity: e.relatedEntity, id: e.relatedId } : null,
     createdAt: e.createdAt.toISOString(),
     sentAt: e.sentAt?.toISOString() ?? null,
+    receiptAt: e.receiptAt?.toISOString() ?? null,
   }
+}
+
+/**
+ * A new e-mail row's id and Message-ID, fixed before it is sent: the mail fake matches its copy
+ * to the row by it, and a retried send goes out under the same one.
+ */
+function newIdentity(): { id: string; messageId: string } {
+  const id = randomUUID()
+  return { id, messageId: `<${id}@${mailDomain()}>` }
 }
 
 function toEmailDto(e: Email): EmailDto {
@@ -100,13 +113,13 @@ export async function queueEmail(
   const attachments = await storeAttachments(mail.attachments ?? [])
   const email = await Email.create(
     {
+      ...newIdentity(),
       toAddresses: to,
       fromAddress: env.MAIL_FROM,
       subject: mail.subject,
       textBody: mail.text,
       htmlBody: mail.html ?? null,
       attachments,
-      messageId: null,
       error: null,
       relatedEntity: mail.related?.entity ?? null,
       relatedId: mail.related?.id ?? null,
@@ -134,9 +147,22 @@ export async function queueEmail(
   return toEmailDto(email)
 }
 
-/** A page of the Outbox, newest first, optionally of one status. */
+/**
+ * A copy the mail fake filed of a message the app sent (before copies became receipts on the
+ * sent row): the sent row stands for it, so the list leaves it out.
+ */
+const SENT_COPY = `"Email"."status" = 'received' AND EXISTS (SELECT 1 FROM emails o
+  WHERE o.message_id = "Email"."message_id" AND o.status <> 'received')`
+
+/**
+ * A page of the Outbox, newest first, optionally of one status: each message once, a sent one
+ * with its delivery receipt, and as `received` only mail the app did not send.
+ */
 export async function listEmails(q: OutboxQuery): Promise<OutboxPageDto> {
-  const where: WhereOptions<Email> = q.status ? { status: q.status } : {}
+  const where: WhereOptions<Email> = {
+    ...(q.status ? { status: q.status } : {}),
+    [Op.and]: [db().literal(`NOT (${SENT_COPY})`)],
+  }
   const { rows, count } = await Email.findAndCountAll({
     where,
     order: [
@@ -178,13 +204,13 @@ export async function draftEmail(
   if (to.length === 0) throw AppError.badRequest('an e-mail needs at least one recipient')
   const email = await Email.create(
     {
+      ...newIdentity(),
       status: 'draft',
       toAddresses: to,
       fromAddress: env.MAIL_FROM,
       subject: mail.subject,
       textBody: mail.text,
       htmlBody: null,
-      messageId: null,
       error: null,
       relatedEntity: mail.related?.entity ?? null,
       relatedId: mail.related?.id ?? null,

@@ -3,15 +3,13 @@ import type { Redis } from 'ioredis'
 import { logger } from '../../logger'
 import { redisPrefix } from '../../redis'
 import { jobLocks, makeProducer, STANDARD_JOB_OPTIONS } from '../../queue'
-import { evaluateLotStep, lotStepsRunSince } from './alerts'
+import { evaluateLotStep, lotStepsRunSince, sendDueDigests } from './alerts'
 
 /** The queue the alerts worker (below) takes "re-evaluate this lot's step" jobs from. */
 export const ALERTS_QUEUE = 'alerts'
 
-export interface AlertJob {
-  lotId: string
-  stepId: string
-}
+/** Re-evaluate a lot's step, or (`leadId`) send a lead's digest once its window is over. */
+export type AlertJob = { lotId: string; stepId: string } | { leadId: string }
 
 const producer = makeProducer<AlertJob>(ALERTS_QUEUE, STANDARD_JOB_OPTIONS)
 
@@ -68,9 +66,38 @@ const FIRST_SWEEP_LOOKBACK_MS = 24 * 3600_000
 /** Each later sweep starts a little before the previous one did, so no run falls in a gap. */
 const SWEEP_OVERLAP_MS = 60_000
 
-/** The job: re-evaluate one lot's step and raise (store and e-mail) any new alert. */
-export async function processAlertJob(data: AlertJob): Promise<{ raised: number }> {
-  return { raised: await evaluateLotStep(data.lotId, data.stepId) }
+/**
+ * Schedules a lead's digest for when its window is over: one delayed job per lead and due time
+ * (the job id), so asking twice leaves one. A lost job is made up by the sweep.
+ */
+export async function enqueueDigest(leadId: string, dueAt: Date): Promise<void> {
+  await producer.add(
+    'digest',
+    { leadId },
+    {
+      jobId: `digest-${leadId}-${dueAt.getTime()}`,
+      delay: Math.max(0, dueAt.getTime() - Date.now()),
+    },
+    { leadId },
+    'alert digest not scheduled now; the sweep will send it',
+  )
+}
+
+/**
+ * The job: re-evaluate one lot's step (store and e-mail new episodes, end those back in control),
+ * or send the digests that are due. Digests still in their window are scheduled for its end.
+ */
+export async function processAlertJob(
+  data: AlertJob,
+): Promise<{ raised: number; ended: number } | { sent: number }> {
+  if ('leadId' in data) {
+    const { sent, later } = await sendDueDigests()
+    for (const d of later) await enqueueDigest(d.leadId, d.dueAt)
+    return { sent }
+  }
+  const { raised, ended, digests } = await evaluateLotStep(data.lotId, data.stepId)
+  for (const d of digests) await enqueueDigest(d.leadId, d.dueAt)
+  return { raised, ended }
 }
 
 /**
@@ -78,6 +105,9 @@ export async function processAlertJob(data: AlertJob): Promise<{ raised: number 
  * Redis outage lost). Throws when Redis does not take them, so the caller keeps its `since`.
  */
 export async function sweepAlerts(since: Date): Promise<number> {
+  // Digests whose job was lost: send those due, schedule the rest.
+  const { later } = await sendDueDigests()
+  for (const d of later) await enqueueDigest(d.leadId, d.dueAt)
   const pairs = await lotStepsRunSince(since)
   for (const { lotId, stepId } of pairs)
     await alertsQueue().add(

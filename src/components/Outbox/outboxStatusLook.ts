@@ -14,6 +14,6 @@ export const EMAIL_STATUS_LOOK: Record<EmailStatus, { label: string; mark: strin
     received: {
       label: 'Received',
       mark: '↓',
-      hint: 'Caught by the test mail catcher, not delivered',
+      hint: 'Mail Waymark did not send, caught by the local mail server',
     },
   }

@@ -94,19 +94,38 @@ describe('histogram', () => {
 
 describe('deviationChart', () => {
   it('centres on zero with σ from the moving range and marks rule 1', () => {
-    // Moving ranges 0.06, 1.98, 2.10, 0.06, 0, 0 → MR̄ 0.7, σ = 0.7/1.128 (d2 for n = 2,
-    // NIST/SEMATECH e-Handbook §6.3.2); 3σ = 1.8617, so only 2.02 is beyond: rule 1 at 2.
-    const c = deviationChart([-0.02, 0.04, 2.02, -0.08, -0.02, -0.02, -0.02])
+    // Moving ranges 0.06, 1.98, 2.10, 0.06, 0, 0, 0 → MR̄ 4.2 / 7 = 0.6, σ = 0.6/1.128 (d2 for
+    // n = 2, NIST/SEMATECH e-Handbook §6.3.2); 3σ = 1.5957, so only 2.02 is beyond: rule 1 at 2.
+    const c = deviationChart([-0.02, 0.04, 2.02, -0.08, -0.02, -0.02, -0.02, -0.02])
     expect(c.center).toBe(0)
-    expect(c.sigma).toBeCloseTo(0.7 / 1.128, 12)
-    expect(c.ucl).toBeCloseTo((3 * 0.7) / 1.128, 12)
-    expect(c.lcl).toBeCloseTo((-3 * 0.7) / 1.128, 12)
+    expect(c.sigma).toBeCloseTo(0.6 / 1.128, 12)
+    expect(c.ucl).toBeCloseTo((3 * 0.6) / 1.128, 12)
+    expect(c.lcl).toBeCloseTo((-3 * 0.6) / 1.128, 12)
     expect(c.violations).toEqual([{ rule: 1, index: 2 }])
+    expect(c).toMatchObject({ judgement: 'judged', judgementText: null })
+  })
+
+  it('marks what the rules see from 2 values on', () => {
+    // Seven points: MR̄ 4.2 / 6 = 0.7 (arithmetic), 3σ = 1.8617; 2.02 is beyond: rule 1 at 2.
+    const c = deviationChart([-0.02, 0.04, 2.02, -0.08, -0.02, -0.02, -0.02])
+    expect(c.sigma).toBeCloseTo(0.7 / 1.128, 12)
+    expect(c).toMatchObject({ violations: [{ rule: 1, index: 2 }], judgement: 'judged' })
   })
 
   it('gives no limits for one value or no spread', () => {
-    expect(deviationChart([1])).toMatchObject({ sigma: null, ucl: null, violations: [] })
-    expect(deviationChart([0.5, 0.5, 0.5])).toMatchObject({ sigma: null, violations: [] })
+    expect(deviationChart([1])).toMatchObject({
+      sigma: null,
+      ucl: null,
+      violations: [],
+      judgement: 'too_few_points',
+      judgementText: 'not enough variation to judge',
+    })
+    expect(deviationChart([0.5, 0.5, 0.5])).toMatchObject({
+      sigma: null,
+      violations: [],
+      judgement: 'no_spread',
+      judgementText: 'not enough variation to judge',
+    })
   })
 })
 

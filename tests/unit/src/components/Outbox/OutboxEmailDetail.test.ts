@@ -17,6 +17,7 @@ function email(overrides: Partial<EmailDto> = {}): EmailDto {
     related: null,
     createdAt: '2026-03-04T14:05:00.000Z',
     sentAt: '2026-03-04T14:05:09.000Z',
+    receiptAt: null,
     text: 'Hello,\nthe lot is released.',
     html: null,
     messageId: '<abc@example.com>',
@@ -44,6 +45,19 @@ describe('OutboxEmailDetail', () => {
     expect(wrapper.find('img').exists()).toBe(false)
     expect(wrapper.find('details pre').text()).toBe(html)
     expect(wrapper.find('details').attributes('open')).toBeDefined()
+  })
+
+  it('shows the delivery receipt of a sent e-mail, or that there is none yet', () => {
+    const none = mount(OutboxEmailDetail, { props: { email: email(), attachmentUrl: url } })
+    expect(none.find('[data-test="receipt"]').text()).toBe('none yet')
+    const filed = mount(OutboxEmailDetail, {
+      props: { email: email({ receiptAt: '2026-03-04T14:05:10.000Z' }), attachmentUrl: url },
+    })
+    expect(filed.find('[data-test="receipt"]').text()).toMatch(/^✓ filed by the mail server /)
+    const caught = mount(OutboxEmailDetail, {
+      props: { email: email({ status: 'received' }), attachmentUrl: url },
+    })
+    expect(caught.find('[data-test="receipt"]').exists()).toBe(false)
   })
 
   it('links each attachment to its download address', () => {
