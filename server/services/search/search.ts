@@ -86,6 +86,7 @@ export async function searchRecords(typed: string, role: Role): Promise<SearchRe
       if (kind === 'unit' && !isExactUnits && terms.text.length < UNIT_FRAGMENT_MIN) continue
       selects.push(sql)
     }
+  if (selects.length === 0) return { q: terms.text, groups: [] }
   const rows = await select<HitRow>(searchStatement(selects), {
     replacements: {
       pattern: containsPattern(terms.text),

@@ -15,10 +15,10 @@ const LIMIT = SEARCH_HITS_PER_KIND
 
 /** Units whose serial the text names exactly (check character added or corrected). */
 const UNIT_EXACT = `
-  SELECT 'unit' AS kind, u.id::text AS id, u.serial::text AS title, u.serial::text AS ref,
-         array_position(ARRAY[:serials]::text[], u.serial::text) AS rank,
+  SELECT 'unit', u.id::text, u.serial::text, u.serial::text,
+         array_position(ARRAY[:serials]::text[], u.serial::text),
          jsonb_build_object('state', u.state, 'lot', l.number, 'product', p.code, 'letter', r.letter,
-                            'exact', true) AS info
+                            'exact', true)
     FROM units u JOIN lots l ON l.id = u.lot_id
     JOIN revisions r ON r.id = l.revision_id JOIN products p ON p.id = r.product_id
    WHERE u.serial IN (:serials)`
@@ -109,7 +109,12 @@ export const SEARCH_SELECTS: Record<SearchKind, readonly string[]> = {
   serviceCase: [SERVICE_CASE],
 }
 
-/** One statement of the given SELECTs, each in parentheses so its ORDER BY and LIMIT hold. */
+/**
+ * One statement of the given SELECTs, each in parentheses so its ORDER BY and LIMIT hold. A
+ * UNION takes its column names from its first SELECT, whichever that is; the alias list names
+ * them the same for any choice.
+ */
 export function searchStatement(selects: readonly string[]): string {
-  return selects.map((s) => `(${s.trim()})`).join('\nUNION ALL\n')
+  const union = selects.map((s) => `(${s.trim()})`).join('\nUNION ALL\n')
+  return `SELECT * FROM (${union}) AS hit (kind, id, title, ref, rank, info)`
 }
