@@ -1,3 +1,4 @@
+import type { Page } from 'playwright-core'
 import { QueryTypes } from 'sequelize'
 import { describe, expect, it } from 'vitest'
 import { areasForRole } from '../../shared/areas'
@@ -13,6 +14,12 @@ const HOMES: Record<DemoRole, string> = {
   stores: '/receiving',
   service: '/trace',
   admin: '/admin/status',
+}
+
+/** Signs out through the bar; the tabs of one browser share the session cookie. */
+async function signOut(page: Page): Promise<void> {
+  await page.getByRole('button', { name: 'Sign out' }).click()
+  await page.waitForURL((url) => url.pathname === '/signin')
 }
 
 /** A seeded unit that has been through at least one step. */
@@ -38,6 +45,7 @@ describe('A home for each role, and the search box', { timeout: 180_000 }, () =>
       await nav.waitFor()
       const labels = (await nav.getByRole('link').allTextContents()).map((t) => t.trim())
       expect(labels, role).toEqual(areasForRole(role).map((a) => a.label))
+      await signOut(page)
       await page.close()
     }
   })
@@ -55,6 +63,9 @@ describe('A home for each role, and the search box', { timeout: 180_000 }, () =>
     )
     await signInAs(e2e, page, 'operator')
     await page.waitForURL((url) => url.pathname === `/floor/${station!.code}`)
+    await page.evaluate(() => localStorage.removeItem('waymark.floor.station'))
+    await page.getByRole('button', { name: 'Sign out' }).click()
+    await page.waitForURL((url) => url.pathname === '/signin')
     await page.close()
   })
 
@@ -63,6 +74,7 @@ describe('A home for each role, and the search box', { timeout: 180_000 }, () =>
     await signInAs(e2e, page, 'lead', '/shipping')
     await page.waitForURL((url) => url.pathname === '/shipping')
     expect(new URL(page.url()).pathname).toBe('/shipping')
+    await signOut(page)
     await page.close()
   })
 
@@ -118,6 +130,7 @@ describe('A home for each role, and the search box', { timeout: 180_000 }, () =>
     await page.keyboard.press('Enter')
     await page.waitForURL((url) => url.pathname.startsWith('/lots/'))
     await expect.poll(() => page.getByText(lot!.number).first().isVisible()).toBe(true)
+    await signOut(page)
     await page.close()
   })
 
@@ -132,6 +145,7 @@ describe('A home for each role, and the search box', { timeout: 180_000 }, () =>
     expect(await page.locator('[data-queue]').count()).toBe(4)
     expect(await page.getByRole('heading', { name: 'Users' }).isVisible()).toBe(true)
     await picture('status-page')
+    await signOut(page)
     await page.close()
   })
 })
