@@ -44,6 +44,8 @@ export const PERMISSIONS = {
   traceUnits: ['service', 'lead', 'engineer', 'admin'],
   containComponentLots: ['lead'],
   sendDraftEmails: ['service', 'admin'],
+  /** Send again an e-mail the relay refused until its last attempt. */
+  retryEmails: ['admin', 'service'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof PERMISSIONS

@@ -24,6 +24,8 @@ import { customerRoutes } from './customers'
 import { shipmentRoutes, unitDocumentRoutes } from './shipments'
 import { serviceCaseRoutes } from './serviceCases'
 import { traceRoutes } from './trace'
+import { searchRoutes } from './search'
+import { statusRoutes } from './status'
 
 // Importing the route modules above registers them in `apiRouters`; mount them all in order.
 void [
@@ -52,6 +54,7 @@ void [outboxRoutes, exportRoutes, traceRoutes]
 void [alertRoutes]
 void [importRoutes, importMappingRoutes]
 void [customerRoutes, shipmentRoutes, unitDocumentRoutes, serviceCaseRoutes]
+void [searchRoutes, statusRoutes]
 
 /**
  * The /api router: every router made with `apiRoutes`, at its base path. The routers are grouped

@@ -6,7 +6,14 @@ import { DraftUpdateInput } from '../../shared/schemas/trace'
 import { actorOf } from '../middleware/access'
 import { sendStoredFile } from '../middleware/storedFile'
 import { parse } from '../middleware/validate'
-import { emailAttachment, getEmail, listEmails, sendDraft, updateDraft } from '../services/mail'
+import {
+  emailAttachment,
+  getEmail,
+  listEmails,
+  retryEmail,
+  sendDraft,
+  updateDraft,
+} from '../services/mail'
 import { getFile } from '../storage'
 import { apiRoutes } from './registry'
 
@@ -42,4 +49,9 @@ outboxRoutes.patch('/:id', PERMISSIONS.sendDraftEmails, async (req, res) => {
 })
 outboxRoutes.post('/:id/send', PERMISSIONS.sendDraftEmails, async (req, res) => {
   res.json(await sendDraft(parse(IdParam, req.params.id), actorOf(req)))
+})
+
+// A message the relay refused until its last attempt goes out again once someone says so.
+outboxRoutes.post('/:id/retry', PERMISSIONS.retryEmails, async (req, res) => {
+  res.json(await retryEmail(parse(IdParam, req.params.id), actorOf(req)))
 })

@@ -20,6 +20,8 @@ export const outboxApi = {
   /** Service, admin: send a reviewed draft (it becomes queued). */
   sendDraft: (id: string) =>
     request<EmailDto>(`/outbox/${encodeURIComponent(id)}/send`, json('POST')),
+  /** Admin, service: send a failed e-mail again (it becomes queued); 409 unless it failed. */
+  retry: (id: string) => request<EmailDto>(`/outbox/${encodeURIComponent(id)}/retry`, json('POST')),
   /** Where the browser downloads an attachment; the server always sends it as a download. */
   attachmentUrl: (id: string, index: number) =>
     `/api/outbox/${encodeURIComponent(id)}/attachments/${index}`,

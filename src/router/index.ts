@@ -1,9 +1,11 @@
 import { createRouter, createWebHistory } from 'vue-router'
 import type { RouteLocationRaw } from 'vue-router'
-import { AREAS } from '@shared/areas'
+import { AREAS, homeAreaOf } from '@shared/areas'
+import type { AreaKey } from '@shared/areas'
 import { PERMISSIONS } from '@shared/permissions'
 import type { Role } from '@shared/roles'
 import { onUnauthenticated } from '@/api/client'
+import { lastStationCode } from '@/components/Floor/floorFormat'
 import { useSessionStore } from '@/stores/session'
 
 declare module 'vue-router' {
@@ -17,8 +19,19 @@ declare module 'vue-router' {
   }
 }
 
+/**
+ * Where a role lands after signing in: the first area of its work (shared/areas.ts). At the
+ * Floor that is the station this device worked at last, so a bench tablet goes straight back
+ * to its bench.
+ */
+export function homePathOf(role: Role): string {
+  const home = homeAreaOf(role)
+  const station = home.key === 'floor' ? lastStationCode() : null
+  return station ? `/floor/${encodeURIComponent(station)}` : home.path
+}
+
 /** Access comes from shared/areas.ts, so the navigation and the guard cannot disagree. */
-function rolesOf(areaKey: string): readonly Role[] {
+function rolesOf(areaKey: AreaKey): readonly Role[] {
   return AREAS.find((a) => a.key === areaKey)?.roles ?? []
 }
 
@@ -140,6 +153,12 @@ export const router = createRouter({
       component: () => import('@/views/Trace/UnitLinkView.vue'),
     },
     {
+      path: '/admin/status',
+      name: 'status',
+      meta: { roles: rolesOf('status') },
+      component: () => import('@/views/Admin/StatusView.vue'),
+    },
+    {
       path: '/admin/stations',
       name: 'stations',
       meta: { roles: rolesOf('stations') },
@@ -177,8 +196,9 @@ router.beforeEach(async (to): Promise<true | RouteLocationRaw> => {
     return { name: 'signin', query: to.fullPath === '/' ? {} : { next: to.fullPath } }
   }
   if (to.meta.roles && !to.meta.roles.includes(session.user.role)) return { name: 'home' }
-  const firstArea = session.areas[0]
-  if (to.name === 'home' && firstArea) return firstArea.path
+  // The home route is only ever a way to the role's home; an explicit `next` after signing in
+  // (a traveler's link) never comes here, so it wins.
+  if (to.name === 'home') return homePathOf(session.user.role)
   return true
 })
 
