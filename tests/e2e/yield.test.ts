@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
-import { MISCOUNT_ORDER_REF } from '../../server/seed/demoMiscountLot'
+import { DEMO_ORDER_REFS } from '../../server/seed/demoStory'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */
@@ -26,7 +26,7 @@ describe('Yield board', { timeout: 120_000 }, () => {
     const from = page.getByLabel('Period from')
     await from.fill('2026-11-01')
     await from.press('Enter')
-    const lot = (await demoLots(page)).find((l) => l.orderRef === MISCOUNT_ORDER_REF)!
+    const lot = (await demoLots(page)).find((l) => l.orderRef === DEMO_ORDER_REFS.miscount)!
     const row = page.locator('.el-table__row', { hasText: lot.number })
     await row.waitFor()
     await picture('yield-board')
