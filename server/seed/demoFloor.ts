@@ -104,6 +104,8 @@ export interface ActionItem {
   kind: 'action'
   at: Date
   act: () => Promise<void>
+  /** It takes a shop-wide number (a shipment, a return): played alone, in time order. */
+  isShopWide: boolean
 }
 export type Item = RunItem | ActionItem
 
@@ -162,9 +164,14 @@ export class LotTimeline {
     })
   }
 
-  /** Adds a decision or any other act of the story at shop time day/minute. */
+  /** Adds a decision or another act on this lot alone at shop time day/minute. */
   at(day: number, minute: number, act: () => Promise<void>): void {
-    this.items.push({ kind: 'action', at: this.scene.clock.at(day, minute), act })
+    this.items.push({ kind: 'action', at: this.scene.clock.at(day, minute), act, isShopWide: false })
+  }
+
+  /** Adds an act that takes a shop-wide number (a shipment, a return) at shop time day/minute. */
+  atShop(day: number, minute: number, act: () => Promise<void>): void {
+    this.items.push({ kind: 'action', at: this.scene.clock.at(day, minute), act, isShopWide: true })
   }
 
   /**
@@ -210,8 +217,11 @@ export class LotTimeline {
       .sort((a, b) => a.at.getTime() - b.at.getTime())
   }
 
-  async playRuns(runs: RunItem[]): Promise<void> {
-    for (const it of runs) await this.record(it)
+  async playInOrder(items: Item[]): Promise<void> {
+    for (const it of items) {
+      if (it.kind === 'run') await this.record(it)
+      else await it.act()
+    }
   }
 
   private async record(it: RunItem): Promise<void> {
@@ -337,31 +347,30 @@ export async function startLot(scene: Scene, plan: LotPlan): Promise<LotTimeline
 }
 
 /**
- * Plays the lots' timelines together in shop-time order. Decisions, shipments and other acts are
- * played one at a time in that order, so the numbers they take (shipments, returns) are the same
- * on every run; between two acts, each lot's step runs are played in its own order while other
- * lots' runs go alongside, since no run of one lot changes another's.
+ * Plays the lots' timelines together in shop-time order. Acts that take a shop-wide number
+ * (shipments, returns) are played alone, in that order, so the numbers are the same on every
+ * run; between two of them each lot plays its own runs and decisions in its own order while the
+ * other lots go alongside, since nothing one lot does there changes another.
  */
 export async function playTogether(timelines: LotTimeline[]): Promise<void> {
   const all = timelines
     .flatMap((t, lot) => t.due().map((item, order) => ({ item, lot, order })))
     .sort((a, b) => a.item.at.getTime() - b.item.at.getTime() || a.lot - b.lot || a.order - b.order)
-  let batch: typeof all = []
+  let stretch: typeof all = []
   const flush = async () => {
+    const items = stretch
+    stretch = []
     await Promise.all(
       timelines.map((t, lot) =>
-        t.playRuns(batch.filter((b) => b.lot === lot).map((b) => b.item as RunItem)),
+        t.playInOrder(items.filter((b) => b.lot === lot).map((b) => b.item)),
       ),
     )
-    batch = []
   }
   for (const entry of all) {
-    if (entry.item.kind === 'run') {
-      batch.push(entry)
-      continue
-    }
-    await flush()
-    await entry.item.act()
+    if (entry.item.kind === 'action' && entry.item.isShopWide) {
+      await flush()
+      await entry.item.act()
+    } else stretch.push(entry)
   }
   await flush()
 }

@@ -81,7 +81,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   shipped.at(7, 60, async () => {
     await closeLot(shipped.lotId, cast.lead, clock.at(7, 60))
   })
-  shipped.at(7, 240, async () => {
+  shipped.atShop(7, 240, async () => {
     const out = await shipLot(
       shipped.lotId,
       {
@@ -95,7 +95,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
     )
     shipped.shipped = out.serials
   })
-  shipped.at(16, 150, async () => {
+  shipped.atShop(16, 150, async () => {
     await demoReturn(
       shipped.shipped[3]!,
       'Unit rattles when shaken; output looks normal on our bench.',
@@ -123,7 +123,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   small.at(9, 30, async () => {
     await closeLot(small.lotId, cast.lead, clock.at(9, 30))
   })
-  small.at(9, 200, async () => {
+  small.atShop(9, 200, async () => {
     const out = await shipLot(
       small.lotId,
       {
@@ -137,7 +137,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
     )
     small.shipped = out.serials
   })
-  small.at(27, 90, async () => {
+  small.atShop(27, 90, async () => {
     await demoReturn(
       small.shipped[7]!,
       'Output drops to about 0 V after 20 minutes at full load; recovers after cooling.',
@@ -270,7 +270,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   hipot.at(21, 60, async () => {
     await closeLot(hipot.lotId, cast.lead, clock.at(21, 60))
   })
-  hipot.at(21, 300, async () => {
+  hipot.atShop(21, 300, async () => {
     await shipLot(
       hipot.lotId,
       {
