@@ -166,7 +166,12 @@ export class LotTimeline {
 
   /** Adds a decision or another act on this lot alone at shop time day/minute. */
   at(day: number, minute: number, act: () => Promise<void>): void {
-    this.items.push({ kind: 'action', at: this.scene.clock.at(day, minute), act, isShopWide: false })
+    this.items.push({
+      kind: 'action',
+      at: this.scene.clock.at(day, minute),
+      act,
+      isShopWide: false,
+    })
   }
 
   /** Adds an act that takes a shop-wide number (a shipment, a return) at shop time day/minute. */
@@ -184,7 +189,12 @@ export class LotTimeline {
     lag?: number
     bench?: (i: number) => string
     turns?: (i: number) => number
-    failures?: { unit: number; position: number; override: Record<string, CheckValue>; defectCode: string }[]
+    failures?: {
+      unit: number
+      position: number
+      override: Record<string, CheckValue>
+      defectCode: string
+    }[]
   }): void {
     const lag = opts.lag ?? 1
     const spacing = Math.floor(900 / opts.perDay)

@@ -70,7 +70,9 @@ export async function shipLot(
   people: { lead: Person; service: Person },
   at: Date,
 ): Promise<{ number: string; serials: string[] }> {
-  const serials = (await listLotUnits(lotId)).filter((u) => u.state === 'passed').map((u) => u.serial)
+  const serials = (await listLotUnits(lotId))
+    .filter((u) => u.state === 'passed')
+    .map((u) => u.serial)
   const shipment = await createShipment(
     { ...order, shippedOn: at.toISOString().slice(0, 10), serials },
     people.lead,

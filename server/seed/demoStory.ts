@@ -39,7 +39,108 @@ export const SUSPECT_CORE_LOT = 'HM-26-0561'
 /** L-0003: units 10–15 (0-based) were wound at WND-2 with 94 turns instead of 92. */
 export const MISCOUNTED_UNITS = [10, 11, 12, 13, 14, 15]
 
-type Plan = Omit<LotPlan, 'customerId' | 'customerName' | 'coreAlFactor'> & { customer: string }
+export type Plan = Omit<LotPlan, 'customerId' | 'customerName' | 'coreAlFactor'> & {
+  customer: string
+}
+
+/** The eight lots' plans, by their part in the story. */
+export const LOT_PLANS: Record<keyof typeof DEMO_ORDER_REFS, Plan> = {
+  shipped: {
+    seed: 1101,
+    productCode: 'FP24',
+    letter: 'B',
+    quantity: 16,
+    orderRef: DEMO_ORDER_REFS.shipped,
+    customer: 'Halden Rail Systems',
+    dueDay: 10,
+    planned: { day: 0, minute: 20 },
+    released: { day: 0, minute: 35 },
+    coreLot: 'HM-26-0419',
+  },
+  shippedWithOpenReturn: {
+    seed: 1202,
+    productCode: 'FP12',
+    letter: 'A',
+    quantity: 12,
+    orderRef: DEMO_ORDER_REFS.shippedWithOpenReturn,
+    customer: 'Norvale Labs',
+    dueDay: 11,
+    planned: { day: 1, minute: 60 },
+    released: { day: 2, minute: 20 },
+    coreLot: 'HM-26-0388',
+  },
+  miscount: {
+    seed: 318,
+    productCode: 'FP24',
+    letter: 'B',
+    quantity: 24,
+    orderRef: DEMO_ORDER_REFS.miscount,
+    customer: 'Selworth Marine',
+    dueDay: 19,
+    planned: { day: 7, minute: 300 },
+    released: { day: 8, minute: 30 },
+    coreLot: 'HM-26-0419',
+  },
+  hipot: {
+    seed: 2210,
+    productCode: 'FP24',
+    letter: 'B',
+    quantity: 20,
+    orderRef: DEMO_ORDER_REFS.hipot,
+    customer: 'Corrin Instruments',
+    dueDay: 23,
+    planned: { day: 12, minute: 200 },
+    released: { day: 13, minute: 20 },
+    coreLot: 'HM-26-0547',
+  },
+  contained: {
+    seed: 4502,
+    productCode: 'FP12',
+    letter: 'A',
+    quantity: 14,
+    orderRef: DEMO_ORDER_REFS.contained,
+    customer: 'Halden Rail Systems',
+    dueDay: 30,
+    planned: { day: 17, minute: 100 },
+    released: { day: 19, minute: 30 },
+    coreLot: SUSPECT_CORE_LOT,
+  },
+  inProgress: {
+    seed: 612,
+    productCode: 'FP24',
+    letter: 'B',
+    quantity: 24,
+    orderRef: DEMO_ORDER_REFS.inProgress,
+    customer: 'Brackwater Energy',
+    dueDay: 33,
+    planned: { day: 21, minute: 200 },
+    released: { day: 23, minute: 20 },
+    coreLot: 'HM-26-0547',
+  },
+  inProgressSmall: {
+    seed: 131,
+    productCode: 'FP12',
+    letter: 'A',
+    quantity: 10,
+    orderRef: DEMO_ORDER_REFS.inProgressSmall,
+    customer: 'Norvale Labs',
+    dueDay: 34,
+    planned: { day: 25, minute: 100 },
+    released: { day: 27, minute: 20 },
+    coreLot: 'HM-26-0388',
+  },
+  planned: {
+    seed: 344,
+    productCode: 'FP24',
+    letter: 'B',
+    quantity: 18,
+    orderRef: DEMO_ORDER_REFS.planned,
+    customer: 'Selworth Marine',
+    dueDay: 45,
+    planned: { day: 28, minute: 400 },
+    coreLot: 'HM-26-0419',
+  },
+}
 
 async function lotOf(scene: Scene, p: Plan): Promise<LotTimeline> {
   const { customer, ...plan } = p
@@ -52,8 +153,7 @@ async function lotOf(scene: Scene, p: Plan): Promise<LotTimeline> {
 }
 
 /** Winding bench by unit: the first half of each day's units at WND-1, the rest at WND-2. */
-const byHalfDay = (perDay: number) => (i: number) =>
-  i % perDay < perDay / 2 ? 'WND-1' : 'WND-2'
+const byHalfDay = (perDay: number) => (i: number) => (i % perDay < perDay / 2 ? 'WND-1' : 'WND-2')
 
 /**
  * Plans, releases and builds the eight lots through the services, in shop-time order. Lots are
@@ -65,18 +165,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   const lots: LotTimeline[] = []
 
   // L-0001: clean, shipped, one return that found nothing wrong.
-  const shipped = await lotOf(scene, {
-    seed: 1101,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 16,
-    orderRef: DEMO_ORDER_REFS.shipped,
-    customer: 'Halden Rail Systems',
-    dueDay: 10,
-    planned: { day: 0, minute: 20 },
-    released: { day: 0, minute: 35 },
-    coreLot: 'HM-26-0419',
-  })
+  const shipped = await lotOf(scene, LOT_PLANS.shipped)
   shipped.flow({ firstDay: 0, perDay: 8, bench: byHalfDay(8) })
   shipped.at(7, 60, async () => {
     await closeLot(shipped.lotId, cast.lead, clock.at(7, 60))
@@ -107,18 +196,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   lots.push(shipped)
 
   // L-0002: the small unit, clean, shipped; one return still open.
-  const small = await lotOf(scene, {
-    seed: 1202,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 12,
-    orderRef: DEMO_ORDER_REFS.shippedWithOpenReturn,
-    customer: 'Norvale Labs',
-    dueDay: 11,
-    planned: { day: 1, minute: 60 },
-    released: { day: 2, minute: 20 },
-    coreLot: 'HM-26-0388',
-  })
+  const small = await lotOf(scene, LOT_PLANS.shippedWithOpenReturn)
   small.flow({ firstDay: 2, perDay: 6, bench: byHalfDay(6) })
   small.at(9, 30, async () => {
     await closeLot(small.lotId, cast.lead, clock.at(9, 30))
@@ -148,18 +226,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   lots.push(small)
 
   // L-0003: the miscount at WND-2, caught and rewound.
-  const miscount = await lotOf(scene, {
-    seed: 318,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 24,
-    orderRef: DEMO_ORDER_REFS.miscount,
-    customer: 'Selworth Marine',
-    dueDay: 19,
-    planned: { day: 7, minute: 300 },
-    released: { day: 8, minute: 30 },
-    coreLot: 'HM-26-0419',
-  })
+  const miscount = await lotOf(scene, LOT_PLANS.miscount)
   miscount.flow({
     firstDay: 9,
     perDay: 6,
@@ -198,18 +265,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   lots.push(miscount)
 
   // L-0004: hipot breakdown (scrap), leakage (cleaned, retested), a scuff (used as is); shipped.
-  const hipot = await lotOf(scene, {
-    seed: 2210,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 20,
-    orderRef: DEMO_ORDER_REFS.hipot,
-    customer: 'Corrin Instruments',
-    dueDay: 23,
-    planned: { day: 12, minute: 200 },
-    released: { day: 13, minute: 20 },
-    coreLot: 'HM-26-0547',
-  })
+  const hipot = await lotOf(scene, LOT_PLANS.hipot)
   hipot.flow({
     firstDay: 13,
     perDay: 7,
@@ -286,18 +342,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   lots.push(hipot)
 
   // L-0005: wound on the suspect core lot; the containment holds it.
-  const contained = await lotOf(scene, {
-    seed: 4502,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 14,
-    orderRef: DEMO_ORDER_REFS.contained,
-    customer: 'Halden Rail Systems',
-    dueDay: 30,
-    planned: { day: 17, minute: 100 },
-    released: { day: 19, minute: 30 },
-    coreLot: SUSPECT_CORE_LOT,
-  })
+  const contained = await lotOf(scene, LOT_PLANS.contained)
   contained.flow({ firstDay: 19, perDay: 5, bench: byHalfDay(5) })
   contained.at(24, 150, async () => {
     const core = await ComponentLot.findOne({ where: { supplierLotCode: SUSPECT_CORE_LOT } })
@@ -312,47 +357,24 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   lots.push(contained)
 
   // L-0006 and L-0007: in progress; L-0008: planned.
-  const busy = await lotOf(scene, {
-    seed: 612,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 24,
-    orderRef: DEMO_ORDER_REFS.inProgress,
-    customer: 'Brackwater Energy',
-    dueDay: 33,
-    planned: { day: 21, minute: 200 },
-    released: { day: 23, minute: 20 },
-    coreLot: 'HM-26-0547',
-  })
+  const busy = await lotOf(scene, LOT_PLANS.inProgress)
   busy.flow({ firstDay: 23, perDay: 3, bench: (i) => (i % 2 ? 'WND-2' : 'WND-1') })
   lots.push(busy)
 
-  const busySmall = await lotOf(scene, {
-    seed: 131,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 10,
-    orderRef: DEMO_ORDER_REFS.inProgressSmall,
-    customer: 'Norvale Labs',
-    dueDay: 34,
-    planned: { day: 25, minute: 100 },
-    released: { day: 27, minute: 20 },
-    coreLot: 'HM-26-0388',
-  })
+  const busySmall = await lotOf(scene, LOT_PLANS.inProgressSmall)
   busySmall.flow({ firstDay: 27, perDay: 4, bench: byHalfDay(4) })
   lots.push(busySmall)
 
-  await lotOf(scene, {
-    seed: 344,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 18,
-    orderRef: DEMO_ORDER_REFS.planned,
-    customer: 'Selworth Marine',
-    dueDay: 45,
-    planned: { day: 28, minute: 400 },
-    coreLot: 'HM-26-0419',
-  })
+  await lotOf(scene, LOT_PLANS.planned)
 
   await playTogether(lots)
 }
+
+/**
+ * The lots whose story should raise a quality alert: the miscount at WND-2, and the lot wound on
+ * the suspect core lot (its inductances sit low). No other lot should have an open alert.
+ */
+export const DEMO_ALERT_LOTS: readonly string[] = [
+  DEMO_ORDER_REFS.miscount,
+  DEMO_ORDER_REFS.contained,
+]
