@@ -6,7 +6,7 @@ import { closeServiceCase, openServiceCase } from '../services/service-cases'
 import { createCustomer, createShipment, shipmentFilename } from '../services/shipping'
 import { listLotUnits } from '../services/lots'
 import { withTransaction } from '../db/sql'
-import type { Person } from './demoFloor'
+import type { Person } from './demoTimeline'
 
 /** The demo shop's buyers (invented), DESIGN.md §10. */
 export const DEMO_CUSTOMERS = [

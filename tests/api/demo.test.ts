@@ -12,7 +12,7 @@ import {
   LOT_PLANS,
   MISCOUNTED_UNITS,
   SUSPECT_CORE_LOT,
-} from '../../server/seed/demoStory'
+} from '../../server/seed/demoPlans'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
 

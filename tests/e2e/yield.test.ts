@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
-import { DEMO_ORDER_REFS } from '../../server/seed/demoStory'
+import { DEMO_ORDER_REFS } from '../../server/seed/demoPlans'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */
