@@ -1,21 +1,24 @@
-import { db, Station, User } from '../models'
+import { db, Lot, Station, User } from '../models'
 import { recordAudit } from '../services/admin'
 import type { Actor } from '../services/admin'
 import { hashPassword } from '../services/auth'
-import { DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
+import { evaluateLotStep, lotStepsRunSince } from '../services/quality'
+import { DEMO_HASH_COST, DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
-import { loadDemoLots } from './demoLots'
-import { loadDemoCustomers, loadDemoShipping } from './demoShipping'
-import { loadMiscountLot } from './demoMiscountLot'
+import { demoAnchor, demoClock } from './demoClock'
+import { demoCast } from './demoFloor'
+import { SeriesMemory } from './demoReadings'
+import { loadDemoCustomers } from './demoShipping'
+import { loadDemoStory } from './demoStory'
 import { loadDemoRecipes } from './loadRecipes'
 import { withTransaction } from '../db/sql'
 
 /** The actor the audit log names for demo rows. */
 export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, requestId: null }
 
-/** The demo people (one per role) and stations: what a test stack that builds its own data needs. */
+/** The demo people (one per role, two operators) and stations: what a test stack needs. */
 export async function loadPeopleAndFloor(): Promise<void> {
-  const passwordHash = await hashPassword(DEMO_PASSWORD)
+  const passwordHash = await hashPassword(DEMO_PASSWORD, DEMO_HASH_COST)
   await withTransaction(async (transaction) => {
     for (const u of DEMO_USERS) {
       const [user, isNew] = await User.findOrCreate({
@@ -47,18 +50,46 @@ export async function loadPeopleAndFloor(): Promise<void> {
 }
 
 /**
- * Loads the invented Ferncastle Power scenario (DESIGN.md §10). Each part is skipped when its
- * rows exist already, so running it twice changes nothing. Returns false when `onlyIfEmpty`
- * found users.
+ * Judges every lot step the story ran, as the alerts worker does after each scan, so the Yield
+ * board is settled when the app first serves. The jobs the scans queued find nothing new to
+ * raise afterwards: an alert is stored once.
  */
-export async function loadDemo({ onlyIfEmpty }: { onlyIfEmpty: boolean }): Promise<boolean> {
+async function settleAlerts(anchor: Date): Promise<number> {
+  let raised = 0
+  const since = new Date(anchor.getTime() - 120 * 86_400_000)
+  for (const { lotId, stepId } of await lotStepsRunSince(since))
+    raised += (await evaluateLotStep(lotId, stepId)).raised
+  return raised
+}
+
+/**
+ * Loads the invented Ferncastle Power scenario (DESIGN.md §10): six weeks of working days before
+ * `now`, through the services. Each part is skipped when its rows exist already, so running it
+ * twice changes nothing. Returns false when `onlyIfEmpty` found users.
+ */
+export async function loadDemo({
+  onlyIfEmpty,
+  now = new Date(),
+}: {
+  onlyIfEmpty: boolean
+  now?: Date
+}): Promise<boolean> {
   db()
   if (onlyIfEmpty && (await User.count()) > 0) return false
+  const anchor = demoAnchor(now)
   await loadPeopleAndFloor()
-  await loadDemoRecipes(SEED_ACTOR)
-  await loadDemoCustomers()
-  await loadDemoLots()
-  await loadDemoShipping()
-  await loadMiscountLot()
+  await loadDemoRecipes(SEED_ACTOR, anchor)
+  const cast = await demoCast()
+  await loadDemoCustomers(cast.lead)
+  if ((await Lot.count()) === 0) {
+    await loadDemoStory({ clock: demoClock(anchor), cast, memory: new SeriesMemory() })
+    const alerts = await settleAlerts(anchor)
+    // The anchor the story's dates hang from, so a reader (or a test) can rebuild its calendar.
+    await recordAudit(SEED_ACTOR, {
+      action: 'demo.load',
+      entity: 'demo',
+      after: { anchor: anchor.toISOString(), alerts },
+    })
+  }
   return true
 }

@@ -112,130 +112,164 @@ export const DEMO_DEFECT_CODES: DefectCodeInput[] = [
   },
 ]
 
-/** Component lots in stores; one tape lot is past its expiry and one core lot is quarantined. */
+/**
+ * Component lots in stores, received (and expiring) a number of days before the seed's anchor so
+ * that stores' history lines up with the six weeks of builds. One tape lot is past its expiry;
+ * core lot HM-26-0502 was quarantined by stores on receipt; HM-26-0561 is the suspect core lot a
+ * containment holds later in the story. A core lot's `alFactor` is its own AL against the
+ * nominal: ungapped ferrite is sold at ±25 %, and each batch sits somewhere in that band.
+ */
 export const DEMO_COMPONENT_LOTS: {
   partNumber: string
   supplierName: string
   supplierLotCode: string
   quantityReceived: number
-  receivedOn: string
-  expiresOn?: string
+  receivedDaysAgo: number
+  /** Days after the anchor the lot expires (negative: already expired). */
+  expiresInDays?: number
   quarantine?: string
+  alFactor?: number
 }[] = [
   {
     partNumber: 'FCS-3000U',
     supplierName: 'Harrowgate Magnetics',
     supplierLotCode: 'HM-26-0419',
     quantityReceived: 120,
-    receivedOn: '2026-10-05',
+    receivedDaysAgo: 61,
+    alFactor: 1.06,
   },
   {
     partNumber: 'FCS-3000U',
     supplierName: 'Harrowgate Magnetics',
     supplierLotCode: 'HM-26-0502',
     quantityReceived: 120,
-    receivedOn: '2026-11-09',
+    receivedDaysAgo: 47,
     quarantine: 'AL measured 18 % low on a sample of 5: supplier asked for a report',
+    alFactor: 0.82,
+  },
+  {
+    partNumber: 'FCS-3000U',
+    supplierName: 'Harrowgate Magnetics',
+    supplierLotCode: 'HM-26-0547',
+    quantityReceived: 120,
+    receivedDaysAgo: 33,
+    alFactor: 0.95,
   },
   {
     partNumber: 'FCS-2200U',
     supplierName: 'Harrowgate Magnetics',
     supplierLotCode: 'HM-26-0388',
     quantityReceived: 60,
-    receivedOn: '2026-09-21',
+    receivedDaysAgo: 75,
+    alFactor: 0.97,
+  },
+  {
+    partNumber: 'FCS-2200U',
+    supplierName: 'Harrowgate Magnetics',
+    supplierLotCode: 'HM-26-0561',
+    quantityReceived: 40,
+    receivedDaysAgo: 26,
+    alFactor: 0.86,
   },
   {
     partNumber: 'BOB-12P',
     supplierName: 'Tollan Plastics',
     supplierLotCode: 'TP240917',
     quantityReceived: 500,
-    receivedOn: '2026-09-17',
+    receivedDaysAgo: 80,
   },
   {
     partNumber: 'WCU-140',
     supplierName: 'Brindle Wire Co.',
     supplierLotCode: 'BW-7781',
     quantityReceived: 500,
-    receivedOn: '2026-10-12',
+    receivedDaysAgo: 54,
   },
   {
     partNumber: 'WCU-045',
     supplierName: 'Brindle Wire Co.',
     supplierLotCode: 'BW-7790',
     quantityReceived: 3000,
-    receivedOn: '2026-10-12',
+    receivedDaysAgo: 54,
   },
   {
     partNumber: 'TPI-25',
     supplierName: 'Quellmere Tapes',
     supplierLotCode: 'Q-25-1102',
     quantityReceived: 330,
-    receivedOn: '2025-11-02',
-    expiresOn: '2026-11-02',
+    receivedDaysAgo: 400,
+    expiresInDays: -35,
   },
   {
     partNumber: 'TPI-25',
     supplierName: 'Quellmere Tapes',
     supplierLotCode: 'Q-26-0814',
     quantityReceived: 330,
-    receivedOn: '2026-08-14',
-    expiresOn: '2027-08-14',
+    receivedDaysAgo: 110,
+    expiresInDays: 255,
   },
   {
     partNumber: 'PCB-FP24-B',
     supplierName: 'Larkspur Circuits',
     supplierLotCode: 'LC-B-2641',
-    quantityReceived: 100,
-    receivedOn: '2026-10-20',
+    quantityReceived: 150,
+    receivedDaysAgo: 46,
   },
   {
     partNumber: 'PCB-FP12-A',
     supplierName: 'Larkspur Circuits',
     supplierLotCode: 'LC-A-2633',
     quantityReceived: 50,
-    receivedOn: '2026-08-25',
+    receivedDaysAgo: 100,
   },
   {
     partNumber: 'ICP-PWM2',
     supplierName: 'Northway Components',
     supplierLotCode: 'D/C 2630',
     quantityReceived: 250,
-    receivedOn: '2026-09-30',
+    receivedDaysAgo: 66,
   },
   {
     partNumber: 'MSF-100V',
     supplierName: 'Northway Components',
     supplierLotCode: 'D/C 2622',
     quantityReceived: 500,
-    receivedOn: '2026-09-30',
+    receivedDaysAgo: 66,
   },
   {
     partNumber: 'DUF-600V',
     supplierName: 'Northway Components',
     supplierLotCode: 'D/C 2618',
     quantityReceived: 1000,
-    receivedOn: '2026-09-30',
+    receivedDaysAgo: 66,
   },
   {
     partNumber: 'CEL-450',
     supplierName: 'Northway Components',
     supplierLotCode: 'D/C 2627',
     quantityReceived: 400,
-    receivedOn: '2026-10-02',
+    receivedDaysAgo: 64,
   },
   {
     partNumber: 'SLD-SAC3',
     supplierName: 'Ostley Solder',
     supplierLotCode: 'OS-55120',
     quantityReceived: 2000,
-    receivedOn: '2026-07-01',
-    expiresOn: '2028-07-01',
+    receivedDaysAgo: 157,
+    expiresInDays: 573,
   },
   {
     partNumber: 'ENC-AL2',
     supplierName: 'Penwick Enclosures',
     supplierLotCode: 'PE-1187',
     quantityReceived: 150,
-    receivedOn: '2026-10-28',
+    receivedDaysAgo: 38,
   },
 ]
+
+/** The core lot of this supplier code's own AL against the nominal. */
+export function coreAlFactor(supplierLotCode: string): number {
+  const lot = DEMO_COMPONENT_LOTS.find((l) => l.supplierLotCode === supplierLotCode)
+  if (lot?.alFactor === undefined) throw new Error(`demo seed: ${supplierLotCode} is no core lot`)
+  return lot.alFactor
+}

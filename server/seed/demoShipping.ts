@@ -1,14 +1,12 @@
-import { Customer, Lot, ServiceCase, Shipment, User } from '../models'
-import type { Role } from '../../shared/roles'
+import { Customer, Unit } from '../models'
 import type { Actor } from '../services/admin'
-import { createCustomer } from '../services/shipping'
+import { renderDocument, requestDocument } from '../services/documents'
 import { emailDocument } from '../services/mail'
-import { renderDocument } from '../services/documents'
-import { requestDocument } from '../services/documents'
+import { closeServiceCase, openServiceCase } from '../services/service-cases'
+import { createCustomer, createShipment, shipmentFilename } from '../services/shipping'
 import { listLotUnits } from '../services/lots'
-import { openServiceCase } from '../services/service-cases'
-import { createShipment, shipmentFilename } from '../services/shipping'
 import { withTransaction } from '../db/sql'
+import type { Person } from './demoTimeline'
 
 /** The demo shop's buyers (invented), DESIGN.md §10. */
 export const DEMO_CUSTOMERS = [
@@ -27,18 +25,29 @@ export const DEMO_CUSTOMERS = [
     contactEmail: 'lab.stores@norvale.example',
     address: 'Norvale Science Centre, Building C\nNV1 4RA',
   },
+  {
+    name: 'Selworth Marine',
+    contactEmail: 'buying@selworth-marine.example',
+    address: 'Boatyard Office, Quay Street\nSelworth\nSW4 8PE',
+  },
+  {
+    name: 'Brackwater Energy',
+    contactEmail: 'supply@brackwater.example',
+    address: 'Unit 12, Fenside Business Park\nBrackwater\nBW2 6NH',
+  },
 ]
 
-async function person(email: string): Promise<Actor & { role: Role }> {
-  const u = (await User.findOne({ where: { email } }))!
-  return { id: u.id, email: u.email, role: u.role, ip: null, requestId: 'demo-seed' }
+/** The demo customers, through the same service as the Customers screen; skipped when any exist. */
+export async function loadDemoCustomers(lead: Actor): Promise<void> {
+  if ((await Customer.count()) > 0) return
+  for (const c of DEMO_CUSTOMERS) await createCustomer(c, lead)
 }
 
-/** The demo customers, through the same service as the Customers screen. */
-export async function loadDemoCustomers(): Promise<void> {
-  if ((await Customer.count()) > 0) return
-  const lead = await person('lead@ferncastle.example')
-  for (const c of DEMO_CUSTOMERS) await createCustomer(c, lead)
+/** The id of the demo customer of this name. */
+export async function demoCustomerId(name: string): Promise<string> {
+  const c = await Customer.findOne({ where: { name } })
+  if (!c) throw new Error(`demo seed: no customer ${name}`)
+  return c.id
 }
 
 /** Makes a document's PDF now, with the worker's own code, so the seed can e-mail it at once. */
@@ -52,28 +61,23 @@ async function requestAndRender(
 }
 
 /**
- * Ships the finished lot to its customer with its packing slip, makes and e-mails the
- * certificate (so the Outbox has it), and opens one return on one of its serials.
+ * Ships every passed unit of a lot to its customer with its packing slip, makes the certificate
+ * of conformance and e-mails it to the customer's contact (so the Outbox has it).
  */
-export async function loadDemoShipping(): Promise<void> {
-  if ((await Shipment.count()) > 0) return
-  const lot = await Lot.findOne({ where: { number: 'L-0001' } })
-  if (!lot?.customerId) return
-  const service = await person('service@ferncastle.example')
-  const lead = await person('lead@ferncastle.example')
-  const units = (await listLotUnits(lot.id)).filter((u) => u.state === 'passed')
-  // The demo lot's step runs are recorded as the seed runs, so it ships and comes back that day.
-  const today = new Date().toISOString().slice(0, 10)
+export async function shipLot(
+  lotId: string,
+  order: { customerId: string; orderRef: string; carrier: string; tracking: string },
+  people: { lead: Person; service: Person },
+  at: Date,
+): Promise<{ number: string; serials: string[] }> {
+  const serials = (await listLotUnits(lotId))
+    .filter((u) => u.state === 'passed')
+    .map((u) => u.serial)
   const shipment = await createShipment(
-    {
-      customerId: lot.customerId,
-      orderRef: lot.orderRef,
-      carrier: 'Tarn Valley Freight',
-      tracking: 'TVF 3318 0427 91',
-      shippedOn: today,
-      serials: units.map((u) => u.serial),
-    },
-    lead,
+    { ...order, shippedOn: at.toISOString().slice(0, 10), serials },
+    people.lead,
+    undefined,
+    at,
   )
   const slip = shipment.documents.find((d) => d.kind === 'packing_slip')
   if (slip) await renderDocument(slip.id, async () => {})
@@ -83,21 +87,39 @@ export async function loadDemoShipping(): Promise<void> {
       shipmentId: shipment.id,
       filename: shipmentFilename(shipment.number, 'certificate'),
     },
-    service,
+    people.service,
   )
   await emailDocument(
     certificateId,
-    { to: [], note: `Certificate for your order ${lot.orderRef}, shipped today.` },
-    service,
+    { to: [], note: `Certificate of conformance for your order ${order.orderRef}.` },
+    people.service,
   )
-  if ((await ServiceCase.count()) === 0)
-    await openServiceCase(
-      {
-        serial: units[4]!.serial,
-        complaint:
-          'Output drops to about 0 V after 20 minutes at full load; recovers after cooling.',
-        receivedOn: today,
-      },
-      service,
-    )
+  return { number: shipment.number, serials }
+}
+
+/** Opens a return for a shipped unit, and when `closed` is given closes it with that finding. */
+export async function demoReturn(
+  serial: string,
+  complaint: string,
+  service: Person,
+  opened: Date,
+  closed?: { at: Date; resolution: 'no_fault_found' | 'credit' },
+): Promise<void> {
+  const sc = await openServiceCase(
+    { serial, complaint, receivedOn: opened.toISOString().slice(0, 10) },
+    service,
+    opened,
+  )
+  if (!closed) return
+  await closeServiceCase(
+    sc.id,
+    { resolution: closed.resolution, reworkToStepId: null, replacementSerial: null },
+    service,
+    closed.at,
+  )
+}
+
+/** True when the unit of this serial shipped (used to check the story before a return). */
+export async function isShipped(serial: string): Promise<boolean> {
+  return (await Unit.findOne({ where: { serial } }))?.state === 'shipped'
 }

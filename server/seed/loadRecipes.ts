@@ -19,6 +19,7 @@ import { DEMO_PRODUCTS } from './demoProducts'
 import type { DemoRevision } from './demoRecipes'
 import { DEMO_PARTS } from './demoRecipes'
 import { DEMO_COMPONENT_LOTS, DEMO_DEFECT_CODES } from './demoReceiving'
+import { daysBefore } from './demoClock'
 
 /** Fills a draft revision from demo data through the same services the API uses. */
 async function fillRevision(
@@ -92,7 +93,11 @@ async function loadProducts(partIds: Map<string, string>, actor: Actor): Promise
   if (b && product?.revisions?.length === 2) await copyRevision(b.id, actor)
 }
 
-async function loadReceiving(partIds: Map<string, string>, actor: Actor): Promise<void> {
+async function loadReceiving(
+  partIds: Map<string, string>,
+  actor: Actor,
+  anchor: Date,
+): Promise<void> {
   for (const d of DEMO_DEFECT_CODES)
     if (!(await DefectCode.findOne({ where: { code: d.code } }))) await createDefectCode(d, actor)
   if ((await ComponentLot.count()) > 0) return
@@ -103,8 +108,8 @@ async function loadReceiving(partIds: Map<string, string>, actor: Actor): Promis
         supplierName: l.supplierName,
         supplierLotCode: l.supplierLotCode,
         quantityReceived: l.quantityReceived,
-        receivedOn: l.receivedOn,
-        expiresOn: l.expiresOn ?? null,
+        receivedOn: daysBefore(anchor, l.receivedDaysAgo),
+        expiresOn: l.expiresInDays === undefined ? null : daysBefore(anchor, -l.expiresInDays),
         notes: '',
       },
       actor,
@@ -115,8 +120,8 @@ async function loadReceiving(partIds: Map<string, string>, actor: Actor): Promis
 }
 
 /** Parts, products with their revisions, defect codes and component lots of the demo shop. */
-export async function loadDemoRecipes(actor: Actor): Promise<void> {
+export async function loadDemoRecipes(actor: Actor, anchor: Date): Promise<void> {
   const partIds = await loadParts(actor)
   await loadProducts(partIds, actor)
-  await loadReceiving(partIds, actor)
+  await loadReceiving(partIds, actor, anchor)
 }

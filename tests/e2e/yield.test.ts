@@ -1,8 +1,8 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
-import { MISCOUNT_ORDER_REF } from '../../server/seed/demoMiscountLot'
 import { evaluateLotStep, lotStepsRunSince } from '../../server/services/quality'
+import { DEMO_ORDER_REFS } from '../../server/seed/demoPlans'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
 /** The demo lots, read through the API with the page's session. */
@@ -72,11 +72,12 @@ describe('Yield board', { timeout: 120_000 }, () => {
     // The navigation offers the area to the lead.
     await page.locator('nav[aria-label="Areas"]').getByRole('link', { name: 'Yield' }).waitFor()
 
-    // The demo lot was wound in late November 2026: open the period from the start of November.
+    // The demo's past lies in the six weeks before the seed ran: open the period from the day
+    // the miscount lot was released.
+    const lot = (await demoLots(page)).find((l) => l.orderRef === DEMO_ORDER_REFS.miscount)!
     const from = page.getByLabel('Period from')
-    await from.fill('2026-11-01')
+    await from.fill(lot.releasedAt!.slice(0, 10))
     await from.press('Enter')
-    const lot = (await demoLots(page)).find((l) => l.orderRef === MISCOUNT_ORDER_REF)!
     const row = page.locator('.el-table__row', { hasText: lot.number })
     await row.waitFor()
     await picture('yield-board')

@@ -15,6 +15,8 @@ export interface AuditEntry {
   entityId?: string | null
   before?: unknown
   after?: unknown
+  /** When the change happened, if not now: the demo seed's clock. */
+  at?: Date
 }
 
 /**
@@ -30,6 +32,7 @@ export async function recordAudit(
 ): Promise<void> {
   await AuditEvent.create(
     {
+      ...(entry.at ? { at: entry.at } : {}),
       actorId: actor.id,
       actorEmail: actor.email,
       action: entry.action,

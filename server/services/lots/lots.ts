@@ -94,6 +94,8 @@ async function lockLot(id: string, transaction: Transaction): Promise<Lot> {
 export async function createLot(
   input: Omit<LotCreateInput, 'customerId'> & { customerId?: string | null },
   actor: Actor,
+  /** When the lot was planned, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<LotDto> {
   try {
     return await withTransaction(async (transaction) => {
@@ -126,13 +128,14 @@ export async function createLot(
           releasedAt: null,
           closedAt: null,
           createdBy: actor.id,
+          ...(at ? { createdAt: at } : {}),
         },
         { transaction },
       )
       const dto = await getLot(lot.id, transaction)
       await recordAudit(
         actor,
-        { action: 'lot.create', entity: 'lot', entityId: lot.id, after: dto },
+        { action: 'lot.create', entity: 'lot', entityId: lot.id, after: dto, at },
         transaction,
       )
       return dto
@@ -222,6 +225,7 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
         action: 'lot.release',
         entity: 'lot',
         entityId: id,
+        at: now,
         before: { status: 'planned' },
         after: { status: 'released', serials: [serials[0], serials.at(-1)] },
       },
@@ -315,7 +319,7 @@ export async function unholdLot(id: string, reason: string, actor: Actor): Promi
 }
 
 /** Closes a lot once every unit has finished its route. */
-export async function closeLot(id: string, actor: Actor): Promise<LotDto> {
+export async function closeLot(id: string, actor: Actor, at = new Date()): Promise<LotDto> {
   return withTransaction(async (transaction) => {
     const lot = await lockLot(id, transaction)
     if (lot.status === 'planned' || lot.status === 'closed')
@@ -329,10 +333,10 @@ export async function closeLot(id: string, actor: Actor): Promise<LotDto> {
         'lot_has_open_units',
         `lot ${lot.number} still has ${open} unit(s) on the floor`,
       )
-    await lot.update({ status: 'closed', closedAt: new Date() }, { transaction })
+    await lot.update({ status: 'closed', closedAt: at }, { transaction })
     await recordAudit(
       actor,
-      { action: 'lot.close', entity: 'lot', entityId: id, after: { status: 'closed' } },
+      { action: 'lot.close', entity: 'lot', entityId: id, after: { status: 'closed' }, at },
       transaction,
     )
     return getLot(id, transaction)

@@ -111,6 +111,8 @@ export async function disposeNonconformance(
   id: string,
   input: DispositionInput,
   actor: Actor & { role: string },
+  /** When it was decided, if not now: the demo seed's clock. */
+  at = new Date(),
 ): Promise<NonconformanceDto> {
   await withTransaction(async (transaction) => {
     const nc = await Nonconformance.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
@@ -132,7 +134,7 @@ export async function disposeNonconformance(
       )
       await sendToRework(unit, target, failedStep.position, transaction)
     } else if (input.disposition === 'scrap') {
-      await scrapUnit(unit, transaction)
+      await scrapUnit(unit, transaction, at)
     } else {
       if (input.reason.length < 10)
         throw AppError.badRequest('reason: say in a sentence why the unit may be used as it is', {
@@ -147,7 +149,7 @@ export async function disposeNonconformance(
         {
           state: next ? 'in_progress' : 'passed',
           currentStepId: next?.id ?? null,
-          finishedAt: next ? null : new Date(),
+          finishedAt: next ? null : at,
           holdKind: null,
           heldFromState: null,
           holdReason: '',
@@ -162,7 +164,7 @@ export async function disposeNonconformance(
         reason: input.reason,
         decidedBy: actor.id,
         countersignedBy,
-        closedAt: new Date(),
+        closedAt: at,
       },
       { transaction },
     )
@@ -172,6 +174,7 @@ export async function disposeNonconformance(
         action: 'nonconformance.dispose',
         entity: 'nonconformance',
         entityId: id,
+        at,
         before: { state: 'on_hold' },
         after: {
           serial: unit.serial,

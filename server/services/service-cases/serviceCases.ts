@@ -138,6 +138,8 @@ const stateWords = (state: UnitState) => UNIT_STATE_LABELS[state].toLowerCase()
 export async function openServiceCase(
   input: ServiceCaseCreateInput,
   actor: Actor,
+  /** When it was opened, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<ServiceCaseDto> {
   const serial = codeFromScan(input.serial)
   return withTransaction(async (transaction) => {
@@ -174,6 +176,7 @@ export async function openServiceCase(
         openedBy: actor.id,
         closedBy: null,
         closedAt: null,
+        ...(at ? { createdAt: at } : {}),
       },
       { transaction },
     )
@@ -184,6 +187,7 @@ export async function openServiceCase(
         action: 'service_case.open',
         entity: 'service_case',
         entityId: sc.id,
+        at,
         before: { unitState: 'shipped' },
         after: {
           number: sc.number,
@@ -347,6 +351,7 @@ export async function closeServiceCase(
         action: 'service_case.close',
         entity: 'service_case',
         entityId: id,
+        at: now,
         before: { status: 'open', unitState: 'returned' },
         after: {
           status: 'closed',

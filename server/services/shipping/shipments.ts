@@ -152,6 +152,8 @@ export async function createShipment(
   input: ShipmentCreateInput,
   actor: Actor,
   transaction?: Transaction,
+  /** When it was packed, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<ShipmentDto> {
   const run = async (t: Transaction) => {
     const serials = input.serials.map(codeFromScan)
@@ -202,6 +204,7 @@ export async function createShipment(
         tracking: input.tracking,
         shippedOn: input.shippedOn,
         createdBy: actor.id,
+        ...(at ? { createdAt: at } : {}),
       },
       { transaction: t },
     )
@@ -219,6 +222,7 @@ export async function createShipment(
         action: 'shipment.create',
         entity: 'shipment',
         entityId: shipment.id,
+        at,
         after: {
           number: shipment.number,
           customer: customer.name,

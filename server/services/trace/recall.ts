@@ -179,6 +179,8 @@ export async function containComponentLot(
   scanned: string,
   reason: string,
   actor: Actor,
+  /** When it was contained, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<ContainResultDto> {
   return withTransaction(async (transaction) => {
     const found = await findComponentLot(scanned, transaction)
@@ -215,6 +217,7 @@ export async function containComponentLot(
           action: 'unit.hold',
           entity: 'unit',
           entityId: u.id,
+          at,
           before,
           after: { state: 'on_hold', serial: u.serial, reason: holdReason },
         },
@@ -272,6 +275,7 @@ export async function containComponentLot(
         action: 'component_lot.contain',
         entity: 'component_lot',
         entityId: found.id,
+        at,
         after: { reason, held, alreadyHeld, quarantined, drafts: drafts.map((d) => d.emailId) },
       },
       transaction,

@@ -82,12 +82,16 @@ export async function sendToRework(
 }
 
 /** Ends a unit's route for good: scrapped, off its step, any hold ended. */
-export async function scrapUnit(unit: Unit, transaction: Transaction): Promise<void> {
+export async function scrapUnit(
+  unit: Unit,
+  transaction: Transaction,
+  at = new Date(),
+): Promise<void> {
   await unit.update(
     {
       state: 'scrapped',
       currentStepId: null,
-      finishedAt: new Date(),
+      finishedAt: at,
       holdKind: null,
       heldFromState: null,
       holdReason: '',
