@@ -9,7 +9,7 @@ function demoLots(page: Page): Promise<LotDto[]> {
   return page.evaluate(async () => (await fetch('/api/lots')).json()) as Promise<LotDto[]>
 }
 
-describe('Yield board', { timeout: 120_000 }, () => {
+describe('Yield board', () => {
   const e2e = useE2eApp()
 
   it('shows a lead the miscount lot and names the winding bench that caused it', async () => {
