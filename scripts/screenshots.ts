@@ -2,15 +2,16 @@
 import { mkdirSync, statSync } from 'node:fs'
 import { join } from 'node:path'
 import { ServiceError } from './lib/proc'
-import { serviceEnv } from './lib/serviceConfig'
+import { serviceEnv, testNames } from './lib/serviceConfig'
 import { startServices } from './lib/services'
 import { bin, prepareDatabase, runStep } from './lib/steps'
 
 const HELP = `usage: npm run screenshots   (tsx scripts/screenshots.ts)
 
-Starts the services, resets and seeds a database of its own (waymark_screenshots_test, so a
-running \`npm start\` or test lane is left alone), builds the client, then starts the app the
-way the e2e tests do and signs in as each demo role in Debian's Chromium. Saves a 1440×900 PNG
+Starts the services, resets and seeds the test database (waymark_test, or the one of
+WAYMARK_TEST_LANE, as \`npm test\` does: never the \`npm start\` database), builds the client,
+then starts the app the way the e2e tests do and signs in as each demo role in Debian's
+Chromium. Saves a 1440×900 PNG
 of every main screen to docs/screenshots/ and prints each file's size.
 
 environment: WAYMARK_CHROMIUM (/usr/bin/chromium), plus the service variables of
@@ -18,11 +19,6 @@ scripts/services.ts`
 
 const OUT_DIR = 'docs/screenshots'
 const VIEWPORT = { width: 1440, height: 900 }
-const NAMES = {
-  db: 'waymark_screenshots_test',
-  redisPrefix: 'waymark-screenshots',
-  bucket: 'waymark-screenshots',
-}
 
 async function main(argv: string[]): Promise<number> {
   if (argv.includes('--help') || argv.includes('-h')) {
@@ -30,12 +26,13 @@ async function main(argv: string[]): Promise<number> {
     return 0
   }
   const { config } = await startServices()
+  const names = testNames()
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     ...serviceEnv(config),
-    WAYMARK_DB: NAMES.db,
-    WAYMARK_REDIS_PREFIX: NAMES.redisPrefix,
-    S3_BUCKET: NAMES.bucket,
+    WAYMARK_DB: names.db,
+    WAYMARK_REDIS_PREFIX: names.redisPrefix,
+    S3_BUCKET: names.bucket,
     NODE_ENV: 'test',
     WAYMARK_SMTP_PORT: '0',
     PORT: '0',

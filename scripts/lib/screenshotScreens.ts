@@ -43,11 +43,15 @@ async function signIn(page: Page, base: string, role: DemoRole): Promise<void> {
   await page.waitForLoadState('networkidle')
 }
 
-/** Opens a screen and waits until `ready` shows and the network is quiet. */
+/**
+ * Opens a screen and waits until `ready` shows and the network is quiet. The focused field is
+ * left, so a scan box does not show its text selected.
+ */
 async function open(page: Page, url: string, ready: string): Promise<void> {
   await page.goto(url)
   await page.locator(ready).first().waitFor()
   await page.waitForLoadState('networkidle')
+  await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur())
 }
 
 const home = (role: DemoRole): Screen => ({
@@ -57,12 +61,20 @@ const home = (role: DemoRole): Screen => ({
 
 /** Types every reading of the step at its passing value except one, far over its limit. */
 async function typeWithOneFailing(page: Page, step: StepDto): Promise<void> {
-  const failing = step.checks.find((c) => c.kind === 'numeric' && !c.derived && c.upper !== null)
+  // A measured value (not a count), as a slipped probe or a wrong core would give.
+  const failing = step.checks.find(
+    (c) =>
+      c.kind === 'numeric' &&
+      !c.derived &&
+      c.lower !== null &&
+      c.upper !== null &&
+      c.lower < c.upper,
+  )
   for (const check of step.checks) {
     const entry = passingEntry(check)
     if (entry === null) continue
     const field = page.locator(`[data-field="check:${check.key}"]`)
-    if (check === failing) await field.fill(String(check.upper! * 1.4))
+    if (check === failing) await field.fill((check.upper! * 1.4).toFixed(check.decimals))
     else if (check.kind === 'numeric' || check.kind === 'text') await field.fill(entry)
     else {
       await field.focus()
@@ -102,9 +114,9 @@ export const SCREENS: readonly Screen[] = [
       await page.locator('.el-table__row', { hasText: s.turnsLot.number }).click()
       await page.locator('article[data-verdict]').waitFor()
       await page.waitForLoadState('networkidle')
-      await page.getByRole('heading', { name: 'Turn-count deviation' }).evaluate((h) =>
-        h.scrollIntoView({ block: 'start' }),
-      )
+      await page
+        .getByRole('heading', { name: 'Turn-count deviation' })
+        .evaluate((h) => h.scrollIntoView({ block: 'start' }))
     },
   },
   home('engineer'),
@@ -126,18 +138,35 @@ export const SCREENS: readonly Screen[] = [
     show: (page, base, s) =>
       open(page, `${base}/trace?lot=${s.componentLotCode}`, '[data-test="recall-code"]'),
   },
-  { name: 'shipping', show: (page, base) => open(page, `${base}/shipping`, '[data-test="ship-scan"]') },
+  {
+    name: 'shipping',
+    show: (page, base) => open(page, `${base}/shipping`, '[data-test="ship-scan"]'),
+  },
   { name: 'service', show: (page, base) => open(page, `${base}/service`, '.el-table__row') },
   home('admin'),
   { name: 'outbox', show: (page, base) => open(page, `${base}/outbox`, '.el-table__row') },
-  { name: 'audit', show: (page, base) => open(page, `${base}/admin/audit`, '.el-table__row') },
+  {
+    // The shop's own changes to lots: this script's sign-ins would otherwise fill the page.
+    name: 'audit',
+    async show(page, base) {
+      await open(page, `${base}/admin/audit`, '.el-table__row')
+      await page.getByPlaceholder('Action, e.g. station.update').fill('lot.')
+      await page.getByRole('button', { name: 'Search', exact: true }).click()
+      await page.locator('.el-table__row', { hasText: 'lot.' }).first().waitFor()
+      await page.waitForLoadState('networkidle')
+    },
+  },
 ]
 
 /** Looks up, as the lead, everything the pictures show. */
 export async function findSubjects(page: Page, base: string): Promise<Subjects> {
   await page.goto(`${base}/signin`)
   await signInByApi(page, 'lead')
-  const [revision] = await revisionsWithRoute(page, DEMO_ROUTE)
+  // The revision with the most checks: the richest recipe page and Floor form.
+  const checks = (r: RevisionDto) => r.steps.reduce((n, step) => n + step.checks.length, 0)
+  const [revision] = (await revisionsWithRoute(page, DEMO_ROUTE)).sort(
+    (a, b) => checks(b) - checks(a),
+  )
   if (!revision) throw new Error('the demo has no product with the full route')
   const { serial } = await unitWaitingAtStart(page, revision, 'Screenshots')
   const lots = await callApi<LotDto[]>(page, '/lots')
