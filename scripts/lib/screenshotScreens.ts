@@ -76,10 +76,11 @@ async function typeWithOneFailing(page: Page, step: StepDto): Promise<void> {
     const field = page.locator(`[data-field="check:${check.key}"]`)
     if (check === failing) await field.fill((check.upper! * 1.4).toFixed(check.decimals))
     else if (check.kind === 'numeric' || check.kind === 'text') await field.fill(entry)
-    else {
-      await field.focus()
-      await page.keyboard.press(entry)
-    }
+    else
+      await field
+        .getByRole('radio')
+        .nth(check.kind === 'boolean' ? 0 : Number(entry) - 1)
+        .click()
   }
   await page.locator('[data-test="verdict"][data-verdict="fail"]').waitFor()
   if (failing) await page.locator(`[data-field="check:${failing.key}"]`).focus()

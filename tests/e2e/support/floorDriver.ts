@@ -30,8 +30,10 @@ export async function typePassingReadings(page: Page, step: StepDto): Promise<vo
     const field = page.locator(`[data-field="check:${check.key}"]`)
     if (check.kind === 'numeric' || check.kind === 'text') await field.fill(entry)
     else {
-      await field.focus()
-      await page.keyboard.press(entry)
+      // A tap on the option, as on the bench's touch screen: a key pressed while the Floor
+      // moves the focus from the previous answer could land on that one instead.
+      const option = check.kind === 'boolean' ? 0 : Number(entry) - 1
+      await field.getByRole('radio').nth(option).click()
     }
     await expect
       .poll(() => page.locator(`[data-check="${check.key}"]`).getAttribute('data-verdict'))
