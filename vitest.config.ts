@@ -3,6 +3,7 @@ import vue from '@vitejs/plugin-vue'
 import { ElementPlusResolver } from 'unplugin-vue-components/resolvers'
 import Components from 'unplugin-vue-components/vite'
 import { defineConfig } from 'vitest/config'
+import { E2E_TEST_MS, E2E_WAIT_MS } from './tests/e2e/support/timeouts'
 
 const fromRoot = (path: string) => fileURLToPath(new URL(path, import.meta.url))
 
@@ -71,8 +72,10 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           fileParallelism: false,
-          testTimeout: 60000,
-          hookTimeout: 60000,
+          // One setting for the whole suite (tests/e2e/support/timeouts.ts).
+          testTimeout: E2E_TEST_MS,
+          hookTimeout: E2E_TEST_MS,
+          expect: { poll: { timeout: E2E_WAIT_MS } },
         },
       },
     ],

@@ -3,9 +3,9 @@ import { Unit } from '../../server/models'
 import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
 import type { TestLot } from '../api/support/floor'
-import { openPage, picturesOf, signInByApi, useE2eApp } from './support/setup'
+import { openPage, picturesOf, signInByApi, useE2eApp, waitForStillness } from './support/setup'
 
-describe('ending a containment on the recall page', { timeout: 120_000 }, () => {
+describe('ending a containment on the recall page', () => {
   const e2e = useE2eApp()
   // A lot of its own, so the demo's lots stay as the other tests expect them.
   let t: TestLot
@@ -25,7 +25,7 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
         reason: 'supplier reports cracked cores in this batch',
       })
       .expect(200)
-  }, 90_000)
+  })
 
   it('lets a lead reject the lot and then scrap one of its held units', async () => {
     const page = await openPage(e2e, 'containment-end')
@@ -52,7 +52,7 @@ describe('ending a containment on the recall page', { timeout: 120_000 }, () => 
     await decide.click()
     const dialog = page.getByRole('dialog', { name: `Decide on ${serials[1]}` })
     await dialog.getByText('fitted at').waitFor()
-    await page.waitForTimeout(400) // the dialog's opening animation, for the picture only
+    await waitForStillness(page)
     await picturesOf(page)('containment-decide-dialog')
     await dialog.locator('.wm-choice', { hasText: 'Scrap' }).click()
     await dialog.getByRole('button', { name: 'Scrap' }).click()

@@ -11,6 +11,7 @@ import {
   picturesOf,
   signInByApi,
   useE2eApp,
+  waitForStillness,
 } from './support/setup'
 
 /** The id of the focused element's `data-field`, or its id. */
@@ -22,14 +23,10 @@ function focusedField(page: Page): Promise<string | null> {
 }
 
 async function waitForFocus(page: Page, field: string): Promise<void> {
-  await page.waitForFunction(
-    (f) => {
-      const el = document.activeElement
-      return el?.getAttribute('data-field') === f || el?.id === f
-    },
-    field,
-    { timeout: 10_000 },
-  )
+  await page.waitForFunction((f) => {
+    const el = document.activeElement
+    return el?.getAttribute('data-field') === f || el?.id === f
+  }, field)
 }
 
 interface Job {
@@ -90,7 +87,7 @@ async function prepareJob(page: Page): Promise<Job> {
   }
 }
 
-describe('Floor station screen', { timeout: 90_000 }, () => {
+describe('Floor station screen', () => {
   const e2e = useE2eApp()
 
   it('records a winding step with the keyboard alone, and the lot grid shows it passed first time', async () => {
@@ -115,7 +112,7 @@ describe('Floor station screen', { timeout: 90_000 }, () => {
     await page.keyboard.press('Enter')
     await page.waitForURL(/\/floor\/WND-1$/)
     await waitForFocus(page, 'scan')
-    await page.waitForTimeout(300)
+    await waitForStillness(page)
     await picture('floor-before-scan')
 
     await page.keyboard.type(job.serial)
@@ -136,7 +133,7 @@ describe('Floor station screen', { timeout: 90_000 }, () => {
       'fail',
     )
     expect(await page.locator('[data-test="verdict"]').getAttribute('data-verdict')).toBe('fail')
-    await page.waitForTimeout(400)
+    await waitForStillness(page)
     await picture('floor-failing-value')
 
     await page.keyboard.press('Control+A')
@@ -170,7 +167,7 @@ describe('Floor station screen', { timeout: 90_000 }, () => {
     expect(await notice.textContent()).toContain(`PASS · ${job.serial}`)
     await waitForFocus(page, 'scan')
     await page.locator(`.recent__item[data-serial="${job.serial}"]`).first().waitFor()
-    await page.waitForTimeout(300)
+    await waitForStillness(page)
     await picture('floor-after-submit')
     expect(await focusedField(page)).toBe('scan')
 
@@ -185,7 +182,7 @@ describe('Floor station screen', { timeout: 90_000 }, () => {
     await cell.waitFor()
     expect(await cell.getAttribute('data-cell')).toBe('passed_first')
     await cell.scrollIntoViewIfNeeded()
-    await page.waitForTimeout(300)
+    await waitForStillness(page)
     await picture('lot-grid')
     await page.close()
   })

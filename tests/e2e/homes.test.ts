@@ -33,7 +33,7 @@ async function someSerial(): Promise<string> {
   return row.serial
 }
 
-describe('A home for each role, and the search box', { timeout: 180_000 }, () => {
+describe('A home for each role, and the search box', () => {
   const e2e = useE2eApp()
 
   it('lands each role on its home, with its own areas in the order of its work', async () => {

@@ -8,7 +8,7 @@ import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { releasedTestLot, windingRun } from '../api/support/floor'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
-describe('Bench import screen', { timeout: 120_000 }, () => {
+describe('Bench import screen', () => {
   let connection: Redis
   let worker: { worker: Worker; stop: () => void }
   const e2e = useE2eApp({
@@ -74,7 +74,7 @@ describe('Bench import screen', { timeout: 120_000 }, () => {
     await page.locator('[data-test="import-run"]').click()
     const progress = page.locator('[data-test="import-progress"]')
     await progress.waitFor()
-    await expect.poll(() => progress.getAttribute('data-status'), { timeout: 30_000 }).toBe('done')
+    await expect.poll(() => progress.getAttribute('data-status')).toBe('done')
     await expect.poll(() => counts.innerText()).toMatch(/Recorded\s+2/)
     await expect.poll(() => table.innerText()).toContain('Recorded:')
     await picture('import-done')

@@ -2,7 +2,7 @@ import { randomInt } from 'node:crypto'
 import type { Locator, Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import { openPage, picturesOf, signInHere, useE2eApp } from './support/setup'
+import { openPage, picturesOf, signInHere, useE2eApp, waitForStillness } from './support/setup'
 
 const CODE_CHARACTERS = 'ABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789'
 
@@ -62,7 +62,7 @@ async function addNumericCheck(page: Page, card: Locator, check: NumericCheck): 
   await card.getByRole('row', { name: new RegExp(check.key) }).waitFor()
 }
 
-describe('Recipes screen', { timeout: 90_000 }, () => {
+describe('Recipes screen', () => {
   const e2e = useE2eApp()
 
   it('lets an engineer build a two-step route with three checks and release it', async () => {
@@ -188,14 +188,10 @@ describe('Recipes screen', { timeout: 90_000 }, () => {
 
     // A still picture of the frozen revision from its top: the check messages gone, the release
     // message settled, and the pointer off the check rows it would highlight.
-    await expect
-      .poll(() => page.locator('.el-message', { hasText: 'Check added' }).count(), {
-        timeout: 10_000,
-      })
-      .toBe(0)
+    await expect.poll(() => page.locator('.el-message', { hasText: 'Check added' }).count()).toBe(0)
     await page.mouse.move(0, 0)
     await page.evaluate(() => window.scrollTo(0, 0))
-    await page.waitForTimeout(400)
+    await waitForStillness(page)
     await picturesOf(page)('recipes-released')
     await page.close()
   })

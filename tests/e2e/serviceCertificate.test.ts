@@ -9,7 +9,14 @@ import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../server/services/documents'
 import { startMailWorker } from '../../server/services/mail'
-import { DEMO_PASSWORD, demoEmail, openPage, picturesOf, useE2eApp } from './support/setup'
+import {
+  DEMO_PASSWORD,
+  demoEmail,
+  openPage,
+  picturesOf,
+  useE2eApp,
+  waitForStillness,
+} from './support/setup'
 
 /** A unit of the demo shipment, and the contact e-mail of the customer it went to. */
 async function shippedSerial(): Promise<{ serial: string; contact: string }> {
@@ -27,7 +34,7 @@ async function shippedSerial(): Promise<{ serial: string; contact: string }> {
   return row
 }
 
-describe('Customer service e-mails a certificate from a trace', { timeout: 180_000 }, () => {
+describe('Customer service e-mails a certificate from a trace', () => {
   let fake: Awaited<ReturnType<typeof startSmtpFake>>
   let connection: Redis
   let documents: ReturnType<typeof startDocumentsWorker>
@@ -77,7 +84,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     await page.getByRole('button', { name: `Make certificate for ${serial}` }).click()
     // The documents worker makes it; the list polls until it is ready to send.
     const emailButton = page.getByRole('button', { name: 'E-mail to customer' }).first()
-    await emailButton.waitFor({ timeout: 60_000 })
+    await emailButton.waitFor()
     await emailButton.click()
     const dialog = page.getByRole('dialog')
     await dialog.getByRole('button', { name: 'Queue e-mail' }).waitFor()
@@ -85,7 +92,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     await expect
       .poll(() => dialog.locator('input, textarea').first().inputValue())
       .toContain(contact.toLowerCase().split('@')[1]!)
-    await page.waitForTimeout(400) // the dialog's fade-in, for the picture only
+    await waitForStillness(page)
     await picturesOf(page)('service-certificate-email')
     await dialog.getByRole('button', { name: 'Queue e-mail' }).click()
     await page.getByText('E-mail queued').waitFor()
@@ -93,7 +100,7 @@ describe('Customer service e-mails a certificate from a trace', { timeout: 180_0
     // The fake SMTP server filed the message: a delivery receipt on the sent row, which
     // carries the certificate.
     await expect
-      .poll(() => Email.count({ where: { receiptAt: { [Op.ne]: null } } }), { timeout: 30_000 })
+      .poll(() => Email.count({ where: { receiptAt: { [Op.ne]: null } } }))
       .toBeGreaterThan(sentBefore)
     const received = await Email.findOne({
       where: { receiptAt: { [Op.ne]: null } },

@@ -12,7 +12,7 @@ describe('Shipping screen', () => {
   let unfinished: string
   let customerName: string
 
-  const e2e = useE2eApp({ before: prepare, timeout: 120_000 })
+  const e2e = useE2eApp({ before: prepare })
   beforeAll(async () => {
     page = await e2e.browser.newPage()
   })
@@ -84,5 +84,5 @@ describe('Shipping screen', () => {
       expect((await Unit.findOne({ where: { serial: s } }))!.state).toBe('shipped')
     expect((await Unit.findOne({ where: { serial: unfinished } }))!.state).toBe('in_progress')
     await picturesOf(page)('shipping-shipped')
-  }, 90_000)
+  })
 })

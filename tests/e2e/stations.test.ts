@@ -1,8 +1,8 @@
 import { randomBytes } from 'node:crypto'
 import { describe, expect, it } from 'vitest'
-import { openPage, picturesOf, signInHere, useE2eApp } from './support/setup'
+import { openPage, picturesOf, signInHere, useE2eApp, waitForStillness } from './support/setup'
 
-describe('Stations screen', { timeout: 60_000 }, () => {
+describe('Stations screen', () => {
   const e2e = useE2eApp()
 
   it('lets an admin add a station through the form and shows it in the table', async () => {
@@ -32,7 +32,7 @@ describe('Stations screen', { timeout: 60_000 }, () => {
 
     // Let the dialog finish closing and the message finish sliding in, for a still picture.
     await dialog.waitFor({ state: 'hidden' })
-    await page.waitForTimeout(400)
+    await waitForStillness(page)
     await picturesOf(page)('stations')
     await page.close()
   })

@@ -19,7 +19,7 @@ async function busiestSerial(): Promise<string> {
   return row.serial
 }
 
-describe('Trace for customer service', { timeout: 120_000 }, () => {
+describe('Trace for customer service', () => {
   const e2e = useE2eApp()
 
   it('finds a serial typed at the keyboard, corrects a mistyped one and downloads the PDF', async () => {

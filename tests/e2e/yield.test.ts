@@ -16,8 +16,8 @@ async function judgeDemo(): Promise<void> {
     await evaluateLotStep(lotId, stepId)
 }
 
-describe('Yield board', { timeout: 120_000 }, () => {
-  const e2e = useE2eApp({ before: judgeDemo, timeout: 120_000 })
+describe('Yield board', () => {
+  const e2e = useE2eApp({ before: judgeDemo })
 
   it('shows open alerts one line each above the figures, which stay on the first screen', async () => {
     const page = await openPage(e2e, 'yield-alerts')

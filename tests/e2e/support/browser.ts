@@ -4,6 +4,7 @@ import { join } from 'node:path'
 import { chromium } from 'playwright-core'
 import type { BrowserContext, Page } from 'playwright-core'
 import { onTestFailed } from 'vitest'
+import { E2E_WAIT_MS } from './timeouts'
 
 /** Where e2e pictures go; the folder is gitignored. */
 export const E2E_RESULTS_DIR = 'test-results/e2e'
@@ -43,7 +44,8 @@ export async function launchBrowser(): Promise<TestBrowser> {
     args: CHROMIUM_ARGS,
     viewport: { width: 1280, height: 800 },
   })
-  context.setDefaultTimeout(15_000)
+  context.setDefaultTimeout(E2E_WAIT_MS)
+  context.setDefaultNavigationTimeout(E2E_WAIT_MS)
   return {
     context,
     newPage: () => context.newPage(),
@@ -77,4 +79,15 @@ export function screenshotOnFailure(page: Page, name: string): void {
     mkdirSync(E2E_RESULTS_DIR, { recursive: true })
     await page.screenshot({ path: join(E2E_RESULTS_DIR, `${name}-failed.png`) }).catch(() => {})
   })
+}
+
+/**
+ * Waits until the page has no running animation or transition (a dialog's fade, a message
+ * sliding in), so a picture shows the screen at rest. A condition, not a pause: it returns as
+ * soon as everything has finished, and fails after the suite's wait bound.
+ */
+export async function waitForStillness(page: Page): Promise<void> {
+  await page.waitForFunction(() =>
+    document.getAnimations().every((a) => a.playState !== 'running' && !a.pending),
+  )
 }

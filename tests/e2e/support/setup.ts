@@ -6,6 +6,7 @@ import { startAppServer } from './appServer'
 import type { AppServer } from './appServer'
 import { E2E_RESULTS_DIR, launchBrowser, screenshotOnFailure, signInThroughForm } from './browser'
 import type { TestBrowser } from './browser'
+export { waitForStillness } from './browser'
 
 /** The password of every user the demo seed makes. */
 export const DEMO_PASSWORD = 'waymark-demo'
@@ -26,17 +27,18 @@ export interface E2eContext {
  * Starts the app in this process and a headless Chromium before the enclosing describe's tests,
  * and closes both after them. Call it inside `describe`.
  * @param hooks `before` runs first (e.g. workers, fakes, data the tests need); `after` runs
- *   once the browser is closed and before the app closes; `timeout` bounds the start (ms)
+ *   once the browser is closed and before the app closes; vitest's hookTimeout (from
+ *   support/timeouts.ts) bounds them
  */
 export function useE2eApp(
-  hooks: { before?: () => Promise<void>; after?: () => Promise<void>; timeout?: number } = {},
+  hooks: { before?: () => Promise<void>; after?: () => Promise<void> } = {},
 ): E2eContext {
   const context = {} as E2eContext
   beforeAll(async () => {
     await hooks.before?.()
     context.app = await startAppServer()
     context.browser = await launchBrowser()
-  }, hooks.timeout ?? 60_000)
+  })
   afterAll(async () => {
     await context.browser?.close()
     await hooks.after?.()
