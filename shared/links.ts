@@ -42,3 +42,11 @@ export function isCode(text: string): boolean {
 export function isScannedCode(scanned: string): boolean {
   return isCode(codeFromScan(scanned))
 }
+
+/** What a person's badge QR holds: `BADGE-` and 16 characters of Crockford's base 32 (80 bits). */
+export const BADGE_CODE_SHAPE = /^BADGE-[0-9A-HJKMNP-TV-Z]{16}$/
+
+/** Whether scanned text (trimmed, any case) is a person's badge rather than a unit or a lot. */
+export function isBadgeCode(scanned: string): boolean {
+  return BADGE_CODE_SHAPE.test(scanned.trim().toUpperCase())
+}
