@@ -73,5 +73,21 @@ export default defineConfig(
       ],
     },
   },
+  {
+    // One way to the database: plain statements and transactions go through server/db/sql.ts
+    // (select, execute, withTransaction), which alone calls Sequelize's query and transaction.
+    files: ['server/**/*.ts', 'scripts/**/*.ts'],
+    ignores: ['server/db/**'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector:
+            "CallExpression[callee.property.name=/^(query|transaction)$/][callee.object.type='CallExpression'][callee.object.callee.name='db']",
+          message: 'use select, execute or withTransaction from server/db/sql.ts',
+        },
+      ],
+    },
+  },
   prettier,
 )

@@ -44,7 +44,7 @@ async function main(argv: string[]): Promise<number> {
     {
       name: 'api',
       cmd: bin(config, 'tsx'),
-      args: ['watch', '--clear-screen=false', 'server/index.ts'],
+      args: ['watch', '--clear-screen=false', 'server/main/index.ts'],
       cwd: config.repoRoot,
       env: { ...env, PORT: apiPort, HOST: '127.0.0.1' },
     },

@@ -33,7 +33,7 @@ async function main(argv: string[]): Promise<number> {
     {
       name: 'server',
       cmd: bin(config, 'tsx'),
-      args: ['server/index.ts'],
+      args: ['server/main/index.ts'],
       cwd: config.repoRoot,
       env: {
         ...env,

@@ -66,7 +66,7 @@ await owner.query(
 await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
-const { buildApp } = await import('../../server/app')
+const { buildApp } = await import('../../server/main/app')
 const { seedBenchLot } = await import('./scanSeed')
 await loadDemo({ onlyIfEmpty: false })
 // A unit per scan: the warm-up, the rounds, the profiled round and the paced run.

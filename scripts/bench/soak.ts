@@ -93,7 +93,7 @@ const stop = () => stopAppProcesses(children)
 process.on('SIGINT', () => void stop().then(() => process.exit(130)))
 const api = await startApi('api', { WAYMARK_WORKERS: 'off' }, 120_000)
 children.push(api.process)
-const worker = startAppProcess('worker', 'workers/index.ts', { LOG_LEVEL: 'info' })
+const worker = startAppProcess('worker', 'server/workers/index.ts', { LOG_LEVEL: 'info' })
 children.push(worker)
 await waitForOutput(worker, /workers started/, 120_000)
 const base = api.base

@@ -42,7 +42,7 @@ await migrator(owner).up()
 await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
-const { buildApp } = await import('../../server/app')
+const { buildApp } = await import('../../server/main/app')
 const { seedTraceHistory } = await import('./traceSeed')
 const { RECALL_SCOPE_SQL, UNIT_TRACE_SQL } = await import('../../server/services/trace')
 await loadDemo({ onlyIfEmpty: false })

@@ -42,7 +42,7 @@ await migrator(owner).up()
 await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
-const { buildApp } = await import('../../server/app')
+const { buildApp } = await import('../../server/main/app')
 const { db } = await import('../../server/models')
 const { seedYieldBench, seededBench } = await import('./yieldSeed')
 const seedStart = performance.now()

@@ -60,7 +60,7 @@ export async function startApi(
   env: Record<string, string>,
   timeoutMs: number,
 ): Promise<{ process: AppProcess; base: string }> {
-  const p = startAppProcess(name, 'server/index.ts', { PORT: '0', HOST: '127.0.0.1', ...env })
+  const p = startAppProcess(name, 'server/main/index.ts', { PORT: '0', HOST: '127.0.0.1', ...env })
   const [, base] = await waitForOutput(p, /ready at (http:\/\/127\.0\.0\.1:\d+)/, timeoutMs)
   return { process: p, base: base! }
 }

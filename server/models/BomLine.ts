@@ -1,8 +1,8 @@
 import { DataTypes } from 'sequelize'
 import type { NonAttribute, Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
-import { TRACE_LEVELS } from '../../shared/recipes/definitions'
-import type { TraceLevel } from '../../shared/recipes/definitions'
+import { TRACE_LEVELS } from '../../shared/recipeDefinitions'
+import type { TraceLevel } from '../../shared/recipeDefinitions'
 import type { Part } from './Part'
 
 export class BomLine extends RecordModel<BomLine> {

@@ -1,8 +1,8 @@
 import { DataTypes } from 'sequelize'
 import type { Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
-import { CHECK_KINDS } from '../../shared/recipes/definitions'
-import type { CheckKind, DerivedFormula } from '../../shared/recipes/definitions'
+import { CHECK_KINDS } from '../../shared/recipeDefinitions'
+import type { CheckKind, DerivedFormula } from '../../shared/recipeDefinitions'
 import type { ChoiceOption } from '../../shared/schemas/recipes'
 import type { Unit } from '../../shared/units'
 

@@ -1,8 +1,8 @@
 import { DataTypes } from 'sequelize'
 import type { CreationOptional, NonAttribute, Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
-import { COMPONENT_LOT_STATUSES } from '../../shared/recipes/definitions'
-import type { ComponentLotStatus } from '../../shared/recipes/definitions'
+import { COMPONENT_LOT_STATUSES } from '../../shared/recipeDefinitions'
+import type { ComponentLotStatus } from '../../shared/recipeDefinitions'
 import type { Part } from './Part'
 import type { Upload } from './Upload'
 

@@ -1,7 +1,7 @@
 import { DataTypes } from 'sequelize'
 import type { Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
-import type { UnitOfMeasure } from '../../shared/recipes/definitions'
+import type { UnitOfMeasure } from '../../shared/recipeDefinitions'
 
 export class Part extends RecordModel<Part> {
   declare partNumber: string

@@ -1,7 +1,7 @@
 import { AuditQuery } from '../../shared/schemas/audit'
 import { parse } from '../middleware/validate'
 import { auditTable, listAuditEvents } from '../services/admin'
-import { writeCsv } from '../services/exports'
+import { writeCsv } from '../csv'
 import { apiRoutes } from './registry'
 
 export const auditRoutes = apiRoutes('/audit-events')

@@ -1,4 +1,4 @@
-import type { ComponentLotStatus } from '../recipes/definitions'
+import type { ComponentLotStatus } from '../recipeDefinitions'
 
 /** A component lot as the Floor reads it to fit it on a line. */
 export interface LotToFit {

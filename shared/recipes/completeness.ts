@@ -1,7 +1,7 @@
 import type { RevisionDto } from '../schemas/recipes'
 import { UNITS } from '../units'
 import type { Unit } from '../units'
-import { DERIVED_FORMULAS } from './definitions'
+import { DERIVED_FORMULAS } from '../recipeDefinitions'
 
 /**
  * What stops a revision from being released, in words an engineer can act on; empty when it is

@@ -8,7 +8,7 @@ import {
 import type { CheckDto, WindingDto } from '../schemas/recipes'
 import { fromSi, toSi } from '../units'
 import type { Unit } from '../units'
-import { DERIVED_FORMULAS } from './definitions'
+import { DERIVED_FORMULAS } from '../recipeDefinitions'
 
 export type CheckValue = number | boolean | string | null
 export type Verdict = 'pass' | 'fail' | 'missing'

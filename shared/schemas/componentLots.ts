@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { COMPONENT_LOT_STATUSES } from '../recipes/definitions'
-import type { ComponentLotStatus, UnitOfMeasure } from '../recipes/definitions'
+import { COMPONENT_LOT_STATUSES } from '../recipeDefinitions'
+import type { ComponentLotStatus, UnitOfMeasure } from '../recipeDefinitions'
 import { PageQuery, text } from './common'
 
 const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')

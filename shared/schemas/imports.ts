@@ -3,7 +3,7 @@ import { text } from './common'
 import type { ImportMapping, ImportRowOutcome, ImportStatus } from '../imports'
 import type { StationKind } from '../stations'
 import type { Unit } from '../units'
-import type { CheckKind } from '../recipes/definitions'
+import type { CheckKind } from '../recipeDefinitions'
 
 const column = (what: string) =>
   text()

@@ -6,15 +6,15 @@ import {
   REVISION_STATUSES,
   TRACE_LEVELS,
   UNITS_OF_MEASURE,
-} from '../recipes/definitions'
+} from '../recipeDefinitions'
 import type {
   CheckKind,
   DerivedFormula,
   RevisionStatus,
   TraceLevel,
   UnitOfMeasure,
-} from '../recipes/definitions'
-import { checkLimitProblems } from '../recipes/checkRules'
+} from '../recipeDefinitions'
+import { checkLimitProblems } from '../checkRules'
 import { STATION_KINDS } from '../stations'
 import type { StationKind } from '../stations'
 import { UNIT_SYMBOLS } from '../units'

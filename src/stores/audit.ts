@@ -2,7 +2,7 @@ import { defineStore } from 'pinia'
 import { reactive } from 'vue'
 import { auditApi } from '@/api/audit'
 import type { AuditFilterQuery } from '@/api/audit'
-import { usePagedList } from '@/composables/usePagedList'
+import { usePagedList } from './lists/usePagedList'
 
 /** The filters of the audit screen; empty strings mean "any". */
 export interface AuditFilters {

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { reactive, ref } from 'vue'
-import type { ComponentLotStatus } from '@shared/recipes/definitions'
+import type { ComponentLotStatus } from '@shared/recipeDefinitions'
 import type {
   COMPONENT_LOT_SORTS,
   ComponentLotCreateInput,
@@ -9,7 +9,7 @@ import type {
   ComponentLotUpdateInput,
 } from '@shared/schemas/componentLots'
 import { componentLotsApi } from '@/api/componentLots'
-import { usePagedList } from '@/composables/usePagedList'
+import { usePagedList } from './lists/usePagedList'
 
 export type ComponentLotSort = (typeof COMPONENT_LOT_SORTS)[number]
 

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { defectCodesApi } from '@/api/defectCodes'
-import { useRecordList } from '@/composables/useRecordList'
+import { useRecordList } from './lists/useRecordList'
 
 export const useDefectCodesStore = defineStore('defectCodes', () => {
   /** Every defect code, sorted by code; `isLoading` while they are fetched. */

@@ -2,7 +2,7 @@ import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { EmailDto, EmailStatus } from '@shared/schemas/outbox'
 import { outboxApi } from '@/api/outbox'
-import { usePagedList } from '@/composables/usePagedList'
+import { usePagedList } from './lists/usePagedList'
 
 export const useOutboxStore = defineStore('outbox', () => {
   /** The status filter; an empty string means any status. */

@@ -3,7 +3,7 @@ import { ref } from 'vue'
 import type { PartDto, PartInput } from '@shared/schemas/recipes'
 import type { PART_SORTS } from '@shared/schemas/componentLots'
 import { partsApi } from '@/api/parts'
-import { usePagedList } from '@/composables/usePagedList'
+import { usePagedList } from './lists/usePagedList'
 
 export type PartSort = (typeof PART_SORTS)[number]
 

@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import type { RevisionDto } from '@shared/schemas/recipes'
 import { productsApi } from '@/api/products'
-import { useRecordList } from '@/composables/useRecordList'
+import { useRecordList } from './lists/useRecordList'
 
 /** The product catalogue: products and a summary of their revisions. The open revision is in `revision`. */
 export const useRecipesStore = defineStore('recipes', () => {

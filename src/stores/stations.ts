@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed } from 'vue'
 import { stationsApi } from '@/api/stations'
-import { useRecordList } from '@/composables/useRecordList'
+import { useRecordList } from './lists/useRecordList'
 
 export const useStationsStore = defineStore('stations', () => {
   /** Every station, sorted by code; `isLoading` while they are fetched. */

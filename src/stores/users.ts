@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { usersApi } from '@/api/users'
-import { useRecordList } from '@/composables/useRecordList'
+import { useRecordList } from './lists/useRecordList'
 
 export const useUsersStore = defineStore('users', () => {
   /** Every user, sorted by name; `isLoading` while they are fetched. */

@@ -8,7 +8,7 @@ import { db, Email, User } from '../../server/models'
 import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
 import { queueEmail } from '../../server/services/mail/outbox'
-import type { Actor } from '../../server/services/admin/audit'
+import type { Actor } from '../../server/services/audit'
 import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
 

@@ -82,7 +82,7 @@ beforeAll(async () => {
     children.push(b.process)
     apiB = b.base
     for (const name of ['worker-1', 'worker-2']) {
-      const w = startAppProcess(name, 'workers/index.ts', common)
+      const w = startAppProcess(name, 'server/workers/index.ts', common)
       children.push(w)
       await waitForOutput(w, /workers started/, START_MS)
     }

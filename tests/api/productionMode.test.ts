@@ -25,7 +25,7 @@ describe('production mode', () => {
     await resetSignInLimits()
     const port = await freePort()
     base = `http://127.0.0.1:${port}`
-    child = spawn('node_modules/.bin/tsx', ['server/index.ts'], {
+    child = spawn('node_modules/.bin/tsx', ['server/main/index.ts'], {
       env: {
         ...process.env,
         NODE_ENV: 'production',

@@ -6,8 +6,8 @@ import { AppError } from '../../errors'
 import { User } from '../../models'
 import { withTransaction } from '../../db/sql'
 import { hashPassword, verifyPassword } from '../auth'
-import { recordAudit } from './audit'
-import type { Actor } from './audit'
+import { recordAudit } from '../audit'
+import type { Actor } from '../audit'
 
 /** Crockford's base 32: no I, L, O or U, so a badge code read aloud is not misheard. */
 const CROCKFORD = '0123456789ABCDEFGHJKMNPQRSTVWXYZ'

@@ -6,8 +6,8 @@ import type {
 } from '../../../shared/schemas/stations'
 import { AppError } from '../../errors'
 import { Station } from '../../models'
-import { changedFields, recordAudit } from './audit'
-import type { Actor } from './audit'
+import { changedFields, recordAudit } from '../audit'
+import type { Actor } from '../audit'
 import { withTransaction } from '../../db/sql'
 
 function toStationDto(s: Station): StationDto {

@@ -1,18 +1,11 @@
 import { UniqueConstraintError } from 'sequelize'
-import type { UserDto } from '../../../shared/schemas/auth'
 import type { UserAdminDto, UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users'
 import { AppError } from '../../errors'
-import { forgetUsers } from '../auth/authCache'
 import { User } from '../../models'
-import { changedFields, recordAudit } from './audit'
-import type { Actor } from './audit'
-import { hashPassword } from '../auth'
+import { changedFields, recordAudit } from '../audit'
+import type { Actor } from '../audit'
+import { forgetUsers, hashPassword, toUserDto } from '../auth'
 import { execute, withTransaction } from '../../db/sql'
-
-/** The public shape of a user (never the hash). */
-export function toUserDto(user: User): UserDto {
-  return { id: user.id, email: user.email, name: user.name, role: user.role }
-}
 
 function toAdminDto(user: User): UserAdminDto {
   return {

@@ -1,9 +1,13 @@
 import type { LoginInput, UserDto } from '../../../shared/schemas/auth'
 import { User } from '../../models'
-import { recordAudit } from '../admin'
-import type { Actor } from '../admin'
+import { recordAudit } from '../audit'
+import type { Actor } from '../audit'
 import { verifyPassword } from './passwords'
-import { toUserDto } from '../admin'
+
+/** The public shape of a user (never the hash). */
+export function toUserDto(user: Pick<User, 'id' | 'email' | 'name' | 'role'>): UserDto {
+  return { id: user.id, email: user.email, name: user.name, role: user.role }
+}
 
 /**
  * Checks an e-mail and password. Returns the user, or null with one reason for the audit log; the

@@ -1,8 +1,8 @@
-import { QueryTypes } from 'sequelize'
 import type { CertificateData, CertificateGroup, CertificateRun } from '../../documents/certificate'
 import type { PackingSlipData } from '../../documents/packingSlip'
 import { env } from '../../env'
-import { db, User } from '../../models'
+import { User } from '../../models'
+import { select } from '../../db/sql'
 import type { Document } from '../../models'
 import { toRevisionDto } from '../recipes'
 import { loadRevision } from '../recipes'
@@ -32,7 +32,7 @@ const day = (d: Date) => new Date(d).toISOString().slice(0, 10)
 
 /** The shipment a document belongs to (its own, or its unit's latest), with the customer. */
 async function paperShipment(doc: Document): Promise<PaperShipment | null> {
-  const [row] = await db().query<PaperShipment>(
+  const [row] = await select<PaperShipment>(
     `SELECT s.number, s.order_ref, s.carrier, s.tracking, s.shipped_on::text AS shipped_on,
             c.name AS customer_name, c.address AS customer_address
        FROM shipments s JOIN customers c ON c.id = s.customer_id
@@ -40,21 +40,19 @@ async function paperShipment(doc: Document): Promise<PaperShipment | null> {
               WHERE su.unit_id = :unitId ORDER BY su.created_at DESC LIMIT 1))`,
     {
       replacements: { shipmentId: doc.shipmentId, unitId: doc.unitId },
-      type: QueryTypes.SELECT,
     },
   )
   return row ?? null
 }
 
 async function paperUnits(doc: Document): Promise<PaperUnit[]> {
-  return db().query<PaperUnit>(
+  return select<PaperUnit>(
     `SELECT u.id, u.serial, l.number AS lot_number, l.revision_id, u.finished_at
        FROM units u JOIN lots l ON l.id = u.lot_id
       WHERE ${doc.shipmentId ? 'u.id IN (SELECT unit_id FROM shipment_units WHERE shipment_id = :shipmentId)' : 'u.id = :unitId'}
       ORDER BY u.serial`,
     {
       replacements: { shipmentId: doc.shipmentId, unitId: doc.unitId },
-      type: QueryTypes.SELECT,
     },
   )
 }
@@ -78,17 +76,17 @@ interface ValueRow {
 
 /** Each unit's last passing run of each step, with its measurements: the values that count. */
 async function passingRuns(unitIds: string[]): Promise<Map<string, CertificateRun[]>> {
-  const runs = await db().query<RunRow>(
+  const runs = await select<RunRow>(
     `SELECT DISTINCT ON (unit_id, step_id) id, unit_id, step_id, attempt, finished_at
        FROM step_runs WHERE unit_id IN (:unitIds) AND result = 'pass'
       ORDER BY unit_id, step_id, finished_at DESC, id`,
-    { replacements: { unitIds }, type: QueryTypes.SELECT },
+    { replacements: { unitIds } },
   )
   const values = runs.length
-    ? await db().query<ValueRow>(
+    ? await select<ValueRow>(
         `SELECT step_run_id, check_id, value_number, value_text, value_boolean, is_pass, is_derived
            FROM measurements WHERE step_run_id IN (:ids)`,
-        { replacements: { ids: runs.map((r) => r.id) }, type: QueryTypes.SELECT },
+        { replacements: { ids: runs.map((r) => r.id) } },
       )
     : []
   const byRun = new Map<string, ValueRow[]>()
@@ -172,7 +170,7 @@ export async function certificateData(doc: Document): Promise<CertificateData> {
 export async function packingSlipData(doc: Document): Promise<PackingSlipData> {
   const shipment = await paperShipment(doc)
   if (!shipment) throw new Error(`document ${doc.id} has no shipment`)
-  const units = await db().query<{
+  const units = await select<{
     serial: string
     product_code: string
     product_name: string
@@ -184,7 +182,7 @@ export async function packingSlipData(doc: Document): Promise<PackingSlipData> {
        FROM shipment_units su JOIN units u ON u.id = su.unit_id JOIN lots l ON l.id = u.lot_id
        JOIN revisions r ON r.id = l.revision_id JOIN products p ON p.id = r.product_id
       WHERE su.shipment_id = :id ORDER BY p.code, u.serial`,
-    { replacements: { id: doc.shipmentId }, type: QueryTypes.SELECT },
+    { replacements: { id: doc.shipmentId } },
   )
   return {
     shopName: env.WAYMARK_SHOP_NAME,

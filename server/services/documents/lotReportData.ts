@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import { dpuInterval } from '../../../shared/quality/poisson'
 import { capability } from '../../../shared/quality/spc'
 import type { RevisionDto } from '../../../shared/schemas/recipes'
@@ -11,7 +10,8 @@ import type {
   TurnSeries,
 } from '../../documents/lotReportTypes'
 import { AppError } from '../../errors'
-import { db, Lot } from '../../models'
+import { Lot } from '../../models'
+import { select } from '../../db/sql'
 import { listNonconformances } from '../quality'
 import { toRevisionDto } from '../recipes'
 import { loadRevision } from '../recipes'
@@ -31,14 +31,14 @@ interface MeasurementRow {
 /** Numeric values of the given checks in the lot. */
 async function numericValues(lotId: string, checkIds: readonly string[]) {
   if (!checkIds.length) return []
-  return db().query<MeasurementRow>(
+  return select<MeasurementRow>(
     `SELECT m.step_run_id, m.check_id, m.value_number
        FROM measurements m
        JOIN step_runs sr ON sr.id = m.step_run_id
        JOIN units u ON u.id = sr.unit_id
       WHERE u.lot_id = :lotId AND m.check_id IN (:checkIds) AND m.value_number IS NOT NULL
       ORDER BY sr.finished_at, u.serial, m.step_run_id`,
-    { replacements: { lotId, checkIds }, type: QueryTypes.SELECT },
+    { replacements: { lotId, checkIds } },
   )
 }
 
@@ -140,7 +140,7 @@ async function checkCapabilities(
 
 /** Nonconformances per defect code, most frequent first; runs with no code count as "none". */
 async function defectPareto(lotId: string): Promise<ParetoBar[]> {
-  const rows = await db().query<{ code: string | null; description: string | null; n: string }>(
+  const rows = await select<{ code: string | null; description: string | null; n: string }>(
     `SELECT dc.code, dc.description, count(*) AS n
        FROM nonconformances nc
        JOIN units u ON u.id = nc.unit_id
@@ -148,7 +148,7 @@ async function defectPareto(lotId: string): Promise<ParetoBar[]> {
       WHERE u.lot_id = :lotId
       GROUP BY dc.code, dc.description
       ORDER BY count(*) DESC, dc.code NULLS LAST`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   return rows.map((r) => ({
     code: r.code ?? 'none',
@@ -158,13 +158,13 @@ async function defectPareto(lotId: string): Promise<ParetoBar[]> {
 }
 
 async function latestActivity(lotId: string): Promise<Date | null> {
-  const [row] = await db().query<{ at: Date | null }>(
+  const [row] = await select<{ at: Date | null }>(
     `SELECT greatest(
               (SELECT max(sr.finished_at) FROM step_runs sr JOIN units u ON u.id = sr.unit_id
                 WHERE u.lot_id = :lotId),
               (SELECT max(nc.closed_at) FROM nonconformances nc JOIN units u ON u.id = nc.unit_id
                 WHERE u.lot_id = :lotId)) AS at`,
-    { replacements: { lotId }, type: QueryTypes.SELECT },
+    { replacements: { lotId } },
   )
   return row?.at ? new Date(row.at) : null
 }

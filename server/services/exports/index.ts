@@ -1,3 +1,2 @@
 // The exports area's public face: what the routes, workers and other areas may use.
-export * from './csv'
 export * from './exports'

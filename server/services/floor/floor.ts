@@ -8,7 +8,7 @@ import { todayIso } from '../receiving'
 import { toLotToFit } from './consumptions'
 import { stepPlan, toStepDtoOf } from './stepPlans'
 import { findUnitByScan } from './stepRuns'
-import { unitSummary } from './unitMoves'
+import { unitSummary } from '../units'
 import { select } from '../../db/sql'
 
 async function stationByCode(code: string): Promise<Station> {

@@ -1,6 +1,4 @@
 // The floor area's public face: what the routes, workers and other areas may use.
-export * from './countersign'
 export * from './floor'
 export * from './stepPlans'
 export * from './stepRuns'
-export * from './unitMoves'

@@ -1,33 +1,19 @@
-// Just over 400 lines on purpose: the scan's fast and locked paths and the decision they share
-// stay in one file, so the order of reads, locks and writes can be read in one place.
-import { randomUUID } from 'node:crypto'
+// The scan's two paths (fast and locked) in the order of their reads, locks and writes; the
+// decision they share, from what was read to what is written, is in stepRunDecision.ts.
 import type { Transaction } from 'sequelize'
-import { decideStepRun } from '../../../shared/floor/decideStepRun'
-import type {
-  FittedSerial,
-  ScanFacts,
-  StepRunDecision,
-  StepRunRefusal,
-} from '../../../shared/floor/decideStepRun'
-import type { CountersignRead } from '../../../shared/countersign'
 import type { StepRunInput, StepRunResultDto } from '../../../shared/schemas/lots'
 import { codeFromScan } from '../../../shared/links'
 import { isValidSerial, looksLikeSerial } from '../../../shared/serials'
 import { AppError } from '../../errors'
 import { coalesce } from '../../db/coalesce'
 import { Nonconformance, StepRun, Unit } from '../../models'
-import type { ComponentLot } from '../../models'
 import type { Actor } from '../admin'
 import { enqueueAlertCheck } from '../quality'
-import {
-  applyConsumptions,
-  lockComponentLots,
-  serialsFittedAlready,
-  toLotToFit,
-} from './consumptions'
-import type { PlannedConsumption } from './consumptions'
-import { auditCountersignFailure, readCountersign } from './countersign'
-import { unitSummary } from './unitMoves'
+import { applyConsumptions, lockComponentLots, serialsFittedAlready } from './consumptions'
+import { readCountersign } from '../auth'
+import { unitSummary } from '../units'
+import { decide } from './stepRunDecision'
+import type { Decided, Extra } from './stepRunDecision'
 import { stepPlan } from './stepPlans'
 import type { StepPlan } from './stepPlans'
 import {
@@ -39,14 +25,7 @@ import {
   WRITE_RUNS,
   writeRunsValues,
 } from './stepRunSql'
-import type {
-  MeasurementRow,
-  RunWrite,
-  ScanContext,
-  ScanKey,
-  ScanRow,
-  ScannedUnit,
-} from './stepRunSql'
+import type { RunWrite, ScanContext, ScanKey, ScanRow, ScannedUnit } from './stepRunSql'
 import {
   isUniqueViolation,
   prepared,
@@ -92,20 +71,6 @@ async function resultOf(run: StepRun, input: StepRunInput): Promise<StepRunResul
   }
 }
 
-function measurementRows(step: StepPlan, decision: StepRunDecision): MeasurementRow[] {
-  return step.checks.map((c) => {
-    const r = decision.results[c.key]!
-    return {
-      checkId: c.id,
-      valueNumber: typeof r.value === 'number' ? r.value : null,
-      valueText: typeof r.value === 'string' ? r.value : null,
-      valueBoolean: typeof r.value === 'boolean' ? r.value : null,
-      isDerived: r.isDerived,
-      isPass: r.verdict === 'pass',
-    }
-  })
-}
-
 // Most scans run as two statements on the plain pool, without a transaction of their own: one
 // read of everything the scan needs, then one write that moves the unit only if it is still as
 // read (see WRITE_RUNS). The UPDATE takes the unit's row lock inside the write's own
@@ -130,119 +95,10 @@ const writeRun = coalesce(async (batch: RunWrite[]): Promise<boolean[]> => {
   return batch.map((w) => written.has(w.runId))
 }, BATCHING)
 
-/** A scan decided: what it writes, and what to answer once it is written. */
-interface Decided {
-  write: RunWrite
-  planned: PlannedConsumption[]
-  body: StepRunResultDto
-}
-
-/** What the scan read beyond its row: the step's plan, and under the lock its lots and signer. */
-interface Extra {
-  step: StepPlan | null
-  componentLots: ComponentLot[]
-  fittedSerials: FittedSerial[]
-  countersign: CountersignRead | null
-}
-
 // A scan that fits parts or needs a second signature reads more than the batched read gives:
 // its component lots, locked so that their quantities hold until the write, and the signer.
 const readsUnderLock = (step: StepPlan | null) =>
   step !== null && (step.bomLines.length > 0 || step.requiresSignoff)
-
-function refused(refusal: StepRunRefusal): AppError {
-  return new AppError(refusal.status, refusal.code, refusal.message, refusal.fields)
-}
-
-/**
- * Decides a scan from what was read (shared/floor/decideStepRun.ts) and turns the decision into
- * the write: a refusal throws, after auditing a wrong countersign like a failed sign-in.
- */
-async function decide(
-  row: ScanRow,
-  extra: Extra,
-  input: StepRunInput,
-  actor: Actor,
-  at: Date,
-): Promise<Decided> {
-  const { step } = extra
-  const facts: ScanFacts = {
-    unit: row,
-    lot: {
-      number: row.lotNumber,
-      status: row.lotStatus,
-      isOnHold: row.lotIsOnHold,
-      holdReason: row.lotHoldReason,
-    },
-    station: row.stationId
-      ? {
-          code: row.stationCode,
-          name: row.stationName,
-          kind: row.stationKind,
-          isActive: row.stationIsActive,
-        }
-      : null,
-    step,
-    submission: input,
-    isDefectCodeKnown: row.isDefectCodeKnown,
-    componentLots: extra.componentLots.map(toLotToFit),
-    fittedSerials: extra.fittedSerials,
-    countersign: extra.countersign,
-    actor,
-    at,
-  }
-  const out = decideStepRun(facts)
-  if ('refusal' in out) {
-    if (out.refusal.isCountersignFailure && extra.countersign && step)
-      await auditCountersignFailure(extra.countersign, actor, step.name)
-    throw refused(out.refusal)
-  }
-  const { decision } = out
-  const runId = randomUUID()
-  const ncId = decision.nonconformance ? randomUUID() : null
-  const write: RunWrite = {
-    runId,
-    unitId: row.id,
-    stepId: step!.id,
-    stationId: row.stationId!,
-    operatorId: actor.id,
-    countersignedBy: decision.countersignedBy?.id ?? null,
-    attempt: decision.attempt,
-    isRework: decision.isRework,
-    result: decision.result,
-    note: input.note,
-    clientEventId: input.clientEventId,
-    at,
-    measurements: measurementRows(step!, decision),
-    move: decision.move,
-    lotId: row.lotId,
-    actorEmail: actor.email,
-    audit: JSON.stringify(decision.audit),
-    ip: actor.ip ?? null,
-    requestId: actor.requestId ?? null,
-    // The unit as read: the write moves it only if it is still so.
-    read: { runCount: row.runCount, state: row.state, reworkCount: row.reworkCount },
-    nonconformance:
-      ncId && decision.nonconformance
-        ? {
-            id: ncId,
-            defectCodeId: decision.nonconformance.defectCodeId,
-            failedChecks: JSON.stringify(decision.nonconformance.failedChecks),
-          }
-        : null,
-  }
-  const planned = decision.fitted.map((f) => ({
-    line: step!.bomLines.find((l) => l.id === f.bomLineId)!,
-    lot: extra.componentLots.find((l) => l.id === f.componentLotId)!,
-    itemSerial: f.itemSerial,
-  }))
-  const body: StepRunResultDto = {
-    stepRun: { id: runId, result: decision.result, attempt: decision.attempt },
-    unit: decision.unit,
-    nonconformanceId: ncId,
-  }
-  return { write, planned, body }
-}
 
 type Recorded = Decided | { repeatOf: string }
 

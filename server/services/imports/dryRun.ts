@@ -1,4 +1,5 @@
-import { db, Import, ImportMapping as ImportMappingModel, ImportRow, Station } from '../../models'
+import { Import, ImportMapping as ImportMappingModel, ImportRow, Station } from '../../models'
+import { withTransaction } from '../../db/sql'
 import { AppError } from '../../errors'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
@@ -17,7 +18,7 @@ import { readTable } from './uploadBenchFile'
  * (checkImport) plans the rows; the caller enqueues it, and the sweeper does if Redis is away.
  */
 export async function requestDryRun(id: string, actor: Actor): Promise<Import> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const imp = await loadImport(id, transaction, true)
     if (imp.status === 'checking')
       throw AppError.conflict('import_checking', 'this file is being checked; wait for the rows')
@@ -82,32 +83,30 @@ export async function checkImport(
   )
   await report(PLANNED_SHARE)
   const ready = rows.filter((r) => r.errors.length === 0).length
-  const isStored = await db()
-    .transaction(async (transaction) => {
-      // The import is locked only at the end, so the progress written meanwhile (outside this
-      // transaction) never waits for it; a dry run no longer wanted is rolled back then.
-      await ImportRow.destroy({ where: { importId: id }, transaction })
-      for (let i = 0; i < rows.length; i += CHUNK) {
-        await ImportRow.bulkCreate(rows.slice(i, i + CHUNK), { transaction })
-        await report(PLANNED_SHARE + ((i + CHUNK) / rows.length) * (100 - PLANNED_SHARE))
-      }
-      const imp = await loadImport(id, transaction, true)
-      if (imp.status !== 'checking') throw new NoLongerChecking()
-      await imp.update(
-        {
-          status: 'checked',
-          progress: 0,
-          readyCount: ready,
-          errorCount: rows.length - ready,
-          checkedAt: new Date(),
-        },
-        { transaction },
-      )
-      return true
-    })
-    .catch((err: unknown) => {
-      if (err instanceof NoLongerChecking) return false
-      throw err
-    })
+  const isStored = await withTransaction(async (transaction) => {
+    // The import is locked only at the end, so the progress written meanwhile (outside this
+    // transaction) never waits for it; a dry run no longer wanted is rolled back then.
+    await ImportRow.destroy({ where: { importId: id }, transaction })
+    for (let i = 0; i < rows.length; i += CHUNK) {
+      await ImportRow.bulkCreate(rows.slice(i, i + CHUNK), { transaction })
+      await report(PLANNED_SHARE + ((i + CHUNK) / rows.length) * (100 - PLANNED_SHARE))
+    }
+    const imp = await loadImport(id, transaction, true)
+    if (imp.status !== 'checking') throw new NoLongerChecking()
+    await imp.update(
+      {
+        status: 'checked',
+        progress: 0,
+        readyCount: ready,
+        errorCount: rows.length - ready,
+        checkedAt: new Date(),
+      },
+      { transaction },
+    )
+    return true
+  }).catch((err: unknown) => {
+    if (err instanceof NoLongerChecking) return false
+    throw err
+  })
   if (isStored) await onProgress(100)
 }

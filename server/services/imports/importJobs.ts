@@ -1,5 +1,6 @@
-import { Op, QueryTypes } from 'sequelize'
-import { db, Import } from '../../models'
+import { Op } from 'sequelize'
+import { Import } from '../../models'
+import { select } from '../../db/sql'
 import { logger } from '../../logger'
 
 // The bookkeeping of an import's jobs (the dry run and the import): progress, counts, a job
@@ -22,9 +23,9 @@ export function progressReporter(imp: Import, onProgress: (percent: number) => P
 
 /** Recounts an import's recorded, repeated and refused rows from the outcomes written. */
 export async function refreshCounts(imp: Import): Promise<void> {
-  const rows = await db().query<{ outcome: string; n: string }>(
+  const rows = await select<{ outcome: string; n: string }>(
     `SELECT outcome, count(*) AS n FROM import_rows WHERE import_id = :id AND outcome IS NOT NULL GROUP BY outcome`,
-    { replacements: { id: imp.id }, type: QueryTypes.SELECT },
+    { replacements: { id: imp.id } },
   )
   const n = (o: string) => Number(rows.find((r) => r.outcome === o)?.n ?? 0)
   await imp.update({

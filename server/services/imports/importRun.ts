@@ -8,7 +8,8 @@ import { StepRunInput } from '../../../shared/schemas/lots'
 import type { StepRunResultDto } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
 import { logger } from '../../logger'
-import { db, DefectCode, Import, ImportRow, Station, User } from '../../models'
+import { DefectCode, Import, ImportRow, Station, User } from '../../models'
+import { execute, withTransaction } from '../../db/sql'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { recordStepRun } from '../floor'
@@ -27,7 +28,7 @@ export async function requestImportRun(
   input: ImportRunInput,
   actor: Actor,
 ): Promise<Import> {
-  return db().transaction(async (transaction) => {
+  return withTransaction(async (transaction) => {
     const imp = await loadImport(id, transaction, true)
     if (imp.status === 'uploaded')
       throw AppError.conflict('not_checked', 'run the dry run first, then import')
@@ -100,7 +101,7 @@ interface Outcome {
 
 async function writeOutcomes(importId: string, outcomes: Outcome[]): Promise<void> {
   if (!outcomes.length) return
-  await db().query(
+  await execute(
     `UPDATE import_rows r
         SET outcome = v.outcome::import_row_outcome, outcome_message = v.message,
             step_run_id = v.step_run_id

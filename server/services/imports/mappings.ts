@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import type { ImportMapping } from '../../../shared/imports'
 import type {
@@ -7,7 +6,8 @@ import type {
   ImportMappingInput,
 } from '../../../shared/schemas/imports'
 import { AppError } from '../../errors'
-import { db, ImportMapping as ImportMappingModel, Station } from '../../models'
+import { ImportMapping as ImportMappingModel, Station } from '../../models'
+import { select, withTransaction } from '../../db/sql'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 
@@ -23,7 +23,7 @@ export async function stationByCode(code: string, transaction?: Transaction): Pr
 
 /** The typed checks of every released step done at stations of this kind, one per key. */
 export async function stationChecks(station: Station): Promise<ImportCheckDto[]> {
-  const rows = await db().query<{
+  const rows = await select<{
     key: string
     label: string
     kind: ImportCheckDto['kind']
@@ -36,7 +36,7 @@ export async function stationChecks(station: Station): Promise<ImportCheckDto[]>
        JOIN revisions r ON r.id = s.revision_id
       WHERE s.station_kind = :kind AND r.status <> 'draft' AND c.derived IS NULL
       ORDER BY r.released_at DESC NULLS LAST, s.position, c.position`,
-    { replacements: { kind: station.kind }, type: QueryTypes.SELECT },
+    { replacements: { kind: station.kind } },
   )
   const byKey = new Map<string, ImportCheckDto>()
   for (const r of rows) {
@@ -89,7 +89,7 @@ export async function saveImportMapping(
         unknown.map((k) => [`checkColumns.${k}`, 'no such check at this station']),
       ),
     )
-  await db().transaction(async (transaction) => {
+  await withTransaction(async (transaction) => {
     const before = await ImportMappingModel.findByPk(station.id, {
       transaction,
       lock: transaction.LOCK.UPDATE,

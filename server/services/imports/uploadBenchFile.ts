@@ -1,7 +1,8 @@
 import { IMPORT_MAX_BYTES } from '../../../shared/imports'
 import type { ImportDto } from '../../../shared/schemas/imports'
 import { AppError } from '../../errors'
-import { db, Import, Upload } from '../../models'
+import { Import, Upload } from '../../models'
+import { withTransaction } from '../../db/sql'
 import { getFile, putFile } from '../../storage'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
@@ -33,7 +34,7 @@ export async function uploadBenchFile(
   const table = parseBenchCsv(await assertText(file.buffer))
   const stored = await putFile('imports', file.buffer, 'text/csv')
   const filename = safeFileName(file.originalname, 'bench.csv')
-  const imp = await db().transaction(async (transaction) => {
+  const imp = await withTransaction(async (transaction) => {
     const upload = await Upload.create(
       {
         storageKey: stored.key,

@@ -14,9 +14,9 @@ import { ComponentLot, Lot, RouteStep, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { containedUnitIds, moveComponentLotStatus } from '../receiving'
-import { verifyCountersign } from '../floor'
+import { verifyCountersign } from '../auth'
 import { findComponentLot, recallScope } from '../trace'
-import { reworkTarget, scrapUnit, sendToRework, unitSummary } from '../floor'
+import { reworkTarget, scrapUnit, sendToRework, unitSummary } from '../units'
 import { select, withTransaction } from '../../db/sql'
 
 // A containment (recall.ts) holds every unit still in the shop that holds a suspect component

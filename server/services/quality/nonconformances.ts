@@ -3,8 +3,8 @@ import { AppError } from '../../errors'
 import { Lot, Nonconformance, RouteStep, StepRun, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
-import { verifyCountersign } from '../floor'
-import { reworkTarget, scrapUnit, sendToRework, stepAfter } from '../floor'
+import { verifyCountersign } from '../auth'
+import { reworkTarget, scrapUnit, sendToRework, stepAfter } from '../units'
 import { select, withTransaction } from '../../db/sql'
 
 // A failed scan opens its nonconformance in the scan's batched write (`opened` in WRITE_RUNS,

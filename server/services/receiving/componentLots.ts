@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import { mod3736CheckCharacter } from '../../../shared/checkCharacter'
-import type { ComponentLotStatus } from '../../../shared/recipes/definitions'
+import type { ComponentLotStatus } from '../../../shared/recipeDefinitions'
 import { LOT_STATUS_MOVES } from '../../../shared/schemas/componentLots'
 import type {
   ComponentLotCreateInput,

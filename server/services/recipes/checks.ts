@@ -1,6 +1,6 @@
 import { UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
-import { checkLimitProblems } from '../../../shared/recipes/checkRules'
+import { checkLimitProblems } from '../../../shared/checkRules'
 import type { CheckDto, CheckInput, CheckUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Check, RouteStep } from '../../models'

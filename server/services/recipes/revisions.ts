@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize'
-import { nextRevisionLetter } from '../../../shared/recipes/definitions'
+import { nextRevisionLetter } from '../../../shared/recipeDefinitions'
 import { releaseProblems } from '../../../shared/recipes/completeness'
 import type { RevisionDto, RevisionUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'

@@ -15,7 +15,7 @@ import { DefectCode, Lot, RouteStep, ServiceCase, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { createShipment } from '../shipping'
-import { reworkTarget, sendToRework } from '../floor'
+import { reworkTarget, sendToRework } from '../units'
 import { select, withTransaction } from '../../db/sql'
 
 interface CaseRow {

@@ -1,4 +1,4 @@
-import type { ComponentLotStatus } from '@shared/recipes/definitions'
+import type { ComponentLotStatus } from '@shared/recipeDefinitions'
 
 /** Human labels for component lot statuses. */
 export const COMPONENT_LOT_STATUS_LABELS: Record<ComponentLotStatus, string> = {

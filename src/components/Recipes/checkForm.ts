@@ -1,4 +1,4 @@
-import type { CheckKind, DerivedFormula } from '@shared/recipes/definitions'
+import type { CheckKind, DerivedFormula } from '@shared/recipeDefinitions'
 import type { CheckDto, CheckInput, ChoiceOption } from '@shared/schemas/recipes'
 import { UNIT_SYMBOLS, UNITS } from '@shared/units'
 import type { Quantity, Unit } from '@shared/units'

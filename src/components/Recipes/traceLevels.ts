@@ -1,4 +1,4 @@
-import type { TraceLevel } from '@shared/recipes/definitions'
+import type { TraceLevel } from '@shared/recipeDefinitions'
 
 export const TRACE_LEVEL_LABELS: Record<TraceLevel, string> = {
   lot: 'Component lot',

@@ -1,7 +1,7 @@
 import request from 'supertest'
 import type { Response } from 'supertest'
 import type { Express } from 'express'
-import { buildApp } from '../../../server/app'
+import { buildApp } from '../../../server/main/app'
 import { DEMO_PASSWORD } from '../../../server/seed/demoUsers'
 import { redisConnection, redisPrefix } from '../../../server/redis'
 

@@ -1,6 +1,6 @@
 import { once } from 'node:events'
 import type { AddressInfo } from 'node:net'
-import { buildApp } from '../../../server/app'
+import { buildApp } from '../../../server/main/app'
 import { closeSessionPool } from '../../../server/middleware/session'
 import { closeDb } from '../../../server/models'
 import { closeRedis } from '../../../server/redis'

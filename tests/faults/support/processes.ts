@@ -46,7 +46,7 @@ export interface App extends Child {
 }
 
 /**
- * Starts server/index.ts (workers off unless `env` says otherwise) and waits until it answers
+ * Starts server/main/index.ts (workers off unless `env` says otherwise) and waits until it answers
  * /api/health, whatever the health says.
  */
 export async function startApp(
@@ -56,7 +56,7 @@ export async function startApp(
   port?: number,
 ): Promise<App> {
   port ??= await freePort()
-  const child = launch(stack, `api-${port}`, 'server/index.ts', {
+  const child = launch(stack, `api-${port}`, 'server/main/index.ts', {
     PORT: String(port),
     WAYMARK_WORKERS: 'off',
     ...env,
@@ -82,9 +82,9 @@ export async function startApp(
   return app
 }
 
-/** Starts workers/index.ts, the job runners, as a process of their own. */
+/** Starts server/workers/index.ts, the job runners, as a process of their own. */
 export async function startWorkers(stack: Stack, env: NodeJS.ProcessEnv = {}): Promise<Child> {
-  const child = launch(stack, `workers-${Date.now()}`, 'workers/index.ts', env)
+  const child = launch(stack, `workers-${Date.now()}`, 'server/workers/index.ts', env)
   const isUp = await waitFor(
     () => child.exit !== null || /workers started/.test(tail(child, 200)),
     60_000,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { changedFields } from '../../../../server/services/admin/audit'
+import { changedFields } from '../../../../server/services/audit/audit'
 
 describe('changedFields', () => {
   it('keeps only the fields whose values differ, on both sides', () => {

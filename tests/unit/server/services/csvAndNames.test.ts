@@ -1,6 +1,6 @@
 import { parse } from 'csv-parse/sync'
 import { describe, expect, it } from 'vitest'
-import { csvCell, safeText, writeCsv } from '../../../../server/services/exports/csv'
+import { csvCell, safeText, writeCsv } from '../../../../server/csv'
 import { FILE_NAME_MAX, safeFileName } from '../../../../server/services/receiving/uploads'
 
 describe('the CSV guard', () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { releaseProblems } from '../../../../shared/recipes/completeness'
-import { nextRevisionLetter } from '../../../../shared/recipes/definitions'
-import { checkLimitProblems } from '../../../../shared/recipes/checkRules'
+import { nextRevisionLetter } from '../../../../shared/recipeDefinitions'
+import { checkLimitProblems } from '../../../../shared/checkRules'
 import type { CheckDto, StepDto } from '../../../../shared/schemas/recipes'
 
 const baseCheck: CheckDto = {

@@ -5,9 +5,9 @@ import type { Role } from '../../../shared/roles'
 import type { CountersignInput } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
 import { User } from '../../models'
-import { recordAudit } from '../admin'
-import type { Actor } from '../admin'
-import { verifyPassword } from '../auth'
+import { recordAudit } from '../audit'
+import type { Actor } from '../audit'
+import { verifyPassword } from './passwords'
 
 async function lookUp(
   input: CountersignInput,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { useRecordList } from '@/composables/useRecordList'
+import { useRecordList } from '@/stores/lists/useRecordList'
 
 interface Station {
   id: string

@@ -1,9 +1,9 @@
 import { Queue, Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { logger } from '../server/logger'
-import { redisPrefix } from '../server/redis'
-import { jobLocks } from '../server/queue'
-import { sweepExpiredSessions } from '../server/services/auth'
+import { logger } from '../logger'
+import { redisPrefix } from '../redis'
+import { jobLocks } from '../queue'
+import { sweepExpiredSessions } from '../services/auth'
 
 /** Housekeeping that every deployment needs once, not once per API process. */
 export const MAINTENANCE_QUEUE = 'maintenance'

@@ -1,4 +1,6 @@
-import type { Quantity } from '../units'
+// The words a recipe is made of (revision statuses, check kinds, derived formulas, units of
+// measure, trace levels): the vocabulary shared/schemas validates with and shared/recipes computes on.
+import type { Quantity } from './units'
 
 export const REVISION_STATUSES = ['draft', 'released', 'obsolete'] as const
 export type RevisionStatus = (typeof REVISION_STATUSES)[number]

@@ -1,11 +1,11 @@
 import { fileURLToPath } from 'node:url'
 import type { Worker } from 'bullmq'
-import { logger } from '../server/logger'
-import { closeDocumentsQueue, startDocumentsWorker } from '../server/services/documents'
-import { closeImportsQueue, startImportsWorker } from '../server/services/imports'
-import { closeMailQueue, startMailWorker } from '../server/services/mail'
-import { closeAlertsQueue, startAlertsWorker } from '../server/services/quality'
-import { newQueueConnection } from '../server/redis'
+import { logger } from '../logger'
+import { closeDocumentsQueue, startDocumentsWorker } from '../services/documents'
+import { closeImportsQueue, startImportsWorker } from '../services/imports'
+import { closeMailQueue, startMailWorker } from '../services/mail'
+import { closeAlertsQueue, startAlertsWorker } from '../services/quality'
+import { newQueueConnection } from '../redis'
 import { scheduleMaintenance, startMaintenanceWorker } from './maintenance'
 
 /** Starts every queue's worker on one fresh Redis connection; `close()` drains them. */
@@ -57,7 +57,7 @@ export async function startWorkers(): Promise<{ close: () => Promise<void> }> {
   }
 }
 
-// Run on its own (`tsx workers/index.ts`) to scale workers apart from the API.
+// Run on its own (`tsx server/workers/index.ts`) to scale workers apart from the API.
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const running = await startWorkers()
   const stop = () => void running.close().then(() => process.exit(0))

@@ -4,17 +4,17 @@ import { fileURLToPath } from 'node:url'
 import express from 'express'
 import type { Express } from 'express'
 import helmet from 'helmet'
-import { env } from './env'
-import type { TrustProxy } from './env'
-import { csrfProtection } from './middleware/csrf'
-import { apiNotFound, errorHandler } from './middleware/errorHandler'
-import { passport } from './middleware/passport'
-import { requestLog } from './middleware/requestLog'
-import { sessionMiddleware } from './middleware/session'
-import { db } from './models'
-import { apiRouter } from './routes'
+import { env } from '../env'
+import type { TrustProxy } from '../env'
+import { csrfProtection } from '../middleware/csrf'
+import { apiNotFound, errorHandler } from '../middleware/errorHandler'
+import { passport } from '../middleware/passport'
+import { requestLog } from '../middleware/requestLog'
+import { sessionMiddleware } from '../middleware/session'
+import { db } from '../models'
+import { apiRouter } from '../routes'
 
-const distDir = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist')
+const distDir = join(dirname(fileURLToPath(import.meta.url)), '..', '..', 'dist')
 
 /**
  * Builds the Express app: middleware, the API, the built client, then the error handler.

@@ -1,4 +1,4 @@
-import type { CheckKind, DerivedFormula } from './definitions'
+import type { CheckKind, DerivedFormula } from './recipeDefinitions'
 
 export interface CheckShape {
   kind: CheckKind
