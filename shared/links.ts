@@ -50,3 +50,11 @@ export const BADGE_CODE_SHAPE = /^BADGE-[0-9A-HJKMNP-TV-Z]{16}$/
 export function isBadgeCode(scanned: string): boolean {
   return BADGE_CODE_SHAPE.test(scanned.trim().toUpperCase())
 }
+
+/** The shape of our component lot codes: `CL-`, the receipt's year, a number and a check character. */
+const COMPONENT_LOT_CODE_SHAPE = /^CL-\d{2}-\d{5,}[0-9A-Z*]$/
+
+/** Whether a code (as `codeFromScan` returns it) has the shape of one of our component lot codes. */
+export function looksLikeComponentLotCode(code: string): boolean {
+  return COMPONENT_LOT_CODE_SHAPE.test(code)
+}
