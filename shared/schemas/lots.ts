@@ -194,6 +194,32 @@ export interface FloorUnitDto {
   windings: WindingDto[]
 }
 
+/** Units waiting for a station's kind of step, oldest first, and how many there are in all. */
+export interface WaitingUnitsDto {
+  total: number
+  units: {
+    serial: string
+    lotId: string
+    lotNumber: string
+    productCode: string
+    stepName: string
+    isRework: boolean
+    /** Since when it waits: its last step run, or its lot's release. */
+    since: string
+  }[]
+}
+
+/** Where a unit waits: its next step and the stations that work it (none when it waits nowhere). */
+export interface UnitWhereDto {
+  serial: string
+  state: UnitState
+  lotNumber: string
+  stepName: string | null
+  stationKind: StationKind | null
+  holdReason: string | null
+  stations: { code: string; name: string }[]
+}
+
 export interface RecentRunDto {
   id: string
   serial: string

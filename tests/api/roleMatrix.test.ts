@@ -115,6 +115,16 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
     path: '/api/floor/stations/:code/recent',
     who: ['operator', 'lead', 'engineer', 'admin'],
   },
+  {
+    method: 'get',
+    path: '/api/floor/stations/:code/waiting',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  {
+    method: 'get',
+    path: '/api/floor/units/:serial/where',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
   { method: 'post', path: '/api/step-runs', who: ['operator', 'lead', 'engineer'] },
   { method: 'get', path: '/api/nonconformances', who: ['lead', 'engineer', 'admin', 'service'] },
   { method: 'post', path: '/api/nonconformances/:id/disposition', who: ['lead', 'engineer'] },
