@@ -8,11 +8,17 @@ export interface Countersigner {
   isActive: boolean
 }
 
-/** What was read of a typed countersign: who the e-mail names and whether the password fits. */
+/**
+ * What was read of a countersign: who the e-mail (or the scanned badge) names and whether the
+ * password (or the PIN) fits.
+ */
 export interface CountersignRead {
+  /** The e-mail typed, or the badge code scanned. */
   email: string
   user: Countersigner | null
   isPasswordRight: boolean
+  /** How the person signed: a badge and PIN, or (when left out) an e-mail and password. */
+  by?: 'badge' | 'password'
 }
 
 /** Why a countersign does not count, naming the `countersign` field. */
@@ -30,7 +36,7 @@ export interface CountersignRefusal {
 
 /**
  * The rules of a second person's signature: one must be typed, the e-mail and password must be
- * an active user's, someone other than the actor, holding one of `roles`; null when it counts.
+ * an active user's (or the badge and PIN), someone other than the actor, holding one of `roles`; null when it counts.
  * A wrong e-mail and a wrong password get the same words, as at sign-in.
  * @param what the thing signed, for the operator's message (a step's name, "use as is")
  */
@@ -48,13 +54,15 @@ export function countersignRefusal(
       isWrongCredentials: false,
     }
   const { user } = read
-  if (!user || !read.isPasswordRight || !user.isActive)
+  if (!user || !read.isPasswordRight || !user.isActive) {
+    const pair = read.by === 'badge' ? 'badge or PIN' : 'e-mail or password'
     return {
       code: 'countersign_rejected',
-      message: 'countersign: the second person’s e-mail or password is wrong',
-      field: 'e-mail or password is wrong',
+      message: `countersign: the second person’s ${pair} is wrong`,
+      field: `${pair} is wrong`,
       isWrongCredentials: true,
     }
+  }
   if (user.id === actorId)
     return {
       code: 'validation_failed',

@@ -42,3 +42,19 @@ export function isCode(text: string): boolean {
 export function isScannedCode(scanned: string): boolean {
   return isCode(codeFromScan(scanned))
 }
+
+/** What a person's badge QR holds: `BADGE-` and 16 characters of Crockford's base 32 (80 bits). */
+export const BADGE_CODE_SHAPE = /^BADGE-[0-9A-HJKMNP-TV-Z]{16}$/
+
+/** Whether scanned text (trimmed, any case) is a person's badge rather than a unit or a lot. */
+export function isBadgeCode(scanned: string): boolean {
+  return BADGE_CODE_SHAPE.test(scanned.trim().toUpperCase())
+}
+
+/** The shape of our component lot codes: `CL-`, the receipt's year, a number and a check character. */
+const COMPONENT_LOT_CODE_SHAPE = /^CL-\d{2}-\d{5,}[0-9A-Z*]$/
+
+/** Whether a code (as `codeFromScan` returns it) has the shape of one of our component lot codes. */
+export function looksLikeComponentLotCode(code: string): boolean {
+  return COMPONENT_LOT_CODE_SHAPE.test(code)
+}

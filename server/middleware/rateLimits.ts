@@ -24,6 +24,7 @@ export const SIGN_IN_LIMITS = PASSWORD_LIMITS
 const PASSWORD_REFUSALS = new Set([
   'invalid_credentials',
   'countersign_rejected',
+  'password_rejected',
   'too_many_attempts',
 ])
 
@@ -177,6 +178,19 @@ export function countersignLimiters(): RequestHandler[] {
   return passwordLimiters((req) => {
     const countersign: unknown = (req.body as { countersign?: unknown } | undefined)?.countersign
     if (typeof countersign !== 'object' || countersign === null) return null
-    return normalEmail((countersign as { email?: unknown }).email) ?? 'none'
+    const { email, badge } = countersign as { email?: unknown; badge?: unknown }
+    // A badge counts against itself as an e-mail does: a guessed PIN is slowed like a password.
+    if (typeof badge === 'string') return `badge:${badge.trim().toUpperCase().slice(0, 64)}`
+    return normalEmail(email) ?? 'none'
   })
+}
+
+/**
+ * Limits a signed-in person's own password, re-typed to confirm a change such as a new bench
+ * PIN, counted with sign-ins under their e-mail: a session left open is no way to guess it.
+ */
+export function ownPasswordLimiters(): RequestHandler[] {
+  return passwordLimiters((req) =>
+    normalEmail((req.user as { email?: unknown } | undefined)?.email),
+  )
 }

@@ -11,6 +11,11 @@ export class User extends RecordModel<User> {
   declare passwordHash: string
   declare isActive: CreationOptional<boolean>
   declare lastSignInAt: Date | null
+  /** The code printed as a QR on the person's badge; null until one is printed. */
+  declare badgeCode: CreationOptional<string | null>
+  /** The bcrypt hash of the person's bench PIN; null until they set one. */
+  declare pinHash: CreationOptional<string | null>
+  declare pinSetAt: CreationOptional<Date | null>
 }
 
 export function initUser(sequelize: Sequelize): void {
@@ -21,5 +26,8 @@ export function initUser(sequelize: Sequelize): void {
     passwordHash: { type: DataTypes.STRING(100), allowNull: false },
     isActive: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+    badgeCode: { type: DataTypes.STRING(32), allowNull: true, unique: true },
+    pinHash: { type: DataTypes.STRING(100), allowNull: true },
+    pinSetAt: { type: DataTypes.DATE, allowNull: true },
   })
 }

@@ -1,12 +1,14 @@
 import type { Request, Response, NextFunction } from 'express'
 import { LoginInput } from '../../shared/schemas/auth'
+import { PinInput } from '../../shared/schemas/users'
 import type { UserDto } from '../../shared/schemas/auth'
 import { AppError } from '../errors'
 import { actorOf, currentUser } from '../middleware/access'
 import { csrfToken } from '../middleware/csrf'
 import { passport } from '../middleware/passport'
-import { signInLimiters } from '../middleware/rateLimits'
+import { ownPasswordLimiters, signInLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
+import { issueBadge, setOwnPin } from '../services/admin'
 import { recordSignOut } from '../services/auth'
 import { apiRoutes } from './registry'
 
@@ -48,4 +50,17 @@ authRoutes.post('/logout', 'public', async (req, res, next) => {
 
 authRoutes.get('/me', 'signed_in', (req, res) => {
   res.json({ user: currentUser(req) })
+})
+
+/** Sets the signed-in person's own bench PIN, their password re-typed (counted like a sign-in). */
+authRoutes.put('/pin', 'signed_in', ...ownPasswordLimiters(), async (req, res) => {
+  res.json(await setOwnPin(actorOf(req), parse(PinInput, req.body)))
+})
+
+/** Prints the signed-in person's own badge. */
+authRoutes.post('/badge', 'signed_in', async (req, res) => {
+  const actor = actorOf(req)
+  const pdf = await issueBadge(currentUser(req)!.id, actor)
+  res.setHeader('Content-Disposition', 'attachment; filename="badge.pdf"')
+  res.type('application/pdf').send(pdf)
 })

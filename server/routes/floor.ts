@@ -2,7 +2,13 @@ import { z } from 'zod'
 import { text } from '../../shared/schemas/common'
 import { PERMISSIONS } from '../../shared/permissions'
 import { parse } from '../middleware/validate'
-import { floorComponentLot, floorUnit, recentRuns } from '../services/floor'
+import {
+  floorComponentLot,
+  floorUnit,
+  recentRuns,
+  waitingUnits,
+  whereUnitWaits,
+} from '../services/floor'
 import { apiRoutes } from './registry'
 
 export const floorRoutes = apiRoutes('/floor')
@@ -18,4 +24,14 @@ floorRoutes.get('/component-lots/:code', use, async (req, res) => {
 })
 floorRoutes.get('/stations/:code/recent', use, async (req, res) => {
   res.json(await recentRuns(String(req.params.code)))
+})
+floorRoutes.get('/stations/:code/waiting', use, async (req, res) => {
+  const { lotId } = parse(
+    z.object({ lotId: text().uuid('not a valid lot id').optional() }),
+    req.query,
+  )
+  res.json(await waitingUnits(String(req.params.code), lotId ?? null))
+})
+floorRoutes.get('/units/:serial/where', use, async (req, res) => {
+  res.json(await whereUnitWaits(String(req.params.serial)))
 })

@@ -8,6 +8,7 @@ import type {
   LotStatus,
   UnitState,
 } from '../lots'
+import { isBadgeCode } from '../links'
 import type { StationKind } from '../stations'
 import type { BomLineDto, StepDto, WindingDto } from './recipes'
 import type { ComponentLotDto } from './componentLots'
@@ -48,12 +49,41 @@ export const DocumentRequestInput = z.object({
   layout: z.enum(LABEL_LAYOUT_KEYS).default('a4_3x8'),
 })
 
-/** A second person's sign-in, typed at the bench to countersign a step or a disposition. */
-export const CountersignInput = z.object({
-  email: text().trim().toLowerCase().email('enter the second person’s e-mail'),
-  password: text().min(1, 'enter the second person’s password'),
-})
+/**
+ * A second person's signature at the bench, to countersign a step or a disposition: their badge
+ * scanned and their PIN typed, or (the fallback) their e-mail and password. Either pair is
+ * checked as a whole; a missing half is named by its own field.
+ */
+export const CountersignInput = z
+  .object({
+    badge: text().trim().toUpperCase().max(64, 'not a badge').optional(),
+    pin: text()
+      .regex(/^\d{4,8}$/, 'a PIN is 4 to 8 digits')
+      .optional(),
+    email: text().trim().toLowerCase().email('enter the second person’s e-mail').optional(),
+    password: text().min(1, 'enter the second person’s password').optional(),
+  })
+  .superRefine((v, ctx) => {
+    const missing = (path: string, message: string) =>
+      ctx.addIssue({ code: 'custom', path: [path], message })
+    if (v.badge !== undefined) {
+      if (!isBadgeCode(v.badge)) missing('badge', 'not a badge: scan the second person’s badge')
+      if (v.pin === undefined) missing('pin', 'enter the second person’s PIN')
+      return
+    }
+    if (v.email === undefined) missing('email', 'enter the second person’s e-mail')
+    if (v.password === undefined) missing('password', 'enter the second person’s password')
+  })
+  .transform((v): CountersignCredentials =>
+    v.badge !== undefined
+      ? { badge: v.badge, pin: v.pin! }
+      : { email: v.email!, password: v.password! },
+  )
 export type CountersignInput = z.infer<typeof CountersignInput>
+
+/** The two ways a second person proves who they are at the bench. */
+export type CountersignCredentials =
+  { badge: string; pin: string } | { email: string; password: string }
 
 const checkValue = z.union([z.number().finite(), z.boolean(), text().max(2000), z.null()])
 
@@ -162,6 +192,32 @@ export interface FloorUnitDto {
   step: StepDto | null
   bom: BomLineDto[]
   windings: WindingDto[]
+}
+
+/** Units waiting for a station's kind of step, oldest first, and how many there are in all. */
+export interface WaitingUnitsDto {
+  total: number
+  units: {
+    serial: string
+    lotId: string
+    lotNumber: string
+    productCode: string
+    stepName: string
+    isRework: boolean
+    /** Since when it waits: its last step run, or its lot's release. */
+    since: string
+  }[]
+}
+
+/** Where a unit waits: its next step and the stations that work it (none when it waits nowhere). */
+export interface UnitWhereDto {
+  serial: string
+  state: UnitState
+  lotNumber: string
+  stepName: string | null
+  stationKind: StationKind | null
+  holdReason: string | null
+  stations: { code: string; name: string }[]
 }
 
 export interface RecentRunDto {

@@ -35,4 +35,15 @@ export interface UserAdminDto {
   isActive: boolean
   lastSignInAt: string | null
   createdAt: string
+  /** Whether a badge has been printed for this person (the code itself is never sent). */
+  hasBadge: boolean
+  /** Whether the person has set a bench PIN. */
+  hasPin: boolean
 }
+
+/** A person's bench PIN, set by themselves after re-typing their password. */
+export const PinInput = z.object({
+  password: text().min(1, 'enter your password').max(200),
+  pin: text().regex(/^\d{4,8}$/, 'use 4 to 8 digits'),
+})
+export type PinInput = z.infer<typeof PinInput>

@@ -107,6 +107,29 @@ export async function request<T>(path: string, init: RequestInit = {}): Promise<
   return (await response.json()) as T
 }
 
+/**
+ * Calls the API for a file (a PDF made on request) and saves it in the browser's downloads under
+ * the name the server gives (Content-Disposition), or `fallbackName`.
+ * @throws ApiError as `request` does
+ */
+export async function downloadFile(
+  path: string,
+  init: RequestInit,
+  fallbackName: string,
+): Promise<void> {
+  const response = await send(path, init)
+  if (!response.ok) throw await toApiError(response)
+  const disposition = response.headers.get('Content-Disposition') ?? ''
+  const name = /filename="([^"]+)"/.exec(disposition)?.[1] ?? fallbackName
+  const url = URL.createObjectURL(await response.blob())
+  const link = document.createElement('a')
+  link.href = url
+  link.download = name
+  link.click()
+  // The click has handed the blob to the browser's download; the URL is no longer needed.
+  setTimeout(() => URL.revokeObjectURL(url), 0)
+}
+
 /** JSON body helper so resource files read as one line per endpoint. */
 export function json(method: 'POST' | 'PATCH' | 'PUT' | 'DELETE', body?: unknown): RequestInit {
   return { method, body: body === undefined ? undefined : JSON.stringify(body) }

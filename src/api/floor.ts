@@ -4,6 +4,8 @@ import type {
   RecentRunDto,
   StepRunInput,
   StepRunResultDto,
+  UnitWhereDto,
+  WaitingUnitsDto,
 } from '@shared/schemas/lots'
 import { json, request } from './client'
 
@@ -22,6 +24,11 @@ export const floorApi = {
   /** The last 20 step runs at a station, newest first. */
   recent: (stationCode: string) =>
     request<RecentRunDto[]>(`/floor/stations/${enc(stationCode)}/recent`),
+  /** The units whose next step is worked at this station, oldest first (at most 30, and a count). */
+  waiting: (stationCode: string) =>
+    request<WaitingUnitsDto>(`/floor/stations/${enc(stationCode)}/waiting`),
+  /** Where a unit waits: its next step and the stations that work it. 404 for an unknown serial. */
+  where: (serial: string) => request<UnitWhereDto>(`/floor/units/${enc(serial)}/where`),
   /**
    * Records one step run. The same `clientEventId` sent again answers 200 with the stored run,
    * so a retry after a lost answer never records twice. 409 tells the operator what to do;

@@ -1,6 +1,6 @@
 import { nextTick, ref } from 'vue'
 import { storeToRefs } from 'pinia'
-import { codeFromScan } from '@shared/links'
+import { codeFromScan, isBadgeCode, looksLikeComponentLotCode } from '@shared/links'
 import type { CountersignInput } from '@shared/schemas/lots'
 import { looksLikeSerial } from '@shared/serials'
 import { ApiError, messageOf } from '@/api/client'
@@ -65,15 +65,26 @@ export function useFloorStation(prompts: FloorPrompts) {
     if (!code) return
     const isLotLabel = /\/c\/[^/]+\/?$/i.test(raw.trim())
     const open = workable.value
+    if (isBadgeCode(code)) {
+      // Beside the Record button while a unit is open, as the big message otherwise.
+      ;(open ? formNotice : notice).value = {
+        tone: 'refusal',
+        title: 'That is a person’s badge',
+        message:
+          'A badge signs as the second person when a step asks for one. It is read in the signature box, not here.',
+      }
+      return prompts.focusScan()
+    }
     if (open && (isLotLabel || !looksLikeSerial(code))) {
       const lineId = form.fillNextMaterial(code)
       if (lineId) return nextField(`lot:${lineId}`)
     }
-    if (!open && isLotLabel) {
+    // Something that is not a traveler, scanned with no unit open: say what it is.
+    if (!open && (isLotLabel || looksLikeComponentLotCode(code))) {
       notice.value = {
         tone: 'refusal',
-        title: 'That is a component lot label',
-        message: 'Scan the unit’s traveler first, then the lot labels.',
+        title: `That is component lot ${code}`,
+        message: 'Scan a traveler first, then the lot labels of its step.',
       }
       return prompts.focusScan()
     }

@@ -34,6 +34,8 @@ export function useMaterialScans(
   const timers = new Map<string, ReturnType<typeof setTimeout>>()
   const pending = new Map<string, Promise<void>>()
   const tokens = new Map<string, number>()
+  /** The code each line's lookup in flight asks about. */
+  const asking = new Map<string, string>()
 
   const find = (lineId: string) => materials.value.find((m) => m.line.id === lineId)
 
@@ -63,9 +65,13 @@ export function useMaterialScans(
       return Promise.resolve()
     }
     if (m.status !== 'checking' && m.lot?.internalCode === code) return Promise.resolve()
+    // Enter asks at once and then moves on, which leaves the field (blur): ask once, not twice.
+    const inFlight = pending.get(lineId)
+    if (inFlight && asking.get(lineId) === code) return inFlight
     const token = (tokens.get(lineId) ?? 0) + 1
     tokens.set(lineId, token)
     Object.assign(m, { status: 'checking', message: '' })
+    asking.set(lineId, code)
     const job = lookup(code, lineId)
       .then((lot) => {
         if (tokens.get(lineId) !== token) return
@@ -79,7 +85,11 @@ export function useMaterialScans(
         if (tokens.get(lineId) !== token) return
         Object.assign(m, { lot: null, status: 'refused', message: messageOf(error) })
       })
-      .finally(() => pending.delete(lineId))
+      .finally(() => {
+        if (tokens.get(lineId) !== token) return
+        pending.delete(lineId)
+        asking.delete(lineId)
+      })
     pending.set(lineId, job)
     return job
   }

@@ -46,6 +46,11 @@ export const router = createRouter({
     },
     { path: '/', name: 'home', component: () => import('@/views/HomeView.vue') },
     {
+      path: '/profile',
+      name: 'profile',
+      component: () => import('@/views/Auth/ProfileView.vue'),
+    },
+    {
       path: '/floor',
       name: 'floor-pick',
       meta: { roles: rolesOf('floor') },

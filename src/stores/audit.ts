@@ -1,28 +1,57 @@
 import { defineStore } from 'pinia'
 import { reactive } from 'vue'
 import { auditApi } from '@/api/audit'
+import type { AuditFilterQuery } from '@/api/audit'
 import { usePagedList } from './lists/usePagedList'
 
 /** The filters of the audit screen; empty strings mean "any". */
 export interface AuditFilters {
+  actorId: string
   entity: string
-  action: string
-  actor: string
+  thing: string
+  /** First and last day (YYYY-MM-DD), or null for an open end. */
+  from: string | null
+  to: string | null
 }
 
+const EMPTY: AuditFilters = { actorId: '', entity: '', thing: '', from: null, to: null }
+
 export const useAuditStore = defineStore('audit', () => {
-  const filters = reactive<AuditFilters>({ entity: '', action: '', actor: '' })
+  const filters = reactive<AuditFilters>({ ...EMPTY })
+
+  /** The filters as the API takes them. */
+  function query(): AuditFilterQuery {
+    return {
+      actorId: filters.actorId,
+      entity: filters.entity,
+      thing: filters.thing.trim(),
+      from: filters.from ?? '',
+      to: filters.to ?? '',
+    }
+  }
 
   const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
-    (paging) =>
-      auditApi.list({
-        ...paging,
-        entity: filters.entity.trim(),
-        action: filters.action.trim(),
-        actor: filters.actor.trim(),
-      }),
+    (paging) => auditApi.list({ ...paging, ...query() }),
     50,
   )
 
-  return { rows, total, page, pageSize, filters, isLoading, loadError, fetchPage, search }
+  function clear() {
+    Object.assign(filters, EMPTY)
+  }
+
+  const csvUrl = () => auditApi.csvUrl(query())
+
+  return {
+    rows,
+    total,
+    page,
+    pageSize,
+    filters,
+    isLoading,
+    loadError,
+    fetchPage,
+    search,
+    clear,
+    csvUrl,
+  }
 })

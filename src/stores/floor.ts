@@ -5,6 +5,7 @@ import type {
   RecentRunDto,
   StepRunInput,
   StepRunResultDto,
+  WaitingUnitsDto,
 } from '@shared/schemas/lots'
 import type { StationDto } from '@shared/schemas/stations'
 import { floorApi } from '@/api/floor'
@@ -22,6 +23,8 @@ export const useFloorStore = defineStore('floor', () => {
   const current = ref<FloorUnitDto | null>(null)
   /** The station's last step runs, newest first. */
   const recent = ref<RecentRunDto[]>([])
+  /** The units whose next step is worked here, oldest first. */
+  const waiting = ref<WaitingUnitsDto>({ total: 0, units: [] })
   /** True while a scanned serial is being looked up. */
   const isLooking = ref(false)
   /** True while a step run is being sent. */
@@ -43,14 +46,20 @@ export const useFloorStore = defineStore('floor', () => {
     stationCode.value = code.trim().toUpperCase()
     current.value = null
     recent.value = []
+    waiting.value = { total: 0, units: [] }
     const all = await fetchStations()
     station.value = all.find((s) => s.code === stationCode.value) ?? null
     if (station.value) await fetchRecent()
   }
 
-  /** Refreshes the recent list; throws ApiError. */
+  /** Refreshes the recent and the waiting lists; throws ApiError. */
   async function fetchRecent() {
-    recent.value = await floorApi.recent(stationCode.value)
+    const [runs, queue] = await Promise.all([
+      floorApi.recent(stationCode.value),
+      floorApi.waiting(stationCode.value),
+    ])
+    recent.value = runs
+    waiting.value = queue
   }
 
   /** Looks a scanned serial up at this station; throws ApiError (404, 400 mistyped). */
@@ -94,6 +103,7 @@ export const useFloorStore = defineStore('floor', () => {
     stations,
     current,
     recent,
+    waiting,
     isLooking,
     isRecording,
     workable,

@@ -18,6 +18,8 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'post', path: '/api/auth/login', who: 'public' },
   { method: 'post', path: '/api/auth/logout', who: 'public' },
   { method: 'get', path: '/api/auth/me', who: 'signed_in' },
+  { method: 'put', path: '/api/auth/pin', who: 'signed_in' },
+  { method: 'post', path: '/api/auth/badge', who: 'signed_in' },
   { method: 'get', path: '/api/health', who: 'public' },
   { method: 'get', path: '/api/stations', who: 'signed_in' },
   { method: 'post', path: '/api/stations', who: ['admin'] },
@@ -25,6 +27,7 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   { method: 'get', path: '/api/users', who: ['admin'] },
   { method: 'post', path: '/api/users', who: ['admin'] },
   { method: 'patch', path: '/api/users/:id', who: ['admin'] },
+  { method: 'post', path: '/api/users/:id/badge', who: ['admin'] },
   { method: 'get', path: '/api/audit-events', who: ['admin'] },
   // Draft revisions (in this list, GET /revisions/:id and its /bom) only for PERMISSIONS
   // .readDraftRecipes (engineer, lead, admin); others get released/obsolete ones and a 404 for a
@@ -110,6 +113,16 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   {
     method: 'get',
     path: '/api/floor/stations/:code/recent',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  {
+    method: 'get',
+    path: '/api/floor/stations/:code/waiting',
+    who: ['operator', 'lead', 'engineer', 'admin'],
+  },
+  {
+    method: 'get',
+    path: '/api/floor/units/:serial/where',
     who: ['operator', 'lead', 'engineer', 'admin'],
   },
   { method: 'post', path: '/api/step-runs', who: ['operator', 'lead', 'engineer'] },

@@ -13,6 +13,8 @@ function toAdminDto(user: User): UserAdminDto {
     isActive: user.isActive,
     lastSignInAt: user.lastSignInAt?.toISOString() ?? null,
     createdAt: user.createdAt.toISOString(),
+    hasBadge: user.badgeCode !== null,
+    hasPin: user.pinHash !== null,
   }
 }
 

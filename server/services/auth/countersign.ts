@@ -13,12 +13,24 @@ async function lookUp(
   input: CountersignInput,
   transaction: Transaction,
 ): Promise<{ read: CountersignRead; user: User | null }> {
-  const user = await User.findOne({ where: { email: input.email }, transaction })
-  const isPasswordRight = await verifyPassword(input.password, user?.passwordHash ?? null)
+  const byBadge = 'badge' in input
+  const user = byBadge
+    ? await User.findOne({ where: { badgeCode: input.badge }, transaction })
+    : await User.findOne({ where: { email: input.email }, transaction })
+  // A person without a PIN cannot sign by badge; the check still costs a hash's time.
+  const isPasswordRight = byBadge
+    ? await verifyPassword(input.pin, user?.pinHash ?? null)
+    : await verifyPassword(input.password, user?.passwordHash ?? null)
   const signer = user
     ? { id: user.id, email: user.email, role: user.role, isActive: user.isActive }
     : null
-  return { read: { email: input.email, user: signer, isPasswordRight }, user }
+  const read: CountersignRead = {
+    email: byBadge ? input.badge : input.email,
+    user: signer,
+    isPasswordRight,
+    by: byBadge ? 'badge' : 'password',
+  }
+  return { read, user }
 }
 
 /**
@@ -42,16 +54,23 @@ export async function auditCountersignFailure(
   what: string,
 ): Promise<void> {
   // The actor is the person signed in at the bench; the account tried is named beside it.
+  const badge = read.by === 'badge'
   const reason = !read.user
-    ? 'unknown_email'
+    ? badge
+      ? 'unknown_badge'
+      : 'unknown_email'
     : !read.isPasswordRight
-      ? 'wrong_password'
+      ? badge
+        ? 'wrong_pin'
+        : 'wrong_password'
       : 'inactive'
   await recordAudit(actor, {
     action: 'countersign.failed',
     entity: 'user',
     entityId: read.user?.id ?? null,
-    after: { what, triedEmail: read.email, reason },
+    after: badge
+      ? { what, triedBadge: read.email, reason }
+      : { what, triedEmail: read.email, reason },
   })
 }
 

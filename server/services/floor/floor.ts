@@ -1,4 +1,12 @@
-import type { FloorComponentLotDto, FloorUnitDto, RecentRunDto } from '../../../shared/schemas/lots'
+import { OPEN_UNIT_STATES } from '../../../shared/lots'
+import type { UnitState } from '../../../shared/lots'
+import type {
+  FloorComponentLotDto,
+  FloorUnitDto,
+  RecentRunDto,
+  UnitWhereDto,
+  WaitingUnitsDto,
+} from '../../../shared/schemas/lots'
 import { componentLotRefusal } from '../../../shared/floor/componentLotRefusal'
 import { routeRefusal } from '../../../shared/floor/routeRules'
 import { codeFromScan } from '../../../shared/links'
@@ -99,4 +107,89 @@ export async function recentRuns(stationCode: string): Promise<RecentRunDto[]> {
     finishedAt: new Date(r.finished_at).toISOString(),
     operatorName: r.operator_name,
   }))
+}
+
+/** How many units the waiting list shows at most; the count says how many more there are. */
+const WAITING_LIMIT = 30
+
+/**
+ * Units whose next step is worked at a station of this one's kind, oldest first (since their
+ * last step run, or their lot's release): this lot's and others', so the operator sees the queue.
+ * Units on hold, or of a lot on hold, are left out: they cannot be worked here. `lotId` narrows
+ * the list to one lot.
+ */
+export async function waitingUnits(
+  stationCode: string,
+  lotId: string | null = null,
+): Promise<WaitingUnitsDto> {
+  const station = await stationByCode(stationCode)
+  const rows = await select<{
+    serial: string
+    lot_id: string
+    lot_number: string
+    product_code: string
+    step_name: string
+    state: UnitState
+    since: Date
+    total: string
+  }>(
+    `SELECT u.serial, l.id AS lot_id, l.number AS lot_number, p.code AS product_code,
+            s.name AS step_name, u.state,
+            COALESCE((SELECT max(sr.finished_at) FROM step_runs sr WHERE sr.unit_id = u.id),
+                     l.released_at, u.created_at) AS since,
+            count(*) OVER () AS total
+       FROM units u
+       JOIN route_steps s ON s.id = u.current_step_id
+       JOIN lots l ON l.id = u.lot_id
+       JOIN revisions r ON r.id = l.revision_id
+       JOIN products p ON p.id = r.product_id
+      WHERE s.station_kind = :kind AND u.state IN (:states) AND NOT l.is_on_hold
+        AND (CAST(:lotId AS uuid) IS NULL OR l.id = CAST(:lotId AS uuid))
+      ORDER BY since, u.serial
+      LIMIT :limit`,
+    {
+      replacements: { kind: station.kind, states: OPEN_UNIT_STATES, limit: WAITING_LIMIT, lotId },
+    },
+  )
+  return {
+    total: Number(rows[0]?.total ?? 0),
+    units: rows.map((r) => ({
+      serial: r.serial,
+      lotId: r.lot_id,
+      lotNumber: r.lot_number,
+      productCode: r.product_code,
+      stepName: r.step_name,
+      isRework: r.state === 'in_rework',
+      since: new Date(r.since).toISOString(),
+    })),
+  }
+}
+
+/**
+ * Where a unit waits: its next step and the active stations that work it, or why it waits
+ * nowhere (finished, scrapped, on hold). What a traveler's link tells an operator.
+ */
+export async function whereUnitWaits(scanned: string): Promise<UnitWhereDto> {
+  const unit = await findUnitByScan(scanned)
+  const lot = (await Lot.findByPk(unit.lotId))!
+  const step = unit.currentStepId ? await stepPlan(unit.currentStepId) : null
+  const isOpen = OPEN_UNIT_STATES.includes(unit.state)
+  const holdReason =
+    unit.state === 'on_hold' ? unit.holdReason : lot.isOnHold ? lot.holdReason : null
+  const stations =
+    step && isOpen && !lot.isOnHold
+      ? await Station.findAll({
+          where: { kind: step.stationKind, isActive: true },
+          order: [['code', 'ASC']],
+        })
+      : []
+  return {
+    serial: unit.serial,
+    state: unit.state,
+    lotNumber: lot.number,
+    stepName: isOpen ? (step?.name ?? null) : null,
+    stationKind: isOpen ? (step?.stationKind ?? null) : null,
+    holdReason: holdReason || null,
+    stations: stations.map((s) => ({ code: s.code, name: s.name })),
+  }
 }

@@ -30,3 +30,19 @@ export function rememberStation(code: string): void {
     // Private mode or storage full: the picker just offers no shortcut.
   }
 }
+
+const clockFormat = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' })
+const dayFormat = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short' })
+
+/**
+ * A time as a bench reads it: the clock alone for today, the day in front otherwise
+ * ("3 Dec 14:05"), so yesterday's run is never mistaken for this morning's.
+ */
+export function benchTime(iso: string, now: Date = new Date()): string {
+  const date = new Date(iso)
+  if (Number.isNaN(date.getTime())) return ''
+  const isToday = date.toDateString() === now.toDateString()
+  return isToday
+    ? clockFormat.format(date)
+    : `${dayFormat.format(date)} ${clockFormat.format(date)}`
+}

@@ -103,6 +103,30 @@ describe('useFloorForm', () => {
     })
   })
 
+  it('asks about a lot once when Enter and leaving the field both ask for it', async () => {
+    let answer: (lot: FloorComponentLotDto) => void = () => undefined
+    const lookup = vi.fn(
+      (code: string) =>
+        new Promise<FloorComponentLotDto>((resolve) => {
+          answer = () => resolve(okLot(code))
+        }),
+    )
+    const { form } = setUp(lookup)
+    form.setScanned(CORE.id, 'CL-26-000048')
+    const onEnter = form.verifyMaterial(CORE.id)
+    const onBlur = form.verifyMaterial(CORE.id)
+    answer(okLot('CL-26-000048'))
+    await Promise.all([onEnter, onBlur])
+    expect(lookup).toHaveBeenCalledTimes(1)
+    expect(form.materials.value[0]!.status).toBe('ok')
+    // A different code scanned over it is asked about, of course.
+    form.setScanned(CORE.id, 'CL-26-000056')
+    const again = form.verifyMaterial(CORE.id)
+    answer(okLot('CL-26-000056'))
+    await again
+    expect(lookup).toHaveBeenCalledTimes(2)
+  })
+
   it('puts the server’s field messages on the fields they name', () => {
     const { form } = setUp()
     const rest = form.applyServerErrors({

@@ -112,3 +112,31 @@ describe('useFloorStation', () => {
     expect(station.form.entries.l_primary_a).toBe('108')
   })
 })
+
+describe('useFloorStation, scans that are not a traveler', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    vi.clearAllMocks()
+  })
+
+  it('names a bare component lot code scanned with no unit open, and asks nothing', async () => {
+    const { station, prompts } = setUp()
+    await station.scan('CL-26-00002C')
+    expect(station.notice.value?.title).toBe('That is component lot CL-26-00002C')
+    expect(floorApi.unit).not.toHaveBeenCalled()
+    expect(prompts.focusScan).toHaveBeenCalled()
+  })
+
+  it('names a lot label’s link the same way', async () => {
+    const { station } = setUp()
+    await station.scan('https://shop.example/c/CL-26-00001E')
+    expect(station.notice.value?.title).toBe('That is component lot CL-26-00001E')
+  })
+
+  it('says a badge is a badge, never looking it up as a unit', async () => {
+    const { station } = setUp()
+    await station.scan('BADGE-7K3M9Q2X5T8V4R6W')
+    expect(station.notice.value?.title).toBe('That is a person’s badge')
+    expect(floorApi.unit).not.toHaveBeenCalled()
+  })
+})
