@@ -12,11 +12,11 @@ function mountShell(role: 'admin' | 'operator') {
 }
 
 describe('AppShell', () => {
-  it('links exactly the areas it is given', () => {
+  it('links exactly the areas it is given, and the person to their profile', () => {
     const links = mountShell('admin')
       .findAllComponents(RouterLinkStub)
       .map((l) => l.props('to'))
-    expect(links).toEqual(['/', ...areasForRole('admin').map((a) => a.path)])
+    expect(links).toEqual(['/', ...areasForRole('admin').map((a) => a.path), '/profile'])
   })
 
   it('shows no Users link to an operator', () => {
