@@ -101,7 +101,7 @@ export const LOT_PLANS: Record<keyof typeof DEMO_ORDER_REFS, Plan> = {
     coreLot: 'HM-26-0547',
   },
   inProgressSmall: {
-    seed: 131,
+    seed: 137,
     productCode: 'FP12',
     letter: 'A',
     quantity: 10,
