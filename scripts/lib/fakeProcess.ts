@@ -28,6 +28,8 @@ export interface FakeSpec {
   /** The variable that moves the port, named in the "port taken" message. */
   portVariable: string
   env: NodeJS.ProcessEnv
+  /** Node flags the fake needs, before the script. */
+  nodeFlags?: readonly string[]
 }
 
 const markOf = (spec: FakeSpec) => spec.script.replace(/^.*\//, '').replace(/\.ts$/, '')
@@ -54,12 +56,16 @@ export async function startFake(spec: FakeSpec, log: Log): Promise<boolean> {
     )
   const logFd = openSync(spec.logFile, 'a')
   // `node --import tsx` keeps it one process, so the pid we record is the server itself.
-  const child = spawn(process.execPath, ['--import', 'tsx', spec.script], {
-    cwd: spec.repoRoot,
-    detached: true,
-    stdio: ['ignore', logFd, logFd],
-    env: spec.env,
-  })
+  const child = spawn(
+    process.execPath,
+    [...(spec.nodeFlags ?? []), '--import', 'tsx', spec.script],
+    {
+      cwd: spec.repoRoot,
+      detached: true,
+      stdio: ['ignore', logFd, logFd],
+      env: spec.env,
+    },
+  )
   closeSync(logFd)
   const pid = child.pid
   if (!pid) throw new ServiceError(`${spec.name}: could not spawn the fake`)

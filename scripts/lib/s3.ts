@@ -41,6 +41,9 @@ function spec(config: ServiceConfig): FakeSpec {
     port: config.s3Port,
     portVariable: 'WAYMARK_S3_PORT',
     env: { ...process.env, WAYMARK_S3_PORT: String(config.s3Port), WAYMARK_S3_DIR: config.s3Dir },
+    // s3rver signs ListObjectsV2 continuation tokens with DES, which OpenSSL 3 keeps in its
+    // legacy provider: without it, a listing of more than 1000 keys answers 500 InternalError.
+    nodeFlags: ['--openssl-legacy-provider'],
   }
 }
 

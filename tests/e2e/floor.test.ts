@@ -159,7 +159,10 @@ describe('Floor station screen', () => {
       await page.keyboard.type(code!)
       if (i < parts.length - 1) await page.keyboard.press('Enter')
     }
-    expect(await page.locator('[data-test="verdict"]').getAttribute('data-verdict')).toBe('pass')
+    // The last lot is checked once typing pauses; until then the bar does not say PASS.
+    await expect
+      .poll(() => page.locator('[data-test="verdict"]').getAttribute('data-verdict'))
+      .toBe('pass')
     await page.keyboard.press('Enter')
 
     const notice = page.locator('[data-test="floor-notice"]')

@@ -187,11 +187,9 @@ describe('jobs while Redis goes away', () => {
         ...(await emailsAbout('document', [report.id])),
         ...(await emailsAbout('alert', alertIds)),
       ]
-      return (
-        alertIds.length > 0 &&
-        mails.length > alertIds.length &&
-        mails.every((m) => m.status !== 'queued')
-      )
+      // The document's e-mail and the lead's first alert e-mail; later alerts of the same hour
+      // wait for the lead's digest (WAYMARK_ALERT_DIGEST_MINUTES), which is not due yet.
+      return alertIds.length > 0 && mails.length >= 2 && mails.every((m) => m.status !== 'queued')
     }, 90_000)
     const mailedAt = Date.now()
     expect(isMailed, `mail still waiting:\n${tail(workers!)}`).toBe(true)
@@ -206,7 +204,8 @@ describe('jobs while Redis goes away', () => {
       ...(await emailsAbout('alert', alertIds)),
     ])
       expect(mail).toMatchObject({ status: 'sent', attempts: 1, received: '1' })
-    expect(await emailsAbout('alert', alertIds)).toHaveLength(alertIds.length)
+    // One lead, so one e-mail now for all the alerts, however many episodes were raised.
+    expect(await emailsAbout('alert', alertIds)).toHaveLength(1)
     await expectOneFilePerDocument()
     expect((await operator.get('/api/health')).status).toBe(200)
     expect(app.exit).toBeNull()

@@ -1,6 +1,7 @@
 import { createServer } from 'node:net'
 import type { Redis } from 'ioredis'
 import { describe, expect, it, vi } from 'vitest'
+import { startSmtpFake } from '../../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../../server/mail'
 import { db, Email, User } from '../../../server/models'
 import { newQueueConnection } from '../../../server/redis'
@@ -27,10 +28,12 @@ async function closedPort(): Promise<number> {
 describe('Admin journey', () => {
   let connection: Redis
   let mail: ReturnType<typeof startMailWorker>
+  let relay: Awaited<ReturnType<typeof startSmtpFake>>
 
   const e2e = useE2eApp({
     before: async () => {
       setSmtpPortForTests(await closedPort())
+      relay = await startSmtpFake({ port: 0 })
       connection = newQueueConnection()
       mail = startMailWorker(connection)
     },
@@ -39,13 +42,12 @@ describe('Admin journey', () => {
       await mail?.worker.close()
       await closeMailQueue()
       await connection?.quit()
+      await relay?.close()
       closeMail()
     },
   })
 
-  // NOTE: the retry is the second half of this journey; it waits for the status page (or an
-  // Outbox action) that offers it. Until then the journey ends where the admin finds the message.
-  it('finds an e-mail the relay refused in the Outbox, with the reason it was not delivered', async () => {
+  it('finds an e-mail the relay refused, reads why in the Outbox, and sends it again from the status page', async () => {
     // Set-up: a certificate e-mail a colleague queued while the relay was down.
     const subject = `Certificate of conformance ${uniqueSuffix()}`
     const service = (await User.findOne({ where: { email: demoEmail('service') } }))!
@@ -68,6 +70,15 @@ describe('Admin journey', () => {
     const problem = page.getByRole('alert').filter({ hasText: 'Not delivered after 1 attempt' })
     await problem.waitFor()
     expect(await problem.textContent()).toMatch(/ECONNREFUSED|connect/i)
+
+    // The relay is back: the admin's home, the status page, offers the message again.
+    setSmtpPortForTests(relay.port)
+    await page.goto(`${e2e.app.baseUrl}/`)
+    await page.waitForURL(/\/admin\/status$/)
+    const mail = page.locator('.status__mail', { hasText: subject })
+    await mail.getByRole('button', { name: 'Send again' }).click()
+    await expect.poll(async () => (await Email.findByPk(queued.id))!.status).toBe('sent')
+    await mail.waitFor({ state: 'detached' })
     await page.close()
   })
 })
