@@ -151,9 +151,10 @@ export const SCREENS: readonly Screen[] = [
     name: 'audit',
     async show(page, base) {
       await open(page, `${base}/admin/audit`, '.el-table__row')
-      await page.getByPlaceholder('Action, e.g. station.update').fill('lot.')
+      // Lot numbers read L-0001…: the record filter finds the lots' own rows.
+      await page.getByPlaceholder('Serial, lot, code or name').fill('L-00')
       await page.getByRole('button', { name: 'Search', exact: true }).click()
-      await page.locator('.el-table__row', { hasText: 'lot.' }).first().waitFor()
+      await page.locator('.el-table__row', { hasText: 'lot L-00' }).first().waitFor()
       await page.waitForLoadState('networkidle')
     },
   },
