@@ -3,6 +3,37 @@
  * changed fields. Pure, so the screen, the CSV export and the tests use the same wording.
  */
 
+/** The kinds of record the services audit (`audit_events.entity`), in the order a filter lists them. */
+export const AUDITED_ENTITIES = [
+  'unit',
+  'lot',
+  'component_lot',
+  'nonconformance',
+  'revision',
+  'route_step',
+  'check',
+  'winding',
+  'bom_line',
+  'product',
+  'part',
+  'defect_code',
+  'customer',
+  'shipment',
+  'service_case',
+  'document',
+  'email',
+  'import',
+  'alert',
+  'station',
+  'user',
+] as const
+export type AuditedEntity = (typeof AUDITED_ENTITIES)[number]
+
+/** Whether an `audit_events.entity` is one of the kinds above. */
+export function isAuditedEntity(entity: string): entity is AuditedEntity {
+  return (AUDITED_ENTITIES as readonly string[]).includes(entity)
+}
+
 /** One field that differs between the record before and after a change, as text. */
 export interface AuditChange {
   field: string

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import type { AuditChange } from '../audit'
-import { PageQuery, text } from './common'
+import { isoDate, PageQuery, text } from './common'
 
 /** One row of the append-only audit log, as the Admin screen lists it: people and records named. */
 export interface AuditEventDto {
@@ -31,8 +31,6 @@ export interface AuditPageDto {
   total: number
 }
 
-const day = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
-
 /** Filters of the audit log (all optional) and its paging; `format=csv` exports them. */
 export const AuditQuery = PageQuery.extend({
   actorId: text().uuid('not a valid person id').optional(),
@@ -40,8 +38,8 @@ export const AuditQuery = PageQuery.extend({
   entity: text().trim().max(64, 'at most 64 characters').optional(),
   action: text().trim().max(64, 'at most 64 characters').optional(),
   thing: text().trim().max(120, 'at most 120 characters').optional(),
-  from: day.optional(),
-  to: day.optional(),
+  from: isoDate.optional(),
+  to: isoDate.optional(),
   format: z.enum(['json', 'csv']).default('json'),
 }).refine((q) => !q.from || !q.to || q.from <= q.to, {
   path: ['to'],

@@ -42,6 +42,9 @@ export function scanText(what: string, empty: string, max = 200) {
   )
 }
 
+/** A calendar day as every form and filter sends it: YYYY-MM-DD. */
+export const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+
 /** A record id in a path: a UUID. A malformed id is a 400, not a database error. */
 export const IdParam = text().uuid('not a valid id')
 

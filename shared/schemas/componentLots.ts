@@ -1,9 +1,7 @@
 import { z } from 'zod'
 import { COMPONENT_LOT_STATUSES } from '../recipeDefinitions'
 import type { ComponentLotStatus, UnitOfMeasure } from '../recipeDefinitions'
-import { PageQuery, text } from './common'
-
-const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+import { isoDate, PageQuery, text } from './common'
 
 export const ComponentLotCreateInput = z
   .object({

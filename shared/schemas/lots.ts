@@ -12,9 +12,7 @@ import { isBadgeCode } from '../links'
 import type { StationKind } from '../stations'
 import type { BomLineDto, StepDto, WindingDto } from './recipes'
 import type { ComponentLotDto } from './componentLots'
-import { patchSchema, scanText, text } from './common'
-
-const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
+import { isoDate, patchSchema, scanText, text } from './common'
 
 export const LotCreateInput = z.object({
   number: text()

@@ -4,9 +4,8 @@ import type { UnitState } from '../lots'
 import type { ServiceCaseResolution, ServiceCaseStatus } from '../service'
 import { SERVICE_CASE_RESOLUTIONS } from '../service'
 import { isScannedCode } from '../links'
-import { patchSchema, scanText, text } from './common'
+import { isoDate, patchSchema, scanText, text } from './common'
 
-const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
 const email = text().trim().toLowerCase().email('enter an e-mail address like buyer@example.com')
 
 /** Most serials one shipment or one request may list; a pallet of a big lot fits. */

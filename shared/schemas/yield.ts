@@ -1,12 +1,11 @@
 import { z } from 'zod'
-import { text } from './common'
+import { isoDate, text } from './common'
 import type { ProportionInterval } from '../quality/proportion'
 import type { Capability, RuleViolation } from '../quality/spc'
 import type { TurnVerdict } from '../quality/turnReview'
 import type { SeriesJudgement } from '../quality/episodes'
 import type { StationKind } from '../stations'
 
-const isoDate = text().regex(/^\d{4}-\d{2}-\d{2}$/, 'use a date like 2026-12-01')
 // The board's filter form sends an empty field for "all"; treat it as left out.
 const optionalId = z.preprocess(
   (v) => (v === '' ? undefined : v),

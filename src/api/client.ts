@@ -83,12 +83,11 @@ async function send(path: string, init: RequestInit): Promise<Response> {
 }
 
 /**
- * Calls the API and returns the parsed JSON body (undefined for 204).
- * @param path path below `/api`, e.g. `/stations`
- * @param init fetch options; a JSON `body` string sets the content type
+ * Sends a request and answers its response when it is a 2xx. A stale CSRF token gets one fresh
+ * token and one retry; a 401 outside `/auth/` tells the app the session ended.
  * @throws ApiError for every non-2xx answer and for network failures
  */
-export async function request<T>(path: string, init: RequestInit = {}): Promise<T> {
+async function sendOk(path: string, init: RequestInit): Promise<Response> {
   let response = await send(path, init)
   // A token can go stale when the session expires or another tab signs in; one fresh token
   // and one retry fixes that without the user noticing. A second refusal is a real one.
@@ -103,6 +102,17 @@ export async function request<T>(path: string, init: RequestInit = {}): Promise<
     if (response.status === 401 && !path.startsWith('/auth/')) unauthenticatedHandler?.()
     throw await toApiError(response)
   }
+  return response
+}
+
+/**
+ * Calls the API and returns the parsed JSON body (undefined for 204).
+ * @param path path below `/api`, e.g. `/stations`
+ * @param init fetch options; a JSON `body` string sets the content type
+ * @throws ApiError for every non-2xx answer and for network failures
+ */
+export async function request<T>(path: string, init: RequestInit = {}): Promise<T> {
+  const response = await sendOk(path, init)
   if (response.status === 204) return undefined as T
   return (await response.json()) as T
 }
@@ -117,8 +127,7 @@ export async function downloadFile(
   init: RequestInit,
   fallbackName: string,
 ): Promise<void> {
-  const response = await send(path, init)
-  if (!response.ok) throw await toApiError(response)
+  const response = await sendOk(path, init)
   const disposition = response.headers.get('Content-Disposition') ?? ''
   const name = /filename="([^"]+)"/.exec(disposition)?.[1] ?? fallbackName
   const url = URL.createObjectURL(await response.blob())

@@ -30,6 +30,19 @@ describe('badge and PIN for a second signature', () => {
   let engineer: TestClient
   let stores: TestClient
 
+  /** A unit that failed its load test, its nonconformance waiting for a decision. */
+  async function nonconformanceToDispose(): Promise<string> {
+    const t = await releasedTestLot({ engineer, lead, stores }, 1)
+    const serial = t.units[0]!.serial
+    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
+    const defectId = (await operator.get('/api/defect-codes')).body[0].id
+    const failed = await operator.post(
+      '/api/step-runs',
+      loadTestRun(serial, 356, { defectCodeId: defectId }),
+    )
+    return failed.body.nonconformanceId as string
+  }
+
   beforeAll(async () => {
     await resetSignInLimits()
     ;[admin, lead, operator, engineer, stores] = await Promise.all(
@@ -80,13 +93,7 @@ describe('badge and PIN for a second signature', () => {
     await me.client.send('put', '/api/auth/pin', { password: PASSWORD, pin: '250913' }).expect(200)
     await admin.post(`/api/users/${me.id}/badge`).expect(200)
     const badge = await badgeOf(me.id)
-    const t = await releasedTestLot({ engineer, lead, stores }, 1)
-    const serial = t.units[0]!.serial
-    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
-    const defectId = (await operator.get('/api/defect-codes')).body[0].id
-    const nc = (
-      await operator.post('/api/step-runs', loadTestRun(serial, 356, { defectCodeId: defectId }))
-    ).body.nonconformanceId
+    const nc = await nonconformanceToDispose()
     const reason = 'output 1 V over; customer accepts per deviation note'
     const dispose = (countersign: unknown) =>
       lead.post(`/api/nonconformances/${nc}/disposition`, {
@@ -120,13 +127,7 @@ describe('badge and PIN for a second signature', () => {
     await me.client.send('put', '/api/auth/pin', { password: PASSWORD, pin: '8080' }).expect(200)
     await admin.post(`/api/users/${me.id}/badge`).expect(200)
     const badge = await badgeOf(me.id)
-    const t = await releasedTestLot({ engineer, lead, stores }, 1)
-    const serial = t.units[0]!.serial
-    await operator.post('/api/step-runs', windingRun(t, serial)).expect(201)
-    const defectId = (await operator.get('/api/defect-codes')).body[0].id
-    const nc = (
-      await operator.post('/api/step-runs', loadTestRun(serial, 356, { defectCodeId: defectId }))
-    ).body.nonconformanceId
+    const nc = await nonconformanceToDispose()
     const dispose = (pin: string) =>
       lead.post(`/api/nonconformances/${nc}/disposition`, {
         disposition: 'use_as_is',

@@ -1,3 +1,6 @@
+import { containsPattern } from '../../../shared/searchTerms'
+import { isAuditedEntity } from '../../../shared/audit'
+import type { AuditedEntity } from '../../../shared/audit'
 import { select } from '../../db/sql'
 
 /**
@@ -5,7 +8,7 @@ import { select } from '../../db/sql'
  * gives `id` (as text, the way `audit_events.entity_id` holds it) and `label`. Kept beside the
  * audit list, which is its only reader; a new audited entity adds a line here.
  */
-const LABEL_SQL: Record<string, string> = {
+const LABEL_SQL: Record<AuditedEntity, string> = {
   unit: 'SELECT id::text AS id, serial AS label FROM units',
   lot: `SELECT id::text AS id, 'lot ' || number AS label FROM lots`,
   component_lot: `SELECT id::text AS id, internal_code || ' (' || supplier_lot_code || ')' AS label FROM component_lots`,
@@ -14,7 +17,7 @@ const LABEL_SQL: Record<string, string> = {
                FROM revisions r JOIN products p ON p.id = r.product_id`,
   check: `SELECT c.id::text AS id, c.label || ' (' || p.code || ' rev ' || r.letter || ')' AS label
             FROM checks c JOIN revisions r ON r.id = c.revision_id JOIN products p ON p.id = r.product_id`,
-  step: `SELECT s.id::text AS id, s.name || ' (' || p.code || ' rev ' || r.letter || ')' AS label
+  route_step: `SELECT s.id::text AS id, s.name || ' (' || p.code || ' rev ' || r.letter || ')' AS label
            FROM route_steps s JOIN revisions r ON r.id = s.revision_id JOIN products p ON p.id = r.product_id`,
   winding: `SELECT w.id::text AS id, w.name || ' winding (' || p.code || ' rev ' || r.letter || ')' AS label
               FROM windings w JOIN revisions r ON r.id = w.revision_id JOIN products p ON p.id = r.product_id`,
@@ -36,8 +39,6 @@ const LABEL_SQL: Record<string, string> = {
   nonconformance: `SELECT n.id::text AS id, 'nonconformance on ' || u.serial AS label
                      FROM nonconformances n JOIN units u ON u.id = n.unit_id`,
 }
-// Route steps are audited both as `step` and as `route_step`.
-LABEL_SQL.route_step = LABEL_SQL.step
 
 /** The key of one record in the label map: its entity and id. */
 export const labelKey = (entity: string, id: string) => `${entity}:${id}`
@@ -46,9 +47,9 @@ export const labelKey = (entity: string, id: string) => `${entity}:${id}`
 export async function recordLabels(
   refs: readonly { entity: string; entityId: string | null }[],
 ): Promise<Map<string, string>> {
-  const byEntity = new Map<string, Set<string>>()
+  const byEntity = new Map<AuditedEntity, Set<string>>()
   for (const { entity, entityId } of refs) {
-    if (!entityId || !LABEL_SQL[entity]) continue
+    if (!entityId || !isAuditedEntity(entity)) continue
     byEntity.set(entity, (byEntity.get(entity) ?? new Set()).add(entityId))
   }
   const labels = new Map<string, string>()
@@ -72,7 +73,7 @@ export async function recordsLabelled(
   text: string,
   limit = 200,
 ): Promise<{ entity: string; entityId: string }[]> {
-  const pattern = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
+  const pattern = containsPattern(text)
   const found = await Promise.all(
     Object.entries(LABEL_SQL).map(async ([entity, sql]) => {
       const rows = await select<{ id: string }>(

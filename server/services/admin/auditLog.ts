@@ -1,4 +1,5 @@
 import { actionWords, auditChanges, fieldWords } from '../../../shared/audit'
+import { containsPattern } from '../../../shared/searchTerms'
 import type { AuditEventDto, AuditPageDto, AuditQueryDto } from '../../../shared/schemas/audit'
 import { select } from '../../db/sql'
 import { labelKey, recordLabels, recordsLabelled } from './auditLabels'
@@ -20,10 +21,10 @@ interface AuditRow {
   ip: string | null
 }
 
-/** The WHERE clause and replacements of a query; `null` when the "thing" filter matches nothing. */
+/** The WHERE clause and replacements of a query. */
 async function whereOf(
   q: Omit<AuditQueryDto, 'page' | 'pageSize'>,
-): Promise<{ sql: string; replacements: Record<string, unknown> } | null> {
+): Promise<{ sql: string; replacements: Record<string, unknown> }> {
   const parts: string[] = []
   const replacements: Record<string, unknown> = {}
   if (q.actorId) {
@@ -32,7 +33,7 @@ async function whereOf(
   }
   if (q.actor) {
     parts.push(`(e.actor_email ILIKE :actor OR u.name ILIKE :actor)`)
-    replacements.actor = `%${q.actor.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
+    replacements.actor = containsPattern(q.actor)
   }
   if (q.entity) {
     parts.push('e.entity = :entity')
@@ -74,7 +75,6 @@ async function events(
   offset: number,
 ): Promise<{ rows: AuditEventDto[]; total: number }> {
   const where = await whereOf(q)
-  if (!where) return { rows: [], total: 0 }
   const [rows, [count]] = await Promise.all([
     select<AuditRow>(
       `SELECT e.id::text AS id, e.at, e.actor_id, e.actor_email, u.name AS actor_name, e.action,
