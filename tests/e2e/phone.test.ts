@@ -65,7 +65,7 @@ describe('A phone at a traveler, and a navigation that fits', () => {
     expect(await page.getByRole('button', { name: 'Sign out' }).isVisible()).toBe(true)
     await expect.poll(() => menu.boundingBox().then((b) => b && b.x >= 0)).toBe(true)
     await picture('phone-menu')
-    await page.keyboard.press('Escape')
+    await page.getByRole('button', { name: 'Close the menu' }).click()
     await menu.waitFor({ state: 'hidden' })
 
     // Summary, then the unit's papers, then the history, folded one line per step.
