@@ -96,7 +96,7 @@ describe('A phone at a traveler, and a navigation that fits', () => {
     await page.close()
   })
 
-  it('shows every area of the admin inside the window from 1280 to 1920 px wide', async () => {
+  it('shows every area of the admin inside the window from 1280 to 1920 px, then a menu', async () => {
     const page = await openPage(e2e, 'wide-navigation')
     await page.setViewportSize({ width: 1440, height: 900 })
     await page.context().clearCookies()
@@ -128,6 +128,20 @@ describe('A phone at a traveler, and a navigation that fits', () => {
       expect(await page.locator('[data-test=menu-button]').isVisible()).toBe(false)
       await picturesOf(page)(`wide-navigation-${width}`)
     }
+
+    // Below the breakpoint (a tablet on its side) the same areas wait behind the menu button.
+    await page.setViewportSize({ width: 1024, height: 768 })
+    expect(await nav.isVisible()).toBe(false)
+    await page.locator('[data-test=menu-button]').click()
+    const menu = page.getByRole('navigation', { name: 'Menu' })
+    await menu.waitFor()
+    expect((await menu.getByRole('link').allTextContents()).map((t) => t.trim())).toEqual(expected)
+    expect(await sidewaysOverflow(page)).toBeLessThanOrEqual(0)
+    await picturesOf(page)('narrow-navigation-1024')
+    // Taking an area closes the menu on that area's page.
+    await menu.getByRole('link', { name: 'Users' }).click()
+    await page.waitForURL((url) => url.pathname === '/admin/users')
+    await menu.waitFor({ state: 'hidden' })
     await page.close()
   })
 })
