@@ -37,6 +37,13 @@ describe('A phone at a traveler, and a navigation that fits', () => {
     await page.context().clearCookies()
     const picture = picturesOf(page)
 
+    // Only a unit's link names a unit; another page, or text that is no serial, does not.
+    for (const next of ['/lots', '/u/%3Cb%3Ehello%3C%2Fb%3E']) {
+      await page.goto(`${e2e.app.baseUrl}/signin?next=${encodeURIComponent(next)}`)
+      await page.locator('input[name="email"]').waitFor()
+      expect(await page.locator('[data-test=scanned-unit]').count(), next).toBe(0)
+    }
+
     // Signed out, the traveler's QR lands on the sign-in page, which names the unit.
     await page.goto(`${e2e.app.baseUrl}/u/${serial}`)
     await page.waitForURL((url) => url.pathname === '/signin')
