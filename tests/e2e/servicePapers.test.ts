@@ -198,7 +198,9 @@ describe('component lot links, a unit’s papers, returns, packing and containme
     // column's edge, and the table needs no sideways scrolling to show a column.
     const clipped = await page.evaluate(() => {
       const card = document.querySelector('.rscope__units')!.getBoundingClientRect()
-      const cells = [...document.querySelectorAll<HTMLElement>('.rscope__units .el-table .cell')]
+      const cells = Array.from(
+        document.querySelectorAll<HTMLElement>('.rscope__units .el-table .cell'),
+      )
       const wrap = document.querySelector<HTMLElement>('.rscope__units .el-scrollbar__wrap')!
       return [
         ...cells
