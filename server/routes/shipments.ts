@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { IdParam, scanText } from '../../shared/schemas/common'
-import { ShipmentCreateInput } from '../../shared/schemas/shipping'
+import { CertificateRequestInput, ShipmentCreateInput } from '../../shared/schemas/shipping'
 import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
@@ -37,7 +37,13 @@ shipmentRoutes.get('/:id', PERMISSIONS.readShipments, async (req, res) => {
 shipmentRoutes.post('/:id/certificate', PERMISSIONS.issueCustomerDocuments, async (req, res) => {
   res
     .status(201)
-    .json(await requestShipmentCertificate(parse(IdParam, req.params.id), actorOf(req)))
+    .json(
+      await requestShipmentCertificate(
+        parse(IdParam, req.params.id),
+        parse(CertificateRequestInput, req.body ?? {}),
+        actorOf(req),
+      ),
+    )
 })
 
 unitDocumentRoutes.post(
@@ -46,7 +52,13 @@ unitDocumentRoutes.post(
   async (req, res) => {
     res
       .status(201)
-      .json(await requestUnitCertificate(parse(Serial, req.params.serial), actorOf(req)))
+      .json(
+        await requestUnitCertificate(
+          parse(Serial, req.params.serial),
+          parse(CertificateRequestInput, req.body ?? {}),
+          actorOf(req),
+        ),
+      )
   },
 )
 unitDocumentRoutes.get('/:serial/documents', PERMISSIONS.readShipments, async (req, res) => {

@@ -54,6 +54,10 @@ export interface ShippableUnitDto {
   lotNumber: string
   productCode: string
   revisionLetter: string
+  /** The customer the unit's lot was built for (a record), so packing can offer it first. */
+  lotCustomerId: string | null
+  /** That customer's name, or the lot's free-text customer when it names no record. */
+  lotCustomerName: string | null
   /** Null when the unit may ship; otherwise why not. */
   refusal: string | null
 }
@@ -86,6 +90,21 @@ export interface ShipmentDto extends ShipmentSummaryDto {
 
 // --- certificates and e-mailed documents -----------------------------------------------------
 
+/**
+ * Asking for a certificate of conformance. A unit with a return still open is only certified
+ * when `confirmOpenReturn` is true: the server answers 409 `open_return` otherwise.
+ */
+export const CertificateRequestInput = z.object({
+  confirmOpenReturn: z.boolean({ error: 'confirmOpenReturn: true or false' }).default(false),
+})
+export type CertificateRequestInput = z.infer<typeof CertificateRequestInput>
+
+/** What a 409 `open_return` carries in `details.openReturns`: each unit and its open case. */
+export interface OpenReturnDto {
+  serial: string
+  number: string
+}
+
 /** `to` left empty goes to the contact e-mail of the document's customer. */
 export const DocumentEmailInput = z.object({
   to: z.array(email).max(20, 'at most 20 recipients').default([]),
@@ -112,6 +131,22 @@ export const ServiceCaseCreateInput = z.object({
   receivedOn: isoDate,
 })
 export type ServiceCaseCreateInput = z.infer<typeof ServiceCaseCreateInput>
+
+/** What the return dialog shows for a scanned serial before the return is logged. */
+export interface ReturnableUnitDto {
+  serial: string
+  state: UnitState
+  productCode: string
+  productName: string
+  revisionLetter: string
+  lotNumber: string
+  /** The customer of the shipment it came back from, else the lot's customer. */
+  customerName: string | null
+  shipmentNumber: string | null
+  shippedOn: string | null
+  /** Null when a return may be logged; otherwise why not (not shipped, a case already open). */
+  refusal: string | null
+}
 
 export const ServiceCaseUpdateInput = z.object({
   findings: text().trim().max(8000).optional(),

@@ -14,7 +14,9 @@ export const documentsApi = {
   /** Queues the finished PDF as an attachment on the mail queue. */
   email: (id: string, input: DocumentEmailInput) =>
     request<EmailDto>(`/documents/${enc(id)}/email`, json('POST', input)),
-  unitCertificate: (serial: string) =>
-    request<DocumentDto>(`/units/${enc(serial)}/certificate`, json('POST', {})),
+  /** 409 `open_return` while the unit has a return open, unless `confirmOpenReturn`. */
+  unitCertificate: (serial: string, confirmOpenReturn = false) =>
+    request<DocumentDto>(`/units/${enc(serial)}/certificate`, json('POST', { confirmOpenReturn })),
+  /** Every document of a unit (certificates, its shipment's papers, its lot's), newest first. */
   unitDocuments: (serial: string) => request<DocumentDto[]>(`/units/${enc(serial)}/documents`),
 }

@@ -1,4 +1,5 @@
 import type {
+  ReturnableUnitDto,
   ServiceCaseCloseInput,
   ServiceCaseCreateInput,
   ServiceCaseDto,
@@ -13,6 +14,8 @@ export const serviceCasesApi = {
   list: (query: { status?: 'open' | 'closed' } = {}) =>
     request<ServiceCaseDto[]>(`/service-cases${query.status ? `?status=${query.status}` : ''}`),
   get: (id: string) => request<ServiceCaseDto>(`/service-cases/${enc(id)}`),
+  /** What a scanned serial is, before its return is logged; 404 for an unknown serial. */
+  returnable: (serial: string) => request<ReturnableUnitDto>(`/service-cases/units/${enc(serial)}`),
   /** 409 `unit_not_shipped` when the serial has not shipped. */
   open: (input: ServiceCaseCreateInput) =>
     request<ServiceCaseDto>('/service-cases', json('POST', input)),

@@ -20,6 +20,7 @@ export const shipmentsApi = {
   check: (scanned: string) => request<ShippableUnitDto>(`/shipments/units/${enc(scanned)}`),
   /** 409 `units_not_shippable` with `details` naming each refused serial; nothing is saved. */
   create: (input: ShipmentCreateInput) => request<ShipmentDto>('/shipments', json('POST', input)),
-  certificate: (id: string) =>
-    request<DocumentDto>(`/shipments/${enc(id)}/certificate`, json('POST', {})),
+  /** 409 `open_return` while one of its units has a return open, unless `confirmOpenReturn`. */
+  certificate: (id: string, confirmOpenReturn = false) =>
+    request<DocumentDto>(`/shipments/${enc(id)}/certificate`, json('POST', { confirmOpenReturn })),
 }

@@ -158,6 +158,13 @@ export const router = createRouter({
       component: () => import('@/views/Trace/UnitLinkView.vue'),
     },
     {
+      // What a component lot label's QR holds (shared/links.ts componentLotUrl); any role.
+      path: '/c/:code',
+      name: 'component-lot-link',
+      props: true,
+      component: () => import('@/views/Trace/ComponentLotLinkView.vue'),
+    },
+    {
       path: '/admin/status',
       name: 'status',
       meta: { roles: rolesOf('status') },

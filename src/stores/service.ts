@@ -1,6 +1,5 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { DocumentDto } from '@shared/schemas/lots'
 import type { StepDto } from '@shared/schemas/recipes'
 import type {
   ServiceCaseCloseInput,
@@ -9,7 +8,6 @@ import type {
   ServiceCaseUpdateInput,
 } from '@shared/schemas/shipping'
 import { revisionsApi } from '@/api/revisions'
-import { documentsApi } from '@/api/documents'
 import { serviceCasesApi } from '@/api/serviceCases'
 
 export const useServiceStore = defineStore('service', () => {
@@ -18,10 +16,9 @@ export const useServiceStore = defineStore('service', () => {
   const isLoading = ref(false)
   /** The filter of the list; empty for every case. */
   const status = ref<'open' | 'closed' | ''>('open')
-  /** The case open in the drawer, the route of its unit, and its unit's documents. */
+  /** The case open in the drawer and the route of its unit (its documents have their panel). */
   const current = ref<ServiceCaseDto | null>(null)
   const steps = ref<StepDto[]>([])
-  const documents = ref<DocumentDto[]>([])
 
   /** Fetches the list with the current filter; throws ApiError. */
   async function fetchAll() {
@@ -38,21 +35,11 @@ export const useServiceStore = defineStore('service', () => {
     cases.value = cases.value.map((x) => (x.id === c.id ? c : x))
   }
 
-  /** Opens a case in the drawer with its unit's route and documents; throws ApiError. */
+  /** Opens a case in the drawer with its unit's route; throws ApiError. */
   async function open(id: string) {
     const c = await serviceCasesApi.get(id)
     current.value = c
-    const [rev, docs] = await Promise.all([
-      revisionsApi.get(c.revisionId),
-      documentsApi.unitDocuments(c.serial),
-    ])
-    steps.value = rev.steps
-    documents.value = docs
-  }
-
-  /** Reloads the open case's documents (their progress). */
-  async function refreshDocuments() {
-    if (current.value) documents.value = await documentsApi.unitDocuments(current.value.serial)
+    steps.value = (await revisionsApi.get(c.revisionId)).steps
   }
 
   /** Logs a return; the unit becomes returned. Throws ApiError with field messages. */
@@ -70,17 +57,9 @@ export const useServiceStore = defineStore('service', () => {
     if (current.value) put(await serviceCasesApi.close(current.value.id, input))
   }
 
-  /** Asks for a certificate of conformance of the open case's serial. */
-  async function makeCertificate() {
-    if (!current.value) return
-    await documentsApi.unitCertificate(current.value.serial)
-    await refreshDocuments()
-  }
-
   function close() {
     current.value = null
     steps.value = []
-    documents.value = []
   }
 
   return {
@@ -89,14 +68,11 @@ export const useServiceStore = defineStore('service', () => {
     status,
     current,
     steps,
-    documents,
     fetchAll,
     open,
-    refreshDocuments,
     create,
     update,
     closeCase,
-    makeCertificate,
     close,
   }
 })

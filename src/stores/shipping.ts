@@ -106,10 +106,13 @@ export const useShippingStore = defineStore('shipping', () => {
     if (current.value) current.value = await shipmentsApi.get(current.value.id)
   }
 
-  /** Asks the documents worker for a certificate of the open shipment. */
-  async function makeCertificate(): Promise<DocumentDto | null> {
+  /**
+   * Asks the documents worker for a certificate of the open shipment; `confirmOpenReturn` says
+   * the person knows one of its units has a return open (else 409 `open_return`).
+   */
+  async function makeCertificate(confirmOpenReturn = false): Promise<DocumentDto | null> {
     if (!current.value) return null
-    const doc = await shipmentsApi.certificate(current.value.id)
+    const doc = await shipmentsApi.certificate(current.value.id, confirmOpenReturn)
     await refreshCurrent()
     return doc
   }

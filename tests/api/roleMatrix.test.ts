@@ -168,6 +168,7 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   },
   { method: 'get', path: '/api/service-cases', who: ['service', 'lead', 'engineer', 'admin'] },
   { method: 'post', path: '/api/service-cases', who: ['service', 'lead'] },
+  { method: 'get', path: '/api/service-cases/units/:serial', who: ['service', 'lead'] },
   { method: 'get', path: '/api/service-cases/:id', who: ['service', 'lead', 'engineer', 'admin'] },
   { method: 'patch', path: '/api/service-cases/:id', who: ['service', 'lead'] },
   { method: 'post', path: '/api/service-cases/:id/close', who: ['service', 'lead'] },

@@ -77,8 +77,8 @@ describe('A phone at a traveler, and a navigation that fits', () => {
 
     // Summary, then the unit's papers, then the history, folded one line per step.
     const summary = await topOf(page, '[aria-label="Unit summary"]')
-    const documents = await topOf(page, 'section[aria-label="Documents"]')
-    const papers = await topOf(page, '#serial-certs-title')
+    const documents = await topOf(page, '[data-test="unit-documents"]')
+    const papers = await topOf(page, 'section[aria-label="Returns"]')
     const history = await topOf(page, 'h2:has-text("History, step by step")')
     expect(summary).toBeLessThan(documents)
     expect(documents).toBeLessThan(history)

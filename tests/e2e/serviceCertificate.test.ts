@@ -83,7 +83,10 @@ describe('Customer service e-mails a certificate from a trace', () => {
     const sentBefore = await Email.count({ where: { receiptAt: { [Op.ne]: null } } })
     await page.getByRole('button', { name: `Make certificate for ${serial}` }).click()
     // The documents worker makes it; the list polls until it is ready to send.
-    const emailButton = page.getByRole('button', { name: 'E-mail to customer' }).first()
+    // The unit's own new certificate, not an older paper of its shipment in the same list.
+    const emailButton = page
+      .locator('[data-kind=certificate]', { hasText: `${serial}-certificate.pdf` })
+      .getByRole('button', { name: 'E-mail to customer' })
     await emailButton.waitFor()
     await emailButton.click()
     const dialog = page.getByRole('dialog')

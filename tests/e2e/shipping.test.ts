@@ -76,6 +76,10 @@ describe('Shipping screen', () => {
     await page.locator('input[placeholder="their PO number"]').fill('QS-5512')
     await picturesOf(page)('shipping-packed')
     await page.locator('[data-test="ship-confirm"]').click()
+    // It asks first, naming the customer.
+    const sure = page.locator('.el-message-box')
+    await sure.getByText(`2 units go to ${customerName}`, { exact: false }).waitFor()
+    await sure.getByRole('button', { name: 'Ship', exact: true }).click()
 
     const drawer = page.locator('.el-drawer')
     await drawer.getByText('Packing slip').first().waitFor()

@@ -9,6 +9,7 @@ import type {
   ServiceCaseDto,
   ServiceCaseQuery,
   ServiceCaseUpdateInput,
+  ReturnableUnitDto,
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
 import { DefectCode, Lot, RouteStep, ServiceCase, Unit } from '../../models'
@@ -130,6 +131,65 @@ export async function getServiceCase(
 }
 
 const stateWords = (state: UnitState) => UNIT_STATE_LABELS[state].toLowerCase()
+
+/**
+ * A scanned serial checked for logging a return, before anything is saved: the unit, its
+ * product and the customer it came back from, so the person sees they have the right unit.
+ * An unknown serial is a 404; a unit that cannot be returned says why in `refusal`.
+ */
+export async function checkReturnable(scanned: string): Promise<ReturnableUnitDto> {
+  const serial = codeFromScan(scanned)
+  const [row] = await select<{
+    serial: string
+    state: UnitState
+    product_code: string
+    product_name: string
+    revision_letter: string
+    lot_number: string
+    customer_name: string | null
+    shipment_number: string | null
+    shipped_on: string | null
+    open_case: string | null
+  }>(
+    `SELECT u.serial, u.state, p.code AS product_code, p.name AS product_name,
+            r.letter AS revision_letter, l.number AS lot_number,
+            coalesce(shc.name, lc.name, nullif(l.customer_name, '')) AS customer_name,
+            sh.number AS shipment_number, sh.shipped_on::text AS shipped_on,
+            (SELECT sc.number FROM service_cases sc
+              WHERE sc.unit_id = u.id AND sc.status = 'open') AS open_case
+       FROM units u
+       JOIN lots l ON l.id = u.lot_id
+       JOIN revisions r ON r.id = l.revision_id
+       JOIN products p ON p.id = r.product_id
+       LEFT JOIN customers lc ON lc.id = l.customer_id
+       LEFT JOIN LATERAL (
+         SELECT s.number, s.shipped_on, s.customer_id
+           FROM shipment_units su JOIN shipments s ON s.id = su.shipment_id
+          WHERE su.unit_id = u.id ORDER BY su.created_at DESC LIMIT 1
+       ) sh ON true
+       LEFT JOIN customers shc ON shc.id = sh.customer_id
+      WHERE u.serial = :serial`,
+    { replacements: { serial } },
+  )
+  if (!row) throw AppError.notFound(`unit ${serial}`)
+  const refusal = row.open_case
+    ? `return ${row.open_case} is already open for it`
+    : row.state !== 'shipped'
+      ? `it is ${stateWords(row.state)}: a return is logged for a unit that shipped`
+      : null
+  return {
+    serial: row.serial,
+    state: row.state,
+    productCode: row.product_code,
+    productName: row.product_name,
+    revisionLetter: row.revision_letter,
+    lotNumber: row.lot_number,
+    customerName: row.customer_name,
+    shipmentNumber: row.shipment_number,
+    shippedOn: row.shipped_on,
+    refusal,
+  }
+}
 
 /**
  * Opens a case for a shipped unit that came back: the unit becomes `returned` and the case names

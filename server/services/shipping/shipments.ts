@@ -4,6 +4,8 @@ import { codeFromScan } from '../../../shared/links'
 import { PASSED_UNIT_STATES, UNIT_STATE_LABELS } from '../../../shared/lots'
 import type { UnitState } from '../../../shared/lots'
 import type {
+  CertificateRequestInput,
+  OpenReturnDto,
   ShipmentCreateInput,
   ShipmentDto,
   ShipmentSummaryDto,
@@ -14,6 +16,7 @@ import { Customer, Document, Shipment, ShipmentUnit, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { requestDocument, toDocumentDto } from '../documents'
+import { OPEN_RETURNS_SQL, UNIT_DOCUMENTS_SQL } from '../trace'
 import { select, withTransaction } from '../../db/sql'
 
 interface UnitRow {
@@ -23,15 +26,19 @@ interface UnitRow {
   lot_number: string
   product_code: string
   revision_letter: string
+  lot_customer_id: string | null
+  lot_customer_name: string | null
 }
 
 const SELECT_UNITS = `
   SELECT u.id, u.serial, u.state, l.number AS lot_number, p.code AS product_code,
-         r.letter AS revision_letter
+         r.letter AS revision_letter, l.customer_id AS lot_customer_id,
+         coalesce(lc.name, nullif(l.customer_name, '')) AS lot_customer_name
     FROM units u
     JOIN lots l ON l.id = u.lot_id
     JOIN revisions r ON r.id = l.revision_id
-    JOIN products p ON p.id = r.product_id`
+    JOIN products p ON p.id = r.product_id
+    LEFT JOIN customers lc ON lc.id = l.customer_id`
 
 /** Why a unit in `state` may not ship, or null when it may (it passed its whole route). */
 export function shipRefusal(state: UnitState): string | null {
@@ -53,6 +60,8 @@ export async function checkShippable(scanned: string): Promise<ShippableUnitDto>
     lotNumber: row.lot_number,
     productCode: row.product_code,
     revisionLetter: row.revision_letter,
+    lotCustomerId: row.lot_customer_id,
+    lotCustomerName: row.lot_customer_name,
     refusal: shipRefusal(row.state),
   }
 }
@@ -250,10 +259,21 @@ export async function createShipment(
 }
 
 /** Requests a certificate of conformance listing every serial of a shipment. */
-export async function requestShipmentCertificate(id: string, actor: Actor) {
+export async function requestShipmentCertificate(
+  id: string,
+  input: CertificateRequestInput,
+  actor: Actor,
+) {
   return withTransaction(async (transaction) => {
     const shipment = await Shipment.findByPk(id, { transaction })
     if (!shipment) throw AppError.notFound(`shipment ${id}`)
+    if (!input.confirmOpenReturn) {
+      const units = await ShipmentUnit.findAll({ where: { shipmentId: id }, transaction })
+      await refuseOpenReturns(
+        units.map((u) => u.unitId),
+        transaction,
+      )
+    }
     const doc = await requestDocument(
       {
         kind: 'certificate',
@@ -271,7 +291,11 @@ export async function requestShipmentCertificate(id: string, actor: Actor) {
  * Requests a certificate of conformance for one serial. A unit that has not passed its route
  * has nothing to certify.
  */
-export async function requestUnitCertificate(scanned: string, actor: Actor) {
+export async function requestUnitCertificate(
+  scanned: string,
+  input: CertificateRequestInput,
+  actor: Actor,
+) {
   const serial = codeFromScan(scanned)
   return withTransaction(async (transaction) => {
     const unit = await Unit.findOne({ where: { serial }, transaction })
@@ -281,6 +305,7 @@ export async function requestUnitCertificate(scanned: string, actor: Actor) {
         'unit_not_passed',
         `${serial} is ${UNIT_STATE_LABELS[unit.state as UnitState].toLowerCase()}: a certificate needs a unit that passed its route`,
       )
+    if (!input.confirmOpenReturn) await refuseOpenReturns([unit.id], transaction)
     const doc = await requestDocument(
       { kind: 'certificate', unitId: unit.id, filename: `${serial}-certificate.pdf` },
       actor,
@@ -290,14 +315,37 @@ export async function requestUnitCertificate(scanned: string, actor: Actor) {
   })
 }
 
-/** The documents made for one serial (its certificates), newest first. */
+/**
+ * Refuses a certificate while any of the units has a return open, naming each case: the
+ * customer has just sent the unit back, so the person must say they mean it
+ * (`confirmOpenReturn`).
+ */
+async function refuseOpenReturns(unitIds: string[], transaction: Transaction): Promise<void> {
+  if (!unitIds.length) return
+  const open = await select<OpenReturnDto>(OPEN_RETURNS_SQL, { bind: [unitIds], transaction })
+  if (!open.length) return
+  const named = open.map((r) => `${r.serial} has open return ${r.number}`).join('; ')
+  throw new AppError(
+    409,
+    'open_return',
+    `${named}: send confirmOpenReturn: true to issue the certificate anyway`,
+    { confirmOpenReturn: 'confirm to certify a unit with an open return' },
+    { openReturns: open },
+  )
+}
+
+/**
+ * Every document of one serial, newest first: its certificates, its shipment's papers and its
+ * lot's travelers and labels, by the same rule the trace lists them (UNIT_DOCUMENTS_SQL).
+ */
 export async function listUnitDocuments(scanned: string) {
   const serial = codeFromScan(scanned)
   const unit = await Unit.findOne({ where: { serial } })
   if (!unit) throw AppError.notFound(`unit ${serial}`)
-  const docs = await Document.findAll({
-    where: { unitId: unit.id },
-    order: [['createdAt', 'DESC']],
-  })
-  return docs.map(toDocumentDto)
+  const ids = (await select<{ id: string }>(UNIT_DOCUMENTS_SQL, { bind: [serial] })).map(
+    (r) => r.id,
+  )
+  const docs = await Document.findAll({ where: { id: ids } })
+  const byId = new Map(docs.map((d) => [d.id, d]))
+  return ids.map((id) => toDocumentDto(byId.get(id)!))
 }

@@ -4,6 +4,42 @@
  */
 
 /**
+ * Which documents belong to a unit `u` whose latest shipment is `sh`: its own certificates,
+ * the papers of the shipment it went out in, and its lot's travelers and labels. The trace and
+ * the unit's document panel (UNIT_DOCUMENTS_SQL) both read this one rule, so they never list
+ * different papers for one serial.
+ */
+const UNIT_DOCUMENTS_MATCH = `(d.lot_id = u.lot_id AND d.unit_id IS NULL AND d.shipment_id IS NULL
+          AND d.kind IN ('travelers', 'labels'))
+      OR d.unit_id = u.id
+      OR (sh.id IS NOT NULL AND d.shipment_id = sh.id)`
+
+/** The latest shipment `sh` of unit `u`: a repaired unit can ship again. */
+const LATEST_SHIPMENT = `LEFT JOIN LATERAL (
+  SELECT s.* FROM shipment_units su JOIN shipments s ON s.id = su.shipment_id
+   WHERE su.unit_id = u.id
+   ORDER BY s.shipped_on DESC, su.created_at DESC
+   LIMIT 1
+) sh ON true`
+
+/** The ids of a unit's documents (by serial), newest first; documents_{lot,unit,shipment}_idx. */
+export const UNIT_DOCUMENTS_SQL = `
+SELECT d.id FROM units u
+${LATEST_SHIPMENT}
+JOIN documents d ON ${UNIT_DOCUMENTS_MATCH}
+WHERE u.serial = $1
+ORDER BY d.created_at DESC, d.id`
+
+/**
+ * The units among `ids` with a return still open, and its number: a certificate issued for
+ * such a unit vouches for one a customer has just sent back (service_cases_unit_idx).
+ */
+export const OPEN_RETURNS_SQL = `
+SELECT u.serial, sc.number FROM service_cases sc JOIN units u ON u.id = sc.unit_id
+WHERE sc.unit_id = ANY($1::uuid[]) AND sc.status = 'open'
+ORDER BY u.serial, sc.number`
+
+/**
  * A unit's whole history in one round trip: the header row joined from unit to product and
  * shipment, and each list as a JSON array built by a sub-select that reads one index
  * (step_runs' (unit_id, step_id, attempt), measurements' (step_run_id, check_id),
@@ -75,10 +111,7 @@ SELECT
       'id', d.id, 'kind', d.kind, 'filename', d.filename, 'status', d.status,
       'createdAt', d.created_at) ORDER BY d.created_at), '[]')
    FROM documents d
-   WHERE (d.lot_id = u.lot_id AND d.unit_id IS NULL AND d.shipment_id IS NULL
-          AND d.kind IN ('travelers', 'labels'))
-      OR d.unit_id = u.id
-      OR (sh.id IS NOT NULL AND d.shipment_id = sh.id)) AS documents,
+   WHERE ${UNIT_DOCUMENTS_MATCH}) AS documents,
   (SELECT coalesce(json_agg(json_build_object(
       'id', sc.id, 'number', sc.number, 'status', sc.status, 'customerName', scc.name,
       'complaint', sc.complaint, 'receivedOn', sc.received_on, 'findings', sc.findings,

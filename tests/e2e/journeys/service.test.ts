@@ -71,7 +71,10 @@ describe('Service journey', () => {
 
     // The certificate, made by the documents worker, e-mailed to the customer's contact.
     await page.getByRole('button', { name: `Make certificate for ${serial}` }).click()
-    const emailButton = page.getByRole('button', { name: 'E-mail to customer' }).first()
+    // The unit's own new certificate, not an older paper of its shipment in the same list.
+    const emailButton = page
+      .locator('[data-kind=certificate]', { hasText: `${serial}-certificate.pdf` })
+      .getByRole('button', { name: 'E-mail to customer' })
     await emailButton.click()
     const dialog = page.getByRole('dialog')
     await expect
