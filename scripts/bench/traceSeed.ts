@@ -125,11 +125,17 @@ export async function seedTraceHistory(
       clCodes.push(body + mod3736CheckCharacter(body))
       clParts.push(part)
     }
+  // One supplier record for the bench's lots (suppliers are records, one per name).
   await q(
-    `INSERT INTO component_lots (id, internal_code, part_id, supplier_name, supplier_lot_code,
+    `INSERT INTO suppliers (id, name, created_at, updated_at)
+     VALUES (gen_random_uuid(), 'Bench Supplies', now(), now()) ON CONFLICT DO NOTHING`,
+  )
+  await q(
+    `INSERT INTO component_lots (id, internal_code, part_id, supplier_id, supplier_lot_code,
        quantity_received, quantity_remaining, received_on, status, notes, created_at, updated_at)
-     SELECT id, code, part_id, 'Bench Supplies', 'BS-' || code, 100000, 50000, date '2026-01-02',
-       'available', '', now(), now()
+     SELECT id, code, part_id,
+       (SELECT id FROM suppliers WHERE lower(name) = 'bench supplies'), 'BS-' || code,
+       100000, 50000, date '2026-01-02', 'available', '', now(), now()
      FROM unnest($1::uuid[], $2::text[], $3::uuid[]) AS t(id, code, part_id)`,
     [clIds, clCodes, clParts],
   )

@@ -4,12 +4,13 @@ import { initRecord, RecordModel } from './columns'
 import { COMPONENT_LOT_STATUSES } from '../../shared/recipeDefinitions'
 import type { ComponentLotStatus } from '../../shared/recipeDefinitions'
 import type { Part } from './Part'
+import type { Supplier } from './Supplier'
 import type { Upload } from './Upload'
 
 export class ComponentLot extends RecordModel<ComponentLot> {
   declare internalCode: string
   declare partId: string
-  declare supplierName: string
+  declare supplierId: string
   declare supplierLotCode: string
   declare quantityReceived: number
   declare quantityRemaining: number
@@ -18,16 +19,21 @@ export class ComponentLot extends RecordModel<ComponentLot> {
   declare status: CreationOptional<ComponentLotStatus>
   declare notes: CreationOptional<string>
   declare certificateUploadId: string | null
+  declare awaitsInspection: CreationOptional<boolean>
+  declare inspectedAt: CreationOptional<Date | null>
+  declare inspectedBy: CreationOptional<string | null>
+  declare inspectionNote: CreationOptional<string>
   // associations
   declare part?: NonAttribute<Part>
   declare certificate?: NonAttribute<Upload | null>
+  declare supplier?: NonAttribute<Supplier>
 }
 
 export function initComponentLot(sequelize: Sequelize): void {
   initRecord(ComponentLot, sequelize, 'component_lots', {
     internalCode: { type: DataTypes.STRING(20), allowNull: false, unique: true },
     partId: { type: DataTypes.UUID, allowNull: false },
-    supplierName: { type: DataTypes.STRING(120), allowNull: false },
+    supplierId: { type: DataTypes.UUID, allowNull: false },
     supplierLotCode: { type: DataTypes.STRING(80), allowNull: false },
     quantityReceived: { type: DataTypes.DOUBLE, allowNull: false },
     quantityRemaining: { type: DataTypes.DOUBLE, allowNull: false },
@@ -40,5 +46,9 @@ export function initComponentLot(sequelize: Sequelize): void {
     },
     notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
     certificateUploadId: { type: DataTypes.UUID, allowNull: true },
+    awaitsInspection: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    inspectedAt: { type: DataTypes.DATE, allowNull: true },
+    inspectedBy: { type: DataTypes.UUID, allowNull: true },
+    inspectionNote: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
   })
 }

@@ -1,5 +1,5 @@
 import { DataTypes } from 'sequelize'
-import type { Sequelize } from 'sequelize'
+import type { CreationOptional, Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
 import type { UnitOfMeasure } from '../../shared/recipeDefinitions'
 
@@ -8,6 +8,8 @@ export class Part extends RecordModel<Part> {
   declare description: string
   declare unitOfMeasure: UnitOfMeasure
   declare hasExpiry: boolean
+  declare needsInspection: CreationOptional<boolean>
+  declare shelfLifeDays: number | null
 }
 
 export function initPart(sequelize: Sequelize): void {
@@ -16,5 +18,7 @@ export function initPart(sequelize: Sequelize): void {
     description: { type: DataTypes.STRING(200), allowNull: false },
     unitOfMeasure: { type: DataTypes.STRING(8), allowNull: false, defaultValue: 'pcs' },
     hasExpiry: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    needsInspection: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    shelfLifeDays: { type: DataTypes.INTEGER, allowNull: true },
   })
 }

@@ -29,6 +29,7 @@ import { Alert, initAlert } from './Alert'
 import { Import, initImport } from './Import'
 import { ImportMapping, initImportMapping } from './ImportMapping'
 import { ImportRow, initImportRow } from './ImportRow'
+import { initSupplier, Supplier } from './Supplier'
 
 export {
   AuditEvent,
@@ -49,6 +50,7 @@ export { Consumption, Document, Email, Lot, Measurement, Nonconformance, StepRun
 export { Customer, ServiceCase, Shipment, ShipmentUnit }
 export { Alert }
 export { Import, ImportMapping, ImportRow }
+export { Supplier }
 
 let instance: Sequelize | undefined
 
@@ -64,6 +66,7 @@ function associate(): void {
   BomLine.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
   ComponentLot.belongsTo(Part, { as: 'part', foreignKey: 'partId' })
   ComponentLot.belongsTo(Upload, { as: 'certificate', foreignKey: 'certificateUploadId' })
+  ComponentLot.belongsTo(Supplier, { as: 'supplier', foreignKey: 'supplierId' })
   Lot.belongsTo(Revision, { as: 'revision', foreignKey: 'revisionId' })
   Unit.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' })
   Unit.belongsTo(RouteStep, { as: 'currentStep', foreignKey: 'currentStepId' })
@@ -102,6 +105,7 @@ export function db(): Sequelize {
     initBomLine,
     initDefectCode,
     initUpload,
+    initSupplier,
     initComponentLot,
     initLot,
     initUnit,

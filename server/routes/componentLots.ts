@@ -2,10 +2,12 @@ import multer from 'multer'
 import { IdParam } from '../../shared/schemas/common'
 import {
   ComponentLotCreateInput,
+  ComponentLotInspectionInput,
   ComponentLotQuery,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
 } from '../../shared/schemas/componentLots'
+import { SupplierInput, SupplierQuery } from '../../shared/schemas/suppliers'
 import { PERMISSIONS } from '../../shared/permissions'
 import { componentLotLabelPdf } from '../documents/componentLotLabel'
 import { env } from '../env'
@@ -17,8 +19,11 @@ import { parse } from '../middleware/validate'
 import {
   attachCertificate,
   certificateOf,
+  addSupplier,
   getComponentLot,
+  inspectComponentLot,
   listComponentLots,
+  listSuppliers,
   receiveComponentLot,
   setComponentLotStatus,
   updateComponentLot,
@@ -72,6 +77,16 @@ componentLotRoutes.post('/:id/status', PERMISSIONS.setComponentLotStatus, async 
   )
 })
 
+componentLotRoutes.post('/:id/inspection', PERMISSIONS.editComponentLots, async (req, res) => {
+  res.json(
+    await inspectComponentLot(
+      id(req.params),
+      parse(ComponentLotInspectionInput, req.body),
+      actorOf(req),
+    ),
+  )
+})
+
 componentLotRoutes.put(
   '/:id/certificate',
   PERMISSIONS.editComponentLots,
@@ -100,4 +115,16 @@ componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req,
   res.type('application/pdf')
   res.setHeader('Content-Disposition', `inline; filename="label-${lot.internalCode}.pdf"`)
   res.send(await componentLotLabelPdf(lot, env.publicBaseUrl))
+})
+
+/** Suppliers are records: receiving picks one from these suggestions or adds one. */
+export const supplierRoutes = apiRoutes('/suppliers')
+
+supplierRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
+  res.json(await listSuppliers(parse(SupplierQuery, req.query)))
+})
+
+supplierRoutes.post('/', PERMISSIONS.editComponentLots, async (req, res) => {
+  const { supplier, isNew } = await addSupplier(parse(SupplierInput, req.body), actorOf(req))
+  res.status(isNew ? 201 : 200).json(supplier)
 })

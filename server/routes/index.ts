@@ -1,7 +1,7 @@
 import { Router } from 'express'
 import { auditRoutes } from './audit'
 import { authRoutes } from './auth'
-import { componentLotRoutes } from './componentLots'
+import { componentLotRoutes, supplierRoutes } from './componentLots'
 import { healthRoutes } from './health'
 import { defectCodeRoutes, partRoutes } from './parts'
 import { productRoutes } from './products'
@@ -45,6 +45,7 @@ void [
   partRoutes,
   defectCodeRoutes,
   componentLotRoutes,
+  supplierRoutes,
 ]
 
 void [lotRoutes, floorRoutes, stepRunRoutes, nonconformanceRoutes, documentRoutes, yieldRoutes]

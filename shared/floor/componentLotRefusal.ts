@@ -11,6 +11,8 @@ export interface LotToFit {
   /** ISO date (YYYY-MM-DD), or null when the lot does not expire. */
   expiresOn: string | null
   quantityRemaining: number
+  /** Quarantined on receipt until stores accept it at incoming inspection. */
+  awaitsInspection?: boolean
 }
 
 /** A bill-of-materials line as the Floor fits a lot on it. */
@@ -33,6 +35,8 @@ export function componentLotRefusal(
   const code = lot.internalCode
   if (lot.partId !== line.partId)
     return `${code} is ${lot.partNumber || 'another part'}; this line needs ${line.partNumber || 'another part'}`
+  if (lot.status === 'quarantined' && lot.awaitsInspection)
+    return `${code} is awaiting incoming inspection; take a lot that stores have accepted`
   if (lot.status === 'quarantined') return `${code} is quarantined; take a lot that is available`
   if (lot.status === 'rejected') return `${code} was rejected; return it to stores`
   if (lot.status === 'used_up') return `${code} is used up; take a new lot from stores`

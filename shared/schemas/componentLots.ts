@@ -2,11 +2,13 @@ import { z } from 'zod'
 import { COMPONENT_LOT_STATUSES } from '../recipeDefinitions'
 import type { ComponentLotStatus, UnitOfMeasure } from '../recipeDefinitions'
 import { isoDate, PageQuery, text } from './common'
+import { supplierName } from './suppliers'
 
 export const ComponentLotCreateInput = z
   .object({
     partId: text().uuid('choose a part'),
-    supplierName: text().trim().min(1, 'enter the supplier').max(120),
+    /** Picked from the suggestions or typed: a name not yet on record adds the supplier. */
+    supplierName: supplierName(),
     supplierLotCode: text().trim().min(1, 'enter the supplier’s lot code').max(80),
     quantityReceived: z.number().positive('quantity must be more than 0').max(1e9),
     receivedOn: isoDate,
@@ -21,7 +23,7 @@ export type ComponentLotCreateInput = z.infer<typeof ComponentLotCreateInput>
 
 export const ComponentLotUpdateInput = z
   .object({
-    supplierName: text().trim().min(1, 'enter the supplier').max(120),
+    supplierName: supplierName(),
     supplierLotCode: text().trim().min(1, 'enter the supplier’s lot code').max(80),
     expiresOn: isoDate.nullable(),
     notes: text().trim().max(2000),
@@ -35,6 +37,28 @@ export const ComponentLotStatusInput = z.object({
   reason: text().trim().min(3, 'say why (at least 3 characters)').max(500),
 })
 export type ComponentLotStatusInput = z.infer<typeof ComponentLotStatusInput>
+
+/**
+ * Stores' decision on a lot awaiting incoming inspection. Accepting needs the supplier's
+ * certificate attached first; either way the note says what was checked.
+ */
+export const ComponentLotInspectionInput = z.object({
+  decision: z.enum(['accept', 'reject'], { error: 'choose accept or reject' }),
+  note: text()
+    .trim()
+    .min(3, 'say what was checked (at least 3 characters)')
+    .max(2000, 'at most 2000 characters'),
+})
+export type ComponentLotInspectionInput = z.infer<typeof ComponentLotInspectionInput>
+
+/** The expiry date a shelf life suggests: the day received plus that many days. */
+export function suggestedExpiry(receivedOn: string, shelfLifeDays: number | null): string | null {
+  if (shelfLifeDays === null || !/^\d{4}-\d{2}-\d{2}$/.test(receivedOn)) return null
+  const day = new Date(`${receivedOn}T00:00:00Z`)
+  if (Number.isNaN(day.getTime())) return null
+  day.setUTCDate(day.getUTCDate() + shelfLifeDays)
+  return day.toISOString().slice(0, 10)
+}
 
 export const COMPONENT_LOT_SORTS = [
   'receivedOn',
@@ -98,6 +122,8 @@ export interface ComponentLotDto {
   partNumber: string
   partDescription: string
   unitOfMeasure: UnitOfMeasure
+  supplierId: string
+  /** The supplier record's name. */
   supplierName: string
   supplierLotCode: string
   quantityReceived: number
@@ -108,6 +134,11 @@ export interface ComponentLotDto {
   status: ComponentLotStatus
   notes: string
   certificate: UploadDto | null
+  /** Quarantined on receipt until stores accept or reject it at incoming inspection. */
+  awaitsInspection: boolean
+  /** When stores decided at incoming inspection (ISO timestamp), or null. */
+  inspectedAt: string | null
+  inspectionNote: string
 }
 
 export interface PageDto<T> {

@@ -113,6 +113,17 @@ export const PartInput = z.object({
   description: requiredText(200, 'a description'),
   unitOfMeasure: z.enum(UNITS_OF_MEASURE, { error: 'choose a unit of measure' }).default('pcs'),
   hasExpiry: z.boolean().default(false),
+  /** New lots wait quarantined until stores accept them at incoming inspection. */
+  // Optional rather than defaulted, so callers written before these flags still type-check.
+  needsInspection: z.boolean().optional(),
+  /** Days a lot keeps from receipt, to suggest its expiry date; only for a part that ages. */
+  shelfLifeDays: z
+    .number()
+    .int('a whole number of days')
+    .min(1, 'at least 1 day')
+    .max(36500, 'at most 36500 days')
+    .nullable()
+    .optional(),
 })
 export type PartInput = z.infer<typeof PartInput>
 export const PartUpdateInput = patchSchema(PartInput)
@@ -226,6 +237,8 @@ export interface PartDto {
   description: string
   unitOfMeasure: UnitOfMeasure
   hasExpiry: boolean
+  needsInspection: boolean
+  shelfLifeDays: number | null
 }
 
 export interface DefectCodeDto {

@@ -1,6 +1,7 @@
 import type {
   ComponentLotCreateInput,
   ComponentLotDto,
+  ComponentLotInspectionInput,
   ComponentLotQuery,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
@@ -30,6 +31,12 @@ export const componentLotsApi = {
   /** Moves the lot along LOT_STATUS_MOVES; the reason goes into the audit log. */
   setStatus: (id: string, input: ComponentLotStatusInput) =>
     request<ComponentLotDto>(lotPath(id, '/status'), json('POST', input)),
+  /**
+   * Stores' decision on a lot awaiting incoming inspection; accepting needs its certificate
+   * (400 with `fields.certificate` otherwise).
+   */
+  inspect: (id: string, input: ComponentLotInspectionInput) =>
+    request<ComponentLotDto>(lotPath(id, '/inspection'), json('POST', input)),
   /**
    * Stores the supplier's certificate (PDF, PNG or JPEG, at most 10 MB), replacing any earlier one.
    * @throws ApiError; 413 and 415 carry a message a person can act on

@@ -5,10 +5,13 @@ import type {
   COMPONENT_LOT_SORTS,
   ComponentLotCreateInput,
   ComponentLotDto,
+  ComponentLotInspectionInput,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
 } from '@shared/schemas/componentLots'
+import type { SupplierDto } from '@shared/schemas/suppliers'
 import { componentLotsApi } from '@/api/componentLots'
+import { suppliersApi } from '@/api/suppliers'
 import { usePagedList } from './lists/usePagedList'
 
 export type ComponentLotSort = (typeof COMPONENT_LOT_SORTS)[number]
@@ -57,6 +60,12 @@ export const useComponentLotsStore = defineStore('componentLots', () => {
     put(await componentLotsApi.setStatus(id, input))
   const uploadCertificate = async (id: string, file: File) =>
     put(await componentLotsApi.uploadCertificate(id, file))
+  /** Accepts or rejects a lot awaiting incoming inspection. */
+  const inspect = async (id: string, input: ComponentLotInspectionInput) =>
+    put(await componentLotsApi.inspect(id, input))
+  /** Suppliers on record whose name holds the typed text, for the receiving form. */
+  const lookupSuppliers = (text: string): Promise<SupplierDto[]> =>
+    suppliersApi.list({ q: text.trim(), limit: 12 })
 
   return {
     rows,
@@ -74,6 +83,8 @@ export const useComponentLotsStore = defineStore('componentLots', () => {
     update,
     setStatus,
     uploadCertificate,
+    inspect,
+    lookupSuppliers,
     certificateUrl: componentLotsApi.certificateUrl,
     labelUrl: componentLotsApi.labelUrl,
   }

@@ -76,6 +76,13 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   },
   { method: 'patch', path: '/api/component-lots/:id', who: ['stores'] },
   { method: 'post', path: '/api/component-lots/:id/status', who: ['stores', 'lead'] },
+  { method: 'post', path: '/api/component-lots/:id/inspection', who: ['stores'] },
+  {
+    method: 'get',
+    path: '/api/suppliers',
+    who: ['stores', 'lead', 'admin', 'engineer', 'service'],
+  },
+  { method: 'post', path: '/api/suppliers', who: ['stores'] },
   { method: 'put', path: '/api/component-lots/:id/certificate', who: ['stores'] },
   {
     method: 'get',

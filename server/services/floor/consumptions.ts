@@ -16,6 +16,7 @@ export function toLotToFit(lot: ComponentLot): LotToFit {
     status: lot.status,
     expiresOn: lot.expiresOn,
     quantityRemaining: lot.quantityRemaining,
+    awaitsInspection: lot.awaitsInspection,
   }
 }
 

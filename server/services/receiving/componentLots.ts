@@ -2,20 +2,22 @@ import { Op } from 'sequelize'
 import type { Transaction, WhereOptions } from 'sequelize'
 import { mod3736CheckCharacter } from '../../../shared/checkCharacter'
 import type { ComponentLotStatus } from '../../../shared/recipeDefinitions'
-import { LOT_STATUS_MOVES } from '../../../shared/schemas/componentLots'
+import { LOT_STATUS_MOVES, suggestedExpiry } from '../../../shared/schemas/componentLots'
 import type {
   ComponentLotCreateInput,
   ComponentLotDto,
+  ComponentLotInspectionInput,
   ComponentLotQuery,
   ComponentLotStatusInput,
   ComponentLotUpdateInput,
   PageDto,
 } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
-import { ComponentLot, Part, Upload } from '../../models'
+import { ComponentLot, Part, Supplier, Upload } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { CERTIFICATE_MAX_BYTES, CERTIFICATE_TYPES, storeUpload, toUploadDto } from './uploads'
+import { findOrAddSupplier } from './suppliers'
 import { select, withTransaction } from '../../db/sql'
 
 /** Today's date as YYYY-MM-DD (UTC), the day against which expiry dates are judged. */
@@ -31,7 +33,8 @@ export function toComponentLotDto(lot: ComponentLot, today = todayIso()): Compon
     partNumber: lot.part?.partNumber ?? '',
     partDescription: lot.part?.description ?? '',
     unitOfMeasure: lot.part?.unitOfMeasure ?? 'pcs',
-    supplierName: lot.supplierName,
+    supplierId: lot.supplierId,
+    supplierName: lot.supplier?.name ?? '',
     supplierLotCode: lot.supplierLotCode,
     quantityReceived: lot.quantityReceived,
     quantityRemaining: lot.quantityRemaining,
@@ -41,12 +44,16 @@ export function toComponentLotDto(lot: ComponentLot, today = todayIso()): Compon
     status: lot.status,
     notes: lot.notes,
     certificate: lot.certificate ? toUploadDto(lot.certificate) : null,
+    awaitsInspection: lot.awaitsInspection,
+    inspectedAt: lot.inspectedAt ? new Date(lot.inspectedAt).toISOString() : null,
+    inspectionNote: lot.inspectionNote,
   }
 }
 
 const INCLUDE = [
   { model: Part, as: 'part' },
   { model: Upload, as: 'certificate' },
+  { model: Supplier, as: 'supplier' },
 ]
 
 async function loadLot(id: string, transaction?: Transaction, lock = false): Promise<ComponentLot> {
@@ -83,7 +90,7 @@ export async function listComponentLots(q: ComponentLotQuery): Promise<PageDto<C
       [Op.or]: [
         { internalCode: { [Op.iLike]: like } },
         { supplierLotCode: { [Op.iLike]: like } },
-        { supplierName: { [Op.iLike]: like } },
+        { '$supplier.name$': { [Op.iLike]: like } },
         { '$part.part_number$': { [Op.iLike]: like } },
       ],
     })
@@ -109,7 +116,12 @@ export async function getComponentLot(id: string): Promise<ComponentLotDto> {
   return toComponentLotDto(await loadLot(id))
 }
 
-/** Receives a lot: allocates its internal code and puts the whole quantity in stock. */
+/**
+ * Receives a lot: allocates its internal code and puts the whole quantity in stock. The
+ * supplier is found by name whatever its case or spacing, or added (audited). A part that
+ * ages needs the expiry date; a lot of a part that needs incoming inspection starts
+ * quarantined, awaiting stores' acceptance.
+ */
 export async function receiveComponentLot(
   input: ComponentLotCreateInput,
   actor: Actor,
@@ -121,13 +133,26 @@ export async function receiveComponentLot(
       throw AppError.badRequest('expiresOn: this part has no expiry date', {
         expiresOn: 'this part has no expiry date',
       })
+    if (!input.expiresOn && part.hasExpiry) {
+      const suggestion = suggestedExpiry(input.receivedOn, part.shelfLifeDays)
+      const hint = suggestion ? ` (its shelf life suggests ${suggestion})` : ''
+      throw AppError.badRequest(
+        `expiresOn: ${part.partNumber} ages: enter the expiry date from the label${hint}`,
+        { expiresOn: `enter the expiry date from the label${hint}` },
+      )
+    }
+    const { supplier } = await findOrAddSupplier(input.supplierName, actor, transaction)
     const internalCode = await nextInternalCode(input.receivedOn, transaction)
+    const { supplierName: _typed, ...fields } = input
     const lot = await ComponentLot.create(
       {
-        ...input,
+        ...fields,
+        supplierId: supplier.id,
         internalCode,
         quantityRemaining: input.quantityReceived,
         certificateUploadId: null,
+        status: part.needsInspection ? 'quarantined' : 'available',
+        awaitsInspection: part.needsInspection,
       },
       { transaction },
     )
@@ -161,7 +186,13 @@ export async function updateComponentLot(
       throw AppError.badRequest('expiresOn: the expiry date is before the date received', {
         expiresOn: 'before the date received',
       })
-    lot.set(input)
+    const { supplierName: typed, ...fields } = input
+    lot.set(fields)
+    if (typed !== undefined) {
+      const { supplier } = await findOrAddSupplier(typed, actor, transaction)
+      lot.supplierId = supplier.id
+      lot.supplier = supplier
+    }
     if (lot.quantityRemaining === 0 && lot.status === 'available') lot.status = 'used_up'
     if (lot.quantityRemaining > 0 && lot.status === 'used_up') lot.status = 'available'
     await lot.save({ transaction })
@@ -227,6 +258,12 @@ export async function moveComponentLotStatus(
 ): Promise<ComponentLotDto> {
   const lot = await loadLot(id, transaction, true)
   const from: ComponentLotStatus = lot.status
+  if (lot.awaitsInspection && input.status !== 'rejected')
+    throw AppError.conflict(
+      'awaiting_inspection',
+      `lot ${lot.internalCode} is awaiting incoming inspection: accept it (with its certificate) or reject it there`,
+      { status: 'awaiting incoming inspection' },
+    )
   if (!LOT_STATUS_MOVES[from].includes(input.status))
     throw AppError.conflict(
       'status_move_refused',
@@ -235,7 +272,8 @@ export async function moveComponentLotStatus(
         status: `not allowed from ${from}`,
       },
     )
-  await lot.update({ status: input.status }, { transaction })
+  // Rejecting a lot that awaits inspection is the inspection's end too.
+  await lot.update({ status: input.status, awaitsInspection: false }, { transaction })
   await recordAudit(
     actor,
     {
@@ -286,4 +324,58 @@ export async function certificateOf(
   const lot = await loadLot(id)
   if (!lot.certificate) throw AppError.notFound(`certificate of component lot ${lot.internalCode}`)
   return lot.certificate
+}
+
+/**
+ * Stores' decision at incoming inspection on a lot that awaits it. Accepting needs the
+ * supplier's certificate attached and makes the lot available; rejecting makes it rejected
+ * (final). Who decided, when, and the note stay on the lot and in the audit log.
+ */
+export async function inspectComponentLot(
+  id: string,
+  input: ComponentLotInspectionInput,
+  actor: Actor,
+): Promise<ComponentLotDto> {
+  return withTransaction(async (transaction) => {
+    const lot = await loadLot(id, transaction, true)
+    if (!lot.awaitsInspection)
+      throw AppError.conflict(
+        'not_awaiting_inspection',
+        `lot ${lot.internalCode} is not awaiting incoming inspection`,
+      )
+    if (input.decision === 'accept' && !lot.certificate)
+      throw AppError.badRequest(
+        "certificate: attach the supplier's certificate before accepting the lot",
+        { certificate: "attach the supplier's certificate first" },
+      )
+    const before = toComponentLotDto(lot)
+    await lot.update(
+      {
+        status: input.decision === 'accept' ? 'available' : 'rejected',
+        awaitsInspection: false,
+        inspectedAt: new Date(),
+        inspectedBy: actor.id,
+        inspectionNote: input.note,
+      },
+      { transaction },
+    )
+    const after = toComponentLotDto(lot)
+    await recordAudit(
+      actor,
+      {
+        action: 'component_lot.inspection',
+        entity: 'component_lot',
+        entityId: id,
+        before: { status: before.status, awaitsInspection: true },
+        after: {
+          decision: input.decision,
+          status: after.status,
+          note: input.note,
+          certificate: after.certificate?.sha256 ?? null,
+        },
+      },
+      transaction,
+    )
+    return after
+  })
 }

@@ -14,7 +14,17 @@ export function toPartDto(p: Part): PartDto {
     description: p.description,
     unitOfMeasure: p.unitOfMeasure,
     hasExpiry: p.hasExpiry,
+    needsInspection: p.needsInspection,
+    shelfLifeDays: p.shelfLifeDays,
   }
+}
+
+/** A shelf life suggests an expiry date, so it belongs only to a part whose lots expire. */
+function checkShelfLife(part: { hasExpiry: boolean; shelfLifeDays: number | null }): void {
+  if (part.shelfLifeDays !== null && !part.hasExpiry)
+    throw AppError.badRequest('shelfLifeDays: only a part whose lots expire has a shelf life', {
+      shelfLifeDays: 'only for a part whose lots expire',
+    })
 }
 
 function duplicateNumber(err: unknown): never {
@@ -46,6 +56,7 @@ export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
 
 /** Adds a part. */
 export async function createPart(input: PartInput, actor: Actor): Promise<PartDto> {
+  checkShelfLife({ hasExpiry: input.hasExpiry, shelfLifeDays: input.shelfLifeDays ?? null })
   return withTransaction(async (transaction) => {
     const part = await Part.create(input, { transaction })
     const dto = toPartDto(part)
@@ -58,7 +69,10 @@ export async function createPart(input: PartInput, actor: Actor): Promise<PartDt
   }).catch(duplicateNumber)
 }
 
-/** Changes a part's number, description, unit or expiry flag. */
+/**
+ * Changes a part's number, description, unit, expiry flag, shelf life or incoming inspection.
+ * Turning inspection on or off changes what happens to lots received from then on only.
+ */
 export async function updatePart(
   id: string,
   input: Partial<PartInput>,
@@ -68,7 +82,11 @@ export async function updatePart(
     const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
     if (!part) throw AppError.notFound(`part ${id}`)
     const before = toPartDto(part)
-    await part.update(input, { transaction })
+    part.set(input)
+    // A part that stops expiring loses its shelf life unless the same request sets one.
+    if (input.hasExpiry === false && input.shelfLifeDays === undefined) part.shelfLifeDays = null
+    checkShelfLife(part)
+    await part.save({ transaction })
     const after = toPartDto(part)
     await recordAudit(
       actor,

@@ -48,13 +48,14 @@ const COMPONENT_LOT = `
   SELECT 'componentLot', cl.id::text, cl.internal_code::text, cl.internal_code::text,
          CASE WHEN upper(cl.internal_code) = :upper OR upper(cl.supplier_lot_code) = :upper
               THEN 0 ELSE 1 END,
-         jsonb_build_object('part', pt.part_number, 'supplier', cl.supplier_name,
+         jsonb_build_object('part', pt.part_number, 'supplier', su.name,
                             'supplierLot', cl.supplier_lot_code, 'status', cl.status)
     FROM (SELECT * FROM component_lots
            WHERE internal_code ILIKE :pattern OR supplier_lot_code ILIKE :pattern
            ORDER BY upper(internal_code) = :upper OR upper(supplier_lot_code) = :upper DESC,
                     received_on DESC, internal_code DESC LIMIT ${LIMIT}) cl
-    JOIN parts pt ON pt.id = cl.part_id`
+    JOIN parts pt ON pt.id = cl.part_id
+    JOIN suppliers su ON su.id = cl.supplier_id`
 
 const CUSTOMER = `
   SELECT 'customer', c.id::text, c.name::text, c.id::text,

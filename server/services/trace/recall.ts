@@ -11,7 +11,7 @@ import type {
   RecallUnitDto,
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
-import { ComponentLot, Email, Part, Unit } from '../../models'
+import { ComponentLot, Email, Part, Supplier, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { moveComponentLotStatus } from '../receiving'
@@ -50,7 +50,10 @@ export async function findComponentLot(scanned: string, transaction?: Transactio
   const code = codeFromScan(scanned)
   const lot = await ComponentLot.findOne({
     where: { internalCode: code },
-    include: [{ model: Part, as: 'part' }],
+    include: [
+      { model: Part, as: 'part' },
+      { model: Supplier, as: 'supplier' },
+    ],
     transaction,
   })
   if (!lot) throw AppError.notFound(`component lot ${code}`)
@@ -104,7 +107,7 @@ export async function recallScope(scanned: string, transaction?: Transaction) {
       internalCode: lot.internalCode,
       partNumber: lot.part?.partNumber ?? '',
       partDescription: lot.part?.description ?? '',
-      supplierName: lot.supplierName,
+      supplierName: lot.supplier?.name ?? '',
       supplierLotCode: lot.supplierLotCode,
       status: lot.status,
       receivedOn: lot.receivedOn,

@@ -80,7 +80,7 @@ SELECT
   (SELECT coalesce(json_agg(json_build_object(
       'id', co.id, 'stepRunId', co.step_run_id, 'componentLotId', cl.id,
       'internalCode', cl.internal_code, 'partNumber', pa.part_number,
-      'partDescription', pa.description, 'supplierName', cl.supplier_name,
+      'partDescription', pa.description, 'supplierName', su.name,
       'supplierLotCode', cl.supplier_lot_code, 'componentLotStatus', cl.status,
       'quantity', co.quantity, 'unitOfMeasure', pa.unit_of_measure, 'itemSerial', co.item_serial,
       'refDesignators', bl.ref_designators, 'certificateFilename', up.filename,
@@ -88,6 +88,7 @@ SELECT
    FROM consumptions co
    JOIN component_lots cl ON cl.id = co.component_lot_id
    JOIN parts pa ON pa.id = cl.part_id
+   JOIN suppliers su ON su.id = cl.supplier_id
    JOIN bom_lines bl ON bl.id = co.bom_line_id
    LEFT JOIN uploads up ON up.id = cl.certificate_upload_id
    WHERE co.unit_id = u.id) AS consumptions,

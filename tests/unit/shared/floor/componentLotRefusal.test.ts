@@ -26,6 +26,12 @@ describe('componentLotRefusal', () => {
     expect(why({ partId: 'part-pcb', partNumber: 'PCB-FP24-B' })).toBe(
       'CL-26-000048 is PCB-FP24-B; this line needs FCS-3000U',
     )
+    expect(why({ status: 'quarantined', awaitsInspection: true })).toBe(
+      'CL-26-000048 is awaiting incoming inspection; take a lot that stores have accepted',
+    )
+    expect(why({ status: 'quarantined', awaitsInspection: false })).toBe(
+      'CL-26-000048 is quarantined; take a lot that is available',
+    )
     expect(why({ status: 'rejected' })).toBe('CL-26-000048 was rejected; return it to stores')
     expect(why({ status: 'used_up' })).toBe('CL-26-000048 is used up; take a new lot from stores')
     expect(why({ expiresOn: '2026-12-01' })).toBe(
