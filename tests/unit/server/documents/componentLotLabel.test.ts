@@ -14,9 +14,10 @@ const LOT: ComponentLotDto = {
   id: '00000000-0000-4000-8000-000000000001',
   internalCode: 'CL-26-00042K',
   partId: '00000000-0000-4000-8000-000000000002',
-  partNumber: 'FER-ETD29-N87',
-  partDescription: 'Ferrite core set ETD29, N87',
+  partNumber: 'FCS-3000U',
+  partDescription: 'Ferrite core set, AL 3000 nH',
   unitOfMeasure: 'pcs',
+  supplierId: '00000000-0000-4000-8000-000000000003',
   supplierName: 'Example Ferrites',
   supplierLotCode: 'EF-2611-07',
   quantityReceived: 200,
@@ -26,6 +27,9 @@ const LOT: ComponentLotDto = {
   isExpired: false,
   status: 'available',
   notes: '',
+  awaitsInspection: false,
+  inspectedAt: null,
+  inspectionNote: '',
   certificate: null,
 }
 
