@@ -41,15 +41,22 @@ const norm = (text: string) => text.trim().toLowerCase()
 function pairSteps(base: readonly StepDto[], draft: readonly StepDto[]) {
   const pairs = new Map<StepDto, StepDto>()
   const free = new Set(base)
-  for (const d of draft) {
-    const b = [...free].find((s) => norm(s.name) === norm(d.name))
-    if (b) (pairs.set(d, b), free.delete(b))
+  const pair = (d: StepDto, b: StepDto | undefined) => {
+    if (!b) return
+    pairs.set(d, b)
+    free.delete(b)
   }
-  for (const d of draft) {
-    if (pairs.has(d)) continue
-    const b = [...free].find((s) => s.position === d.position)
-    if (b) (pairs.set(d, b), free.delete(b))
-  }
+  for (const d of draft)
+    pair(
+      d,
+      [...free].find((s) => norm(s.name) === norm(d.name)),
+    )
+  for (const d of draft)
+    if (!pairs.has(d))
+      pair(
+        d,
+        [...free].find((s) => s.position === d.position),
+      )
   return { pairs, removed: [...free] }
 }
 
