@@ -131,6 +131,7 @@ describe('Recipe editing without friction', () => {
     await noiseRow.waitFor()
     expect(await noiseRow.textContent()).toContain('noise')
     expect(await noiseRow.isVisible()).toBe(true)
+    await picture('recipes-blocker-pointed')
     await page.getByRole('button', { name: 'Delete check noise' }).click()
     await page
       .getByRole('dialog', { name: 'Delete check' })
