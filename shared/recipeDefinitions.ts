@@ -5,6 +5,10 @@ import type { Quantity } from './units'
 export const REVISION_STATUSES = ['draft', 'released', 'obsolete'] as const
 export type RevisionStatus = (typeof REVISION_STATUSES)[number]
 
+/** Insulation class across the hipot barrier: reinforced doubles the suggested test voltage. */
+export const INSULATION_CLASSES = ['basic', 'reinforced'] as const
+export type InsulationClass = (typeof INSULATION_CLASSES)[number]
+
 export const CHECK_KINDS = ['numeric', 'boolean', 'text', 'choice'] as const
 export type CheckKind = (typeof CHECK_KINDS)[number]
 

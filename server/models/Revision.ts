@@ -2,7 +2,7 @@ import { DataTypes } from 'sequelize'
 import type { CreationOptional, NonAttribute, Sequelize } from 'sequelize'
 import { initRecord, RecordModel } from './columns'
 import { REVISION_STATUSES } from '../../shared/recipeDefinitions'
-import type { RevisionStatus } from '../../shared/recipeDefinitions'
+import type { InsulationClass, RevisionStatus } from '../../shared/recipeDefinitions'
 import type { BomLine } from './BomLine'
 import type { Product } from './Product'
 import type { RouteStep } from './RouteStep'
@@ -15,6 +15,8 @@ export class Revision extends RecordModel<Revision> {
   declare status: CreationOptional<RevisionStatus>
   declare notes: CreationOptional<string>
   declare fpyThresholdPercent: CreationOptional<number>
+  declare workingVolts: CreationOptional<number | null>
+  declare insulation: CreationOptional<InsulationClass>
   declare copiedFromId: string | null
   declare releasedAt: Date | null
   declare releasedBy: string | null
@@ -24,6 +26,7 @@ export class Revision extends RecordModel<Revision> {
   declare steps?: NonAttribute<RouteStep[]>
   declare bomLines?: NonAttribute<BomLine[]>
   declare releaser?: NonAttribute<User | null>
+  declare copiedFrom?: NonAttribute<Revision | null>
 }
 
 export function initRevision(sequelize: Sequelize): void {
@@ -37,6 +40,8 @@ export function initRevision(sequelize: Sequelize): void {
     },
     notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
     fpyThresholdPercent: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90 },
+    workingVolts: { type: DataTypes.DOUBLE, allowNull: true },
+    insulation: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'basic' },
     copiedFromId: { type: DataTypes.UUID, allowNull: true },
     releasedAt: { type: DataTypes.DATE, allowNull: true },
     releasedBy: { type: DataTypes.UUID, allowNull: true },

@@ -59,6 +59,7 @@ function associate(): void {
   Product.hasMany(Revision, { as: 'revisions', foreignKey: 'productId' })
   Revision.belongsTo(Product, { as: 'product', foreignKey: 'productId' })
   Revision.belongsTo(User, { as: 'releaser', foreignKey: 'releasedBy' })
+  Revision.belongsTo(Revision, { as: 'copiedFrom', foreignKey: 'copiedFromId' })
   Revision.hasMany(Winding, { as: 'windings', foreignKey: 'revisionId' })
   Revision.hasMany(RouteStep, { as: 'steps', foreignKey: 'revisionId' })
   Revision.hasMany(BomLine, { as: 'bomLines', foreignKey: 'revisionId' })

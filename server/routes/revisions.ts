@@ -1,6 +1,7 @@
 import { IdParam } from '../../shared/schemas/common'
 import {
   BomLineInput,
+  ReleaseInput,
   RevisionUpdateInput,
   StepInput,
   StepOrderInput,
@@ -52,7 +53,7 @@ revisionRoutes.get('/:id/release-check', PERMISSIONS.readReleaseCheck, async (re
 })
 
 revisionRoutes.post('/:id/release', edit, async (req, res) => {
-  res.json(await releaseRevision(id(req.params), actorOf(req)))
+  res.json(await releaseRevision(id(req.params), actorOf(req), parse(ReleaseInput, req.body ?? {})))
 })
 
 revisionRoutes.post('/:id/obsolete', edit, async (req, res) => {

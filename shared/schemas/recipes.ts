@@ -3,6 +3,7 @@ import { patchSchema, text } from './common'
 import {
   CHECK_KINDS,
   DERIVED_FORMULA_KEYS,
+  INSULATION_CLASSES,
   REVISION_STATUSES,
   TRACE_LEVELS,
   UNITS_OF_MEASURE,
@@ -10,6 +11,7 @@ import {
 import type {
   CheckKind,
   DerivedFormula,
+  InsulationClass,
   RevisionStatus,
   TraceLevel,
   UnitOfMeasure,
@@ -40,9 +42,25 @@ export const RevisionUpdateInput = patchSchema(
   z.object({
     notes: optionalText(4000),
     fpyThresholdPercent: z.number().min(0, 'use 0 to 100 %').max(100, 'use 0 to 100 %'),
+    /** The highest RMS voltage across the insulation the hipot step tests, in volts. */
+    workingVolts: z
+      .number({ error: 'enter a voltage in volts' })
+      .positive('the working voltage must be more than 0 V')
+      .max(100000, 'at most 100 000 V')
+      .nullable(),
+    insulation: z.enum(INSULATION_CLASSES, { error: 'choose basic or reinforced' }),
   }),
 )
 export type RevisionUpdateInput = z.infer<typeof RevisionUpdateInput>
+
+/** What becomes of the product's released revisions when a draft is released. */
+export const RELEASE_PREVIOUS = ['obsolete', 'keep'] as const
+export const ReleaseInput = z.object({
+  previous: z
+    .enum(RELEASE_PREVIOUS, { error: 'choose obsolete or keep for the released revision' })
+    .default('obsolete'),
+})
+export type ReleaseInput = z.infer<typeof ReleaseInput>
 
 export const WindingInput = z.object({
   name: requiredText(40, 'a winding name'),
@@ -214,6 +232,11 @@ export interface RevisionDto extends RevisionSummaryDto {
   productName: string
   notes: string
   fpyThresholdPercent: number
+  /** Working voltage across the hipot-tested insulation, in volts; null when not given. */
+  workingVolts: number | null
+  insulation: InsulationClass
+  /** The revision this one was copied from, for the change summary. */
+  copiedFrom: { id: string; letter: string } | null
   releasedAt: string | null
   /** Name of the person who released it. */
   releasedBy: string | null

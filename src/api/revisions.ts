@@ -4,6 +4,7 @@ import type {
   CheckDto,
   CheckInput,
   CheckUpdateInput,
+  ReleaseInput,
   RevisionDto,
   RevisionUpdateInput,
   StepDto,
@@ -12,6 +13,7 @@ import type {
   WindingDto,
   WindingInput,
 } from '@shared/schemas/recipes'
+import type { ReleaseCheckDto } from '@shared/recipes/releaseCheck'
 import { json, request } from './client'
 
 const at = (base: string, id: string, rest = '') => `/${base}/${encodeURIComponent(id)}${rest}`
@@ -26,11 +28,14 @@ export const revisionsApi = {
     request<RevisionDto>(at('revisions', id), json('PATCH', input)),
   /** Deletes a draft; 204. */
   remove: (id: string) => request<void>(at('revisions', id), json('DELETE')),
-  /** What still stops the release, as the server sees it. */
-  releaseCheck: (id: string) =>
-    request<{ problems: string[] }>(at('revisions', id, '/release-check')),
-  /** Freezes a complete draft; 409 `revision_incomplete` otherwise. */
-  release: (id: string) => request<RevisionDto>(at('revisions', id, '/release'), json('POST')),
+  /** What still stops the release, what the draft changes, and the released revisions it replaces. */
+  releaseCheck: (id: string) => request<ReleaseCheckDto>(at('revisions', id, '/release-check')),
+  /**
+   * Freezes a complete draft; 409 `revision_incomplete` otherwise. `previous` says what becomes
+   * of the product's other released revisions: obsolete for new lots, or kept released.
+   */
+  release: (id: string, input: ReleaseInput) =>
+    request<RevisionDto>(at('revisions', id, '/release'), json('POST', input)),
   /** Retires a released revision: no new lots are built to it. */
   obsolete: (id: string) => request<RevisionDto>(at('revisions', id, '/obsolete'), json('POST')),
   /** A new draft with the next letter, copying windings, route, checks and bill of materials. */

@@ -1,6 +1,9 @@
 import { ref, watch } from 'vue'
 import { ElMessage } from 'element-plus'
 import { useRouter } from 'vue-router'
+import type { ReleaseBlocker } from '@shared/recipes/completeness'
+import type { ReleaseCheckDto } from '@shared/recipes/releaseCheck'
+import type { ReleaseInput } from '@shared/schemas/recipes'
 import { ApiError, messageOf } from '@/api/client'
 import { useRevisionStore } from '@/stores/revision'
 import { confirmAction } from './confirmAction'
@@ -12,7 +15,9 @@ export function useRevisionLifecycle() {
   /** True while one of these actions runs. */
   const isBusy = ref(false)
   /** The server's list of what stops the release, from the last attempt; null once anything changed. */
-  const serverProblems = ref<string[] | null>(null)
+  const serverProblems = ref<ReleaseBlocker[] | null>(null)
+  /** The server's answer for a complete draft, while the release confirmation is open. */
+  const pendingRelease = ref<ReleaseCheckDto | null>(null)
 
   watch(
     () => store.revision,
@@ -31,25 +36,43 @@ export function useRevisionLifecycle() {
     }
   }
 
-  /** Asks the server what is missing first; only a complete draft gets the confirmation. */
+  /**
+   * Asks the server what is missing first; a complete draft gets the confirmation, which shows
+   * what it changes and what becomes of the product's released revision.
+   */
   const release = () =>
     busy(async () => {
-      const { letter, productCode } = store.revision!
-      const problems = await store.fetchReleaseProblems()
-      if (problems.length) {
-        serverProblems.value = problems
+      const check = await store.fetchReleaseCheck()
+      if (check.blockers.length) {
+        serverProblems.value = check.blockers
+        const { letter } = store.revision!
         ElMessage.warning(`Revision ${letter} is not ready yet: see the list above the tabs.`)
         return
       }
-      const message = `Release revision ${letter} of ${productCode}? Lots can then be built to it, and it is frozen: any later change needs a new revision.`
-      if (!(await confirmAction(message, 'Release revision', `Release ${letter}`, false))) return
+      pendingRelease.value = check
+    })
+
+  /** Releases the draft once confirmed, saying what became of the one before. */
+  const confirmRelease = (input: ReleaseInput) =>
+    busy(async () => {
+      const { letter } = store.revision!
+      const replaced = pendingRelease.value?.released.map((r) => r.letter) ?? []
       try {
-        await store.release()
-        ElMessage.success(`Revision ${letter} released`)
+        await store.release(input)
+        pendingRelease.value = null
+        const after =
+          replaced.length === 0
+            ? ''
+            : input.previous === 'obsolete'
+              ? `; ${replaced.join(', ')} obsolete for new lots`
+              : `; ${replaced.join(', ')} still released`
+        ElMessage.success(`Revision ${letter} released${after}`)
       } catch (error) {
         // Someone changed the draft between the check and the release.
-        if (error instanceof ApiError && error.code === 'revision_incomplete')
-          serverProblems.value = await store.fetchReleaseProblems()
+        if (error instanceof ApiError && error.code === 'revision_incomplete') {
+          pendingRelease.value = null
+          serverProblems.value = (await store.fetchReleaseCheck()).blockers
+        }
         throw error
       }
     })
@@ -87,5 +110,5 @@ export function useRevisionLifecycle() {
       await router.push('/recipes')
     })
 
-  return { isBusy, serverProblems, release, obsolete, copy, remove }
+  return { isBusy, serverProblems, pendingRelease, release, confirmRelease, obsolete, copy, remove }
 }

@@ -1,10 +1,12 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import { releaseProblems } from '@shared/recipes/completeness'
+import { releaseBlockers } from '@shared/recipes/completeness'
+import { summarizeRecipeChanges } from '@shared/recipes/revisionChanges'
 import type {
   BomLineInput,
   CheckDto,
   CheckInput,
+  ReleaseInput,
   RevisionDto,
   RevisionUpdateInput,
   StepDto,
@@ -23,7 +25,13 @@ export const useRevisionStore = defineStore('revision', () => {
   /** Released and obsolete revisions are frozen; the server refuses changes with 409. */
   const isFrozen = computed(() => revision.value !== null && revision.value.status !== 'draft')
   /** What would stop the release, computed here with the server's own rules as the engineer edits. */
-  const liveProblems = computed(() => (revision.value ? releaseProblems(revision.value) : []))
+  const liveProblems = computed(() => (revision.value ? releaseBlockers(revision.value) : []))
+  /** The revision the open one was copied from, to compare with; null when there is none. */
+  const base = ref<RevisionDto | null>(null)
+  /** What the open revision changes against `base`, recomputed as the engineer edits. */
+  const changes = computed(() =>
+    revision.value && base.value ? summarizeRecipeChanges(base.value, revision.value) : null,
+  )
 
   const catalogue = useRecipesStore()
   const id = () => revision.value!.id
@@ -39,7 +47,11 @@ export const useRevisionStore = defineStore('revision', () => {
     if (revision.value?.id !== revisionId) revision.value = null
     isLoading.value = true
     try {
-      take(await revisionsApi.get(revisionId))
+      const next = take(await revisionsApi.get(revisionId))
+      const from = next.copiedFrom?.id ?? null
+      // The source may be a draft deleted since, or hidden from this role: then no comparison.
+      if (base.value?.id !== from)
+        base.value = from ? await revisionsApi.get(from).catch(() => null) : null
     } finally {
       isLoading.value = false
     }
@@ -49,8 +61,8 @@ export const useRevisionStore = defineStore('revision', () => {
   const reload = () => load(id())
 
   const update = async (input: RevisionUpdateInput) => take(await revisionsApi.update(id(), input))
-  const fetchReleaseProblems = async () => (await revisionsApi.releaseCheck(id())).problems
-  const release = async () => take(await revisionsApi.release(id()))
+  const fetchReleaseCheck = () => revisionsApi.releaseCheck(id())
+  const release = async (input: ReleaseInput) => take(await revisionsApi.release(id(), input))
   const obsolete = async () => take(await revisionsApi.obsolete(id()))
   /** A new draft copied from the open revision; the caller navigates to it. */
   const copy = async () => take(await revisionsApi.copy(id()))
@@ -150,10 +162,12 @@ export const useRevisionStore = defineStore('revision', () => {
     isLoading,
     isFrozen,
     liveProblems,
+    base,
+    changes,
     load,
     reload,
     update,
-    fetchReleaseProblems,
+    fetchReleaseCheck,
     release,
     obsolete,
     copy,

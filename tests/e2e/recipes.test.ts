@@ -129,8 +129,9 @@ describe('Recipes screen', () => {
 
     // Release, confirmed in the dialog that says what it means.
     await page.getByRole('button', { name: /^Release revision/ }).click()
-    const confirm = page.getByRole('dialog', { name: 'Release revision' })
-    await confirm.getByText(`Release revision A of ${code}?`).waitFor()
+    const confirm = page.getByRole('dialog', { name: `Release revision A of ${code}` })
+    await confirm.getByText('Lots can then be built to revision A').waitFor()
+    await confirm.getByText('A first revision, made from nothing').waitFor()
     await confirm.getByRole('button', { name: 'Release A' }).click()
     await page.locator('.el-message--success', { hasText: 'Revision A released' }).waitFor()
 

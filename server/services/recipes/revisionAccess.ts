@@ -8,6 +8,7 @@ import { BomLine, Check, Part, Product, Revision, RouteStep, User, Winding } fro
 export const FULL_REVISION = [
   { model: Product, as: 'product' },
   { model: User, as: 'releaser', attributes: ['name'] },
+  { model: Revision, as: 'copiedFrom', attributes: ['id', 'letter'] },
   { model: Winding, as: 'windings' },
   { model: RouteStep, as: 'steps', include: [{ model: Check, as: 'checks' }] },
   { model: BomLine, as: 'bomLines', include: [{ model: Part, as: 'part' }] },

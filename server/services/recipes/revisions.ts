@@ -1,6 +1,5 @@
 import type { Transaction } from 'sequelize'
 import { nextRevisionLetter } from '../../../shared/recipeDefinitions'
-import { releaseProblems } from '../../../shared/recipes/completeness'
 import type { RevisionDto, RevisionUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Product, Revision } from '../../models'
@@ -59,9 +58,15 @@ export async function updateRevision(
 ): Promise<RevisionDto> {
   return withTransaction(async (transaction) => {
     const rev = await lockDraftRevision(id, transaction)
-    const before = { notes: rev.notes, fpyThresholdPercent: rev.fpyThresholdPercent }
+    const fields = (r: Revision) => ({
+      notes: r.notes,
+      fpyThresholdPercent: r.fpyThresholdPercent,
+      workingVolts: r.workingVolts,
+      insulation: r.insulation,
+    })
+    const before = fields(rev)
     await rev.update(input, { transaction })
-    const after = { notes: rev.notes, fpyThresholdPercent: rev.fpyThresholdPercent }
+    const after = fields(rev)
     await recordAudit(
       actor,
       {
@@ -87,46 +92,6 @@ export async function deleteRevision(id: string, actor: Actor): Promise<void> {
       { action: 'revision.delete', entity: 'revision', entityId: id, before: dto },
       transaction,
     )
-  })
-}
-
-/** What stops a revision from being released; empty when it is complete. */
-export async function releaseCheck(id: string): Promise<{ problems: string[] }> {
-  return { problems: releaseProblems(toRevisionDto(await loadRevision(id))) }
-}
-
-/**
- * Releases a complete draft: from now on it is frozen. Any earlier released revision of the
- * product stays released (lots in progress were built to it) until an engineer obsoletes it.
- */
-export async function releaseRevision(id: string, actor: Actor): Promise<RevisionDto> {
-  return withTransaction(async (transaction) => {
-    const rev = await lockDraftRevision(id, transaction)
-    const problems = releaseProblems(toRevisionDto(await loadRevision(id, transaction)))
-    if (problems.length)
-      throw new AppError(
-        409,
-        'revision_incomplete',
-        `revision ${rev.letter} is not complete: ${problems[0]}`,
-        undefined,
-        problems,
-      )
-    await rev.update(
-      { status: 'released', releasedAt: new Date(), releasedBy: actor.id },
-      { transaction },
-    )
-    await recordAudit(
-      actor,
-      {
-        action: 'revision.release',
-        entity: 'revision',
-        entityId: id,
-        before: { status: 'draft' },
-        after: { status: 'released' },
-      },
-      transaction,
-    )
-    return toRevisionDto(await loadRevision(id, transaction))
   })
 }
 
@@ -167,6 +132,8 @@ export async function copyRevision(id: string, actor: Actor): Promise<RevisionDt
         letter,
         notes: source.notes,
         fpyThresholdPercent: source.fpyThresholdPercent,
+        workingVolts: source.workingVolts,
+        insulation: source.insulation,
         copiedFromId: source.id,
         releasedAt: null,
         releasedBy: null,

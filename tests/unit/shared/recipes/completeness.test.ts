@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { releaseProblems } from '../../../../shared/recipes/completeness'
+import { releaseBlockers, releaseProblems } from '../../../../shared/recipes/completeness'
 import { nextRevisionLetter } from '../../../../shared/recipeDefinitions'
 import { checkLimitProblems } from '../../../../shared/checkRules'
 import type { CheckDto, StepDto } from '../../../../shared/schemas/recipes'
@@ -75,6 +75,44 @@ describe('releaseProblems', () => {
     const problems = releaseProblems({ steps: [step([baseCheck, ripple])], bom: [], windings: [] })
     expect(problems).toEqual([
       'step 1 "Load test", check r: choose a typed check of this step for "Output voltage"',
+    ])
+  })
+})
+
+describe('releaseBlockers', () => {
+  // Which record a blocker names is our own rule: common practice, no source.
+  it('names the step and check, or the bill-of-materials line, that each problem is about', () => {
+    const open = { ...baseCheck, id: 'c9', key: 'leak', lower: null, upper: null }
+    const blockers = releaseBlockers({
+      steps: [step([open])],
+      bom: [
+        {
+          id: 'b1',
+          partId: 'p',
+          partNumber: 'CORE-1',
+          partDescription: 'core',
+          unitOfMeasure: 'pcs',
+          quantity: 1,
+          refDesignators: '',
+          fittedAtStepId: null,
+          traceLevel: 'lot',
+        },
+      ],
+      windings: [],
+    })
+    expect(blockers).toEqual([
+      {
+        message: 'step 1 "Load test", check leak: give at least one limit',
+        stepId: 's',
+        checkId: 'c9',
+        bomLineId: null,
+      },
+      {
+        message: 'bill of materials, CORE-1: choose the step where it is fitted',
+        stepId: null,
+        checkId: null,
+        bomLineId: 'b1',
+      },
     ])
   })
 })
