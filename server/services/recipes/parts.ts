@@ -1,9 +1,8 @@
-import { Op, UniqueConstraintError } from 'sequelize'
+import { Op } from 'sequelize'
 import type { PartDto, PartInput } from '../../../shared/schemas/recipes'
 import type { PageDto, PartQuery } from '../../../shared/schemas/componentLots'
-import { AppError } from '../../errors'
 import { Part } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { withTransaction } from '../../db/sql'
 
@@ -17,13 +16,9 @@ export function toPartDto(p: Part): PartDto {
   }
 }
 
-function duplicateNumber(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another part has this part number', {
-      partNumber: 'already in use',
-    })
-  throw err
-}
+const duplicateNumber = conflictOnDuplicate('another part has this part number', {
+  partNumber: 'already in use',
+})
 
 /** A page of parts, searched by part number or description, sorted on the server. */
 export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
@@ -48,13 +43,7 @@ export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
 export async function createPart(input: PartInput, actor: Actor): Promise<PartDto> {
   return withTransaction(async (transaction) => {
     const part = await Part.create(input, { transaction })
-    const dto = toPartDto(part)
-    await recordAudit(
-      actor,
-      { action: 'part.create', entity: 'part', entityId: part.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'part.create', part.id, toPartDto(part), transaction)
   }).catch(duplicateNumber)
 }
 
@@ -65,16 +54,7 @@ export async function updatePart(
   actor: Actor,
 ): Promise<PartDto> {
   return withTransaction(async (transaction) => {
-    const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!part) throw AppError.notFound(`part ${id}`)
-    const before = toPartDto(part)
-    await part.update(input, { transaction })
-    const after = toPartDto(part)
-    await recordAudit(
-      actor,
-      { action: 'part.update', entity: 'part', entityId: id, ...changedFields(before, after) },
-      transaction,
-    )
-    return after
+    const part = await findOr404(Part, id, 'part', transaction, true)
+    return updateAudited(actor, 'part.update', part, input, toPartDto, transaction)
   }).catch(duplicateNumber)
 }
