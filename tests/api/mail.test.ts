@@ -1,17 +1,12 @@
-import { createServer } from 'node:net'
 import { createTransport } from 'nodemailer'
-import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
+import { setSmtpPortForTests } from '../../server/mail'
 import { db, Email, User } from '../../server/models'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/audit'
-import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
+import { closedPort, startMailRig } from './support/mailRig'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.
 vi.hoisted(() => {
@@ -25,9 +20,7 @@ const PDF = Buffer.from(
     '2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
 )
 
-let fake: Awaited<ReturnType<typeof startSmtpFake>>
-let connection: Redis
-let mail: ReturnType<typeof startMailWorker>
+let rig: Awaited<ReturnType<typeof startMailRig>>
 let actor: Actor
 
 async function waitForStatus(id: string, status: string): Promise<Email> {
@@ -49,14 +42,6 @@ async function waitFor<T>(read: () => Promise<T>): Promise<T> {
   }
 }
 
-async function closedPort(): Promise<number> {
-  const server = createServer()
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))
-  const address = server.address()
-  await new Promise((resolve) => server.close(resolve))
-  return typeof address === 'object' && address ? address.port : 1
-}
-
 async function queue(subject: string, withPdf: boolean): Promise<string> {
   return db().transaction(async (transaction) => {
     const email = await queueEmail(
@@ -76,22 +61,12 @@ async function queue(subject: string, withPdf: boolean): Promise<string> {
 }
 
 beforeAll(async () => {
-  fake = await startSmtpFake({ port: 0 })
-  setSmtpPortForTests(fake.port)
+  rig = await startMailRig()
   const admin = (await User.findOne({ where: { email: 'admin@ferncastle.example' } }))!
   actor = { id: admin.id, email: admin.email }
-  connection = newQueueConnection()
-  mail = startMailWorker(connection)
 })
 
-afterAll(async () => {
-  mail.stop()
-  await mail.worker.close()
-  await closeMailQueue()
-  await connection.quit()
-  closeMail()
-  await fake.close()
-})
+afterAll(() => rig.stop())
 
 describe('mail', () => {
   it('sends a queued e-mail once, and the Outbox shows it once with its delivery receipt', async () => {
@@ -137,7 +112,7 @@ describe('mail', () => {
     const messageId = `<outside-${uniqueSuffix()}@elsewhere.example>`
     const transport = createTransport({
       host: '127.0.0.1',
-      port: fake.port,
+      port: rig.fake.port,
       secure: false,
       ignoreTLS: true,
     })
@@ -204,7 +179,7 @@ describe('mail', () => {
       expect(failed.attempts).toBe(2)
       expect(failed.error).toMatch(/ECONNREFUSED|connect/i)
     } finally {
-      setSmtpPortForTests(fake.port)
+      setSmtpPortForTests(rig.fake.port)
     }
   })
 

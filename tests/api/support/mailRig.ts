@@ -1,3 +1,4 @@
+import { createServer } from 'node:net'
 import { startSmtpFake } from '../../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../../server/mail'
 import { newQueueConnection } from '../../../server/redis'
@@ -29,4 +30,13 @@ export async function startMailRig() {
       await fake.close()
     },
   }
+}
+
+/** A loopback port nothing listens on: point the mail transport at it and the relay is down. */
+export async function closedPort(): Promise<number> {
+  const server = createServer()
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))
+  const address = server.address()
+  await new Promise((resolve) => server.close(resolve))
+  return typeof address === 'object' && address ? address.port : 1
 }
