@@ -6,7 +6,7 @@ import { db, Email, User } from '../../server/models'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/audit'
 import { signedInAs, uniqueSuffix } from './support/client'
-import { closedPort, startMailRig } from './support/mailRig'
+import { closedPort, startMailRig, waitForEmailStatus } from './support/mailRig'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.
 vi.hoisted(() => {
@@ -22,15 +22,6 @@ const PDF = Buffer.from(
 
 let rig: Awaited<ReturnType<typeof startMailRig>>
 let actor: Actor
-
-async function waitForStatus(id: string, status: string): Promise<Email> {
-  const deadline = Date.now() + 15_000
-  for (;;) {
-    const row = (await Email.findByPk(id))!
-    if (row.status === status || Date.now() > deadline) return row
-    await new Promise((r) => setTimeout(r, 100))
-  }
-}
 
 /** The first truthy answer of `read`, polled until a deadline (then its last answer). */
 async function waitFor<T>(read: () => Promise<T>): Promise<T> {
@@ -74,7 +65,7 @@ describe('mail', () => {
     const id = await queue(subject, true)
     // The Message-ID is fixed when the row is written, before any send.
     expect((await Email.findByPk(id))!.messageId).toMatch(new RegExp(`^<${id}@`))
-    const sent = await waitForStatus(id, 'sent')
+    const sent = await waitForEmailStatus(id, 'sent')
     expect(sent.status).toBe('sent')
     expect(sent.attempts).toBe(1)
     expect(sent.messageId).toMatch(new RegExp(`^<${id}@`))
@@ -138,7 +129,7 @@ describe('mail', () => {
   it('hides a copy filed before receipts existed behind the row that sent it', async () => {
     const subject = `Filed twice ${uniqueSuffix()}`
     const id = await queue(subject, false)
-    const sent = await waitForStatus(id, 'sent')
+    const sent = await waitForEmailStatus(id, 'sent')
     // A copy as the fake filed it before it matched Message-IDs.
     await Email.create({
       status: 'received',
@@ -162,7 +153,7 @@ describe('mail', () => {
   it('does not send an e-mail that is already sent', async () => {
     const subject = `Sent once ${uniqueSuffix()}`
     const id = await queue(subject, false)
-    await waitForStatus(id, 'sent')
+    await waitForEmailStatus(id, 'sent')
     const { sendEmail } = await import('../../server/services/mail/mailDelivery')
     await sendEmail(id)
     expect((await Email.findByPk(id))!.attempts).toBe(1)
@@ -174,7 +165,7 @@ describe('mail', () => {
     setSmtpPortForTests(await closedPort())
     try {
       const id = await queue(`Undeliverable ${uniqueSuffix()}`, false)
-      const failed = await waitForStatus(id, 'failed')
+      const failed = await waitForEmailStatus(id, 'failed')
       expect(failed.status).toBe('failed')
       expect(failed.attempts).toBe(2)
       expect(failed.error).toMatch(/ECONNREFUSED|connect/i)

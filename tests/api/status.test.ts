@@ -8,7 +8,7 @@ import { closeImportsQueue, importsQueue } from '../../server/services/imports'
 import { queueEmail } from '../../server/services/mail'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
-import { closedPort, startMailRig } from './support/mailRig'
+import { closedPort, startMailRig, waitForEmailStatus } from './support/mailRig'
 
 // One quick attempt, so an e-mail to a closed port fails in well under a second.
 vi.hoisted(() => {
@@ -19,16 +19,6 @@ vi.hoisted(() => {
 let rig: Awaited<ReturnType<typeof startMailRig>>
 let admin: TestClient
 let actor: Actor
-
-/** Polls the row until it reaches `status` or 15 s pass; returns it either way. */
-async function waitForStatus(id: string, status: string): Promise<Email> {
-  const deadline = Date.now() + 15_000
-  for (;;) {
-    const row = (await Email.findByPk(id))!
-    if (row.status === status || Date.now() > deadline) return row
-    await new Promise((r) => setTimeout(r, 100))
-  }
-}
 
 async function readStatus(): Promise<SystemStatusDto> {
   return (await admin.get('/api/status').expect(200)).body as SystemStatusDto
@@ -113,7 +103,7 @@ describe('retrying a failed e-mail from the status page', () => {
   it('lists a failed e-mail, and sends it again once the relay is back', async () => {
     const subject = `Lot report ${uniqueSuffix()}`
     const id = await queueOne(subject)
-    const failed = await waitForStatus(id, 'failed')
+    const failed = await waitForEmailStatus(id, 'failed')
     expect(failed.status).toBe('failed')
 
     const listed = await readStatus()
@@ -127,7 +117,7 @@ describe('retrying a failed e-mail from the status page', () => {
       // swallowed as a duplicate of it.
       const res = await admin.post(`/api/outbox/${id}/retry`).expect(200)
       expect(res.body).toMatchObject({ id, status: 'queued', error: null })
-      const sent = await waitForStatus(id, 'sent')
+      const sent = await waitForEmailStatus(id, 'sent')
       expect(sent.status).toBe('sent')
       expect(sent.attempts).toBe(2)
     } finally {
@@ -147,7 +137,7 @@ describe('retrying a failed e-mail from the status page', () => {
 
   it('lets only admin and service retry, and names a bad id', async () => {
     const id = await queueOne(`Refused ${uniqueSuffix()}`)
-    expect((await waitForStatus(id, 'failed')).status).toBe('failed')
+    expect((await waitForEmailStatus(id, 'failed')).status).toBe('failed')
     for (const role of ['lead', 'engineer', 'operator', 'stores'])
       await (await signedInAs(role)).post(`/api/outbox/${id}/retry`).expect(403)
     expect((await Email.findByPk(id))!.status).toBe('failed')

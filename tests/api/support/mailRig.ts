@@ -1,4 +1,5 @@
 import { createServer } from 'node:net'
+import { Email } from '../../../server/models'
 import { startSmtpFake } from '../../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../../server/mail'
 import { newQueueConnection } from '../../../server/redis'
@@ -39,4 +40,14 @@ export async function closedPort(): Promise<number> {
   const address = server.address()
   await new Promise((resolve) => server.close(resolve))
   return typeof address === 'object' && address ? address.port : 1
+}
+
+/** Polls the e-mail's row until it reaches `status` or 15 s pass; returns the row either way. */
+export async function waitForEmailStatus(id: string, status: string): Promise<Email> {
+  const deadline = Date.now() + 15_000
+  for (;;) {
+    const row = (await Email.findByPk(id))!
+    if (row.status === status || Date.now() > deadline) return row
+    await new Promise((r) => setTimeout(r, 100))
+  }
 }
