@@ -2,7 +2,7 @@
 import { mkdirSync, statSync } from 'node:fs'
 import { join } from 'node:path'
 import { ServiceError } from './lib/proc'
-import { serviceEnv, testNames } from './lib/serviceConfig'
+import { testRunEnv } from './lib/serviceConfig'
 import { startServices } from './lib/services'
 import { bin, prepareDatabase, runStep } from './lib/steps'
 
@@ -26,17 +26,7 @@ async function main(argv: string[]): Promise<number> {
     return 0
   }
   const { config } = await startServices()
-  const names = testNames()
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
-    ...serviceEnv(config),
-    WAYMARK_DB: names.db,
-    WAYMARK_REDIS_PREFIX: names.redisPrefix,
-    S3_BUCKET: names.bucket,
-    NODE_ENV: 'test',
-    WAYMARK_SMTP_PORT: '0',
-    PORT: '0',
-  }
+  const env = testRunEnv(config)
   const prepared = await prepareDatabase(config, env, ['--reset'], [])
   if (prepared !== 0) return prepared
   const built = await runStep('build client', config, bin(config, 'vite'), ['build'], {

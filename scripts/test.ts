@@ -2,7 +2,7 @@
 // The last line printed is always `tests: N passed, M failed`.
 import { ensurePackages } from './lib/debian'
 import { ServiceError } from './lib/proc'
-import { serviceEnv, testNames } from './lib/serviceConfig'
+import { testRunEnv } from './lib/serviceConfig'
 import type { ServiceConfig } from './lib/serviceConfig'
 import { startServices } from './lib/services'
 import { bin, flagValue, prepareDatabase, runStep } from './lib/steps'
@@ -51,18 +51,7 @@ async function run(
     steps.push({ name: 'services', exitCode: 1 })
     return { passed, failed: failed + 1, steps }
   }
-  const names = testNames()
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
-    ...serviceEnv(config),
-    WAYMARK_DB: names.db,
-    WAYMARK_REDIS_PREFIX: names.redisPrefix,
-    S3_BUCKET: names.bucket,
-    NODE_ENV: 'test',
-    WAYMARK_SMTP_PORT: '0',
-    // Anything that listens picks a free port: never the 4870 of a running `npm start`.
-    PORT: '0',
-  }
+  const env = testRunEnv(config)
 
   // The faults phase makes a database of its own (tests/faults/support/stack.ts).
   const usesDb = (p: Phase) => p !== 'unit' && p !== 'faults'

@@ -1,5 +1,6 @@
-import { Queue } from 'bullmq'
-import type { JobsOptions, WorkerOptions } from 'bullmq'
+import { Queue, Worker } from 'bullmq'
+import type { Job, JobsOptions, WorkerOptions } from 'bullmq'
+import type { Redis } from 'ioredis'
 import { env } from './env'
 import { logger } from './logger'
 import { newQueueConnection, redisPrefix } from './redis'
@@ -88,4 +89,60 @@ export function makeProducer<J extends object>(
  */
 export function jobLocks(): Pick<WorkerOptions, 'lockDuration' | 'stalledInterval'> {
   return { lockDuration: env.WAYMARK_JOB_LOCK_MS, stalledInterval: env.WAYMARK_JOB_STALL_CHECK_MS }
+}
+
+/** How often a row worker enqueues again the rows whose jobs were lost. */
+const SWEEP_EVERY_MS = 60_000
+
+/** A worker for jobs that each stand for one row, and its sweeper (startRowWorker). */
+export interface RowWorker<J extends object> {
+  worker: Worker<J>
+  /** Stops the sweeper's timer; close the worker itself after. */
+  stop: () => void
+  /** Sweeps now, rows of any age: Redis is back, and every row still waiting lost its job. */
+  sweepNow: () => void
+}
+
+/**
+ * Starts the worker of a queue whose jobs each stand for one row (a document, an e-mail, an
+ * import) that was committed before its job was enqueued. A job that fails its last attempt marks
+ * its row failed. The sweeper enqueues rows left waiting (their job lost while Redis was down) on
+ * start-up, then every minute; the job id dedupes a job that was only waiting.
+ */
+export function startRowWorker<J extends object>(options: {
+  queue: string
+  connection: Redis
+  concurrency: number
+  /** Does the job's work. */
+  run: (job: Job<J>) => Promise<unknown>
+  /** Marks the job's row failed, with the last error's message. */
+  fail: (data: J, message: string) => Promise<unknown>
+  /** Enqueues again the rows waiting longer than `olderThanMs` (the sweep's own default if absent). */
+  sweep: (olderThanMs?: number) => Promise<unknown>
+  /** What a row is, for the logs: `document`, `e-mail`, `import`. */
+  what: string
+}): RowWorker<J> {
+  const { what } = options
+  const worker = new Worker<J>(options.queue, (job) => options.run(job), {
+    connection: options.connection,
+    prefix: redisPrefix,
+    concurrency: options.concurrency,
+    ...jobLocks(),
+  })
+  worker.on('failed', (job, err) => {
+    if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
+      options.fail(job.data, err.message).catch((e: unknown) => {
+        // The job's data names its row (documentId, emailId, importId).
+        const fields: Record<string, unknown> = { err: e, ...(job.data as object) }
+        logger.error(fields, `could not mark ${what} failed`)
+      })
+  })
+  const sweep = (olderThanMs?: number) =>
+    void options
+      .sweep(olderThanMs)
+      .catch((err: unknown) => logger.warn({ err }, `${what} sweep failed`))
+  sweep() // on start-up: pick up what was requested while no worker or no Redis was there
+  const timer = setInterval(sweep, SWEEP_EVERY_MS)
+  timer.unref()
+  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

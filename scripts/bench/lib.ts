@@ -3,7 +3,43 @@
 import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import type { Express } from 'express'
+import type { Sequelize } from 'sequelize'
 import { DEMO_PASSWORD } from '../../server/seed/demoUsers'
+
+/**
+ * Points this process at the bench database, quiet logs and a Redis prefix of its own, where the
+ * environment does not name others: `extra` adds or overrides defaults (a soak's own prefix and
+ * bucket). Call it before the first dynamic import of the server, which reads the environment.
+ */
+export function benchEnvironment(extra: Record<string, string> = {}): void {
+  const defaults: Record<string, string> = {
+    WAYMARK_DB: 'waymark_bench_test',
+    NODE_ENV: 'test',
+    WAYMARK_REDIS_PREFIX: 'waymark-bench',
+    LOG_LEVEL: 'error',
+    ...extra,
+  }
+  for (const [name, value] of Object.entries(defaults)) process.env[name] ??= value
+}
+
+/**
+ * Empties WAYMARK_DB (unless `keep`, to measure an earlier run's data again) and migrates it, as
+ * the owner; `then` may add tables of the bench's own on the same connection. The server is
+ * imported here, after benchEnvironment has set what it reads.
+ */
+export async function migrateBenchDatabase(
+  options: { keep?: boolean; then?: (owner: Sequelize) => Promise<unknown> } = {},
+): Promise<void> {
+  const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+  const owner = ownerConnection()
+  try {
+    if (!options.keep) await resetTestSchema(owner)
+    await migrator(owner).up()
+    await options.then?.(owner)
+  } finally {
+    await owner.close()
+  }
+}
 
 /** Serves `app` on a free loopback port. */
 export async function listenOnLoopback(app: Express): Promise<{ server: Server; base: string }> {

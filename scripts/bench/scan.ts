@@ -8,13 +8,10 @@ import { parseArgs } from 'node:util'
 import autocannon from 'autocannon'
 import express from 'express'
 import pg from 'pg'
-import { listenOnLoopback, percentile, signIn } from './lib'
+import { benchEnvironment, migrateBenchDatabase, listenOnLoopback, percentile, signIn } from './lib'
 import { openPacer } from './paced'
 
-process.env.WAYMARK_DB ??= 'waymark_bench_test'
-process.env.NODE_ENV ??= 'test'
-process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
-process.env.LOG_LEVEL ??= 'error'
+benchEnvironment()
 
 const { values: args } = parseArgs({
   options: {
@@ -55,15 +52,13 @@ const WARMUP = Number(args.warmup)
 const PACED = Number(args.paced)
 const CONNECTIONS = Number(args.connections)
 
-const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+await migrateBenchDatabase({
+  then: (owner) =>
+    owner.query(
+      'CREATE TABLE bench_baseline (id uuid PRIMARY KEY, serial text NOT NULL, at timestamptz NOT NULL)',
+    ),
+})
 const { env } = await import('../../server/env')
-const owner = ownerConnection()
-await resetTestSchema(owner)
-await migrator(owner).up()
-await owner.query(
-  'CREATE TABLE bench_baseline (id uuid PRIMARY KEY, serial text NOT NULL, at timestamptz NOT NULL)',
-)
-await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
 const { buildApp } = await import('../../server/main/app')

@@ -7,11 +7,9 @@ import { CreateBucketCommand, S3Client } from '@aws-sdk/client-s3'
 import pg from 'pg'
 import { startApi, startAppProcess, stopAppProcesses, waitForOutput } from '../lib/appProcess'
 import type { AppProcess } from '../lib/appProcess'
-import { percentile, signIn } from './lib'
+import { benchEnvironment, migrateBenchDatabase, percentile, signIn } from './lib'
 
-process.env.WAYMARK_DB ??= 'waymark_bench_test'
-process.env.NODE_ENV ??= 'test'
-process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-soak'
+benchEnvironment({ WAYMARK_REDIS_PREFIX: 'waymark-soak', S3_BUCKET: 'waymark-soak-test' })
 process.env.S3_BUCKET ??= 'waymark-soak-test'
 process.env.LOG_LEVEL ??= 'error'
 
@@ -51,12 +49,8 @@ const FAIL_SHARE = Number(args['fail-percent']) / 100
 const BASELINE_MS = Number(args['baseline-seconds']) * 1000
 if (!(MINUTES > 0 && MINUTES <= 60)) throw new Error('--minutes: between 0 and 60')
 
-const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+await migrateBenchDatabase()
 const { env } = await import('../../server/env')
-const owner = ownerConnection()
-await resetTestSchema(owner)
-await migrator(owner).up()
-await owner.close()
 // The bucket for the documents the lead asks for (the services make only the lanes' buckets).
 const s3 = new S3Client({
   endpoint: env.s3.endpoint,

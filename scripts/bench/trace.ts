@@ -2,12 +2,9 @@
 // Run it after `npm test` has prepared the services (it uses WAYMARK_DB, default waymark_bench_test).
 import { parseArgs } from 'node:util'
 import pg from 'pg'
-import { listenOnLoopback, percentile, signIn } from './lib'
+import { benchEnvironment, migrateBenchDatabase, listenOnLoopback, percentile, signIn } from './lib'
 
-process.env.WAYMARK_DB ??= 'waymark_bench_test'
-process.env.NODE_ENV ??= 'test'
-process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
-process.env.LOG_LEVEL ??= 'error'
+benchEnvironment()
 
 const { values: args } = parseArgs({
   options: {
@@ -37,12 +34,8 @@ const LOT_SIZE = Number(args['lot-size'])
 const PER_LOT = Number(args['per-lot'])
 const SAMPLES = Number(args.samples)
 
-const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+await migrateBenchDatabase()
 const { env } = await import('../../server/env')
-const owner = ownerConnection()
-await resetTestSchema(owner)
-await migrator(owner).up()
-await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
 const { buildApp } = await import('../../server/main/app')

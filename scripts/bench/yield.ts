@@ -4,13 +4,9 @@ import http from 'node:http'
 import { performance } from 'node:perf_hooks'
 import { parseArgs } from 'node:util'
 import pg from 'pg'
-import { listenOnLoopback, percentile, signIn } from './lib'
+import { benchEnvironment, migrateBenchDatabase, listenOnLoopback, percentile, signIn } from './lib'
 
-process.env.WAYMARK_DB ??= 'waymark_bench_test'
-process.env.NODE_ENV ??= 'test'
-process.env.WAYMARK_REDIS_PREFIX ??= 'waymark-bench'
-process.env.WAYMARK_WORKERS ??= 'off'
-process.env.LOG_LEVEL ??= 'error'
+benchEnvironment({ WAYMARK_WORKERS: 'off' })
 
 const { values: args } = parseArgs({
   options: {
@@ -34,12 +30,8 @@ a time, and runs the same SQL straight through pg. Prints p50/p95 of both.`)
 }
 const REQUESTS = Number(args.requests)
 
-const { migrator, ownerConnection, resetTestSchema } = await import('../../server/db/migrator')
+await migrateBenchDatabase({ keep: args.keep })
 const { env } = await import('../../server/env')
-const owner = ownerConnection()
-if (!args.keep) await resetTestSchema(owner)
-await migrator(owner).up()
-await owner.close()
 
 const { loadDemo } = await import('../../server/seed/demo')
 const { buildApp } = await import('../../server/main/app')
@@ -56,6 +48,7 @@ const seed = args.keep
     })
 // As autovacuum would leave a settled database: statistics and the visibility map (which
 // index-only scans rely on) up to date. Only the owner role may vacuum.
+const { ownerConnection } = await import('../../server/db/migrator')
 const vacuum = ownerConnection()
 for (const table of ['lots', 'units', 'step_runs', 'measurements'])
   await vacuum.query(`VACUUM (ANALYZE) ${table}`)

@@ -165,3 +165,22 @@ export function serviceEnv(config: ServiceConfig): Record<string, string> {
       process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED || 'true',
   }
 }
+
+/**
+ * The environment of a test run's child processes: the services, the lane's database, Redis
+ * prefix and bucket (testNames), and port 0 for anything that listens, so that it never takes the
+ * 4870 of a running `npm start` (the mail fake's port too).
+ */
+export function testRunEnv(config: ServiceConfig): NodeJS.ProcessEnv {
+  const names = testNames()
+  return {
+    ...process.env,
+    ...serviceEnv(config),
+    WAYMARK_DB: names.db,
+    WAYMARK_REDIS_PREFIX: names.redisPrefix,
+    S3_BUCKET: names.bucket,
+    NODE_ENV: 'test',
+    WAYMARK_SMTP_PORT: '0',
+    PORT: '0',
+  }
+}

@@ -1,17 +1,12 @@
-import { createServer } from 'node:net'
 import { createTransport } from 'nodemailer'
-import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
+import { setSmtpPortForTests } from '../../server/mail'
 import { db, Email, User } from '../../server/models'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
 import { queueEmail } from '../../server/services/mail/outbox'
 import type { Actor } from '../../server/services/audit'
-import { startMailWorker } from '../../server/services/mail'
 import { signedInAs, uniqueSuffix } from './support/client'
+import { closedPort, startMailRig, waitForEmailStatus } from './support/mailRig'
 
 // Two quick attempts, so the failure case ends in well under a second instead of minutes.
 vi.hoisted(() => {
@@ -25,19 +20,8 @@ const PDF = Buffer.from(
     '2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
 )
 
-let fake: Awaited<ReturnType<typeof startSmtpFake>>
-let connection: Redis
-let mail: ReturnType<typeof startMailWorker>
+let rig: Awaited<ReturnType<typeof startMailRig>>
 let actor: Actor
-
-async function waitForStatus(id: string, status: string): Promise<Email> {
-  const deadline = Date.now() + 15_000
-  for (;;) {
-    const row = (await Email.findByPk(id))!
-    if (row.status === status || Date.now() > deadline) return row
-    await new Promise((r) => setTimeout(r, 100))
-  }
-}
 
 /** The first truthy answer of `read`, polled until a deadline (then its last answer). */
 async function waitFor<T>(read: () => Promise<T>): Promise<T> {
@@ -47,14 +31,6 @@ async function waitFor<T>(read: () => Promise<T>): Promise<T> {
     if (value || Date.now() > deadline) return value
     await new Promise((r) => setTimeout(r, 100))
   }
-}
-
-async function closedPort(): Promise<number> {
-  const server = createServer()
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))
-  const address = server.address()
-  await new Promise((resolve) => server.close(resolve))
-  return typeof address === 'object' && address ? address.port : 1
 }
 
 async function queue(subject: string, withPdf: boolean): Promise<string> {
@@ -76,22 +52,12 @@ async function queue(subject: string, withPdf: boolean): Promise<string> {
 }
 
 beforeAll(async () => {
-  fake = await startSmtpFake({ port: 0 })
-  setSmtpPortForTests(fake.port)
+  rig = await startMailRig()
   const admin = (await User.findOne({ where: { email: 'admin@ferncastle.example' } }))!
   actor = { id: admin.id, email: admin.email }
-  connection = newQueueConnection()
-  mail = startMailWorker(connection)
 })
 
-afterAll(async () => {
-  mail.stop()
-  await mail.worker.close()
-  await closeMailQueue()
-  await connection.quit()
-  closeMail()
-  await fake.close()
-})
+afterAll(() => rig.stop())
 
 describe('mail', () => {
   it('sends a queued e-mail once, and the Outbox shows it once with its delivery receipt', async () => {
@@ -99,7 +65,7 @@ describe('mail', () => {
     const id = await queue(subject, true)
     // The Message-ID is fixed when the row is written, before any send.
     expect((await Email.findByPk(id))!.messageId).toMatch(new RegExp(`^<${id}@`))
-    const sent = await waitForStatus(id, 'sent')
+    const sent = await waitForEmailStatus(id, 'sent')
     expect(sent.status).toBe('sent')
     expect(sent.attempts).toBe(1)
     expect(sent.messageId).toMatch(new RegExp(`^<${id}@`))
@@ -137,7 +103,7 @@ describe('mail', () => {
     const messageId = `<outside-${uniqueSuffix()}@elsewhere.example>`
     const transport = createTransport({
       host: '127.0.0.1',
-      port: fake.port,
+      port: rig.fake.port,
       secure: false,
       ignoreTLS: true,
     })
@@ -163,7 +129,7 @@ describe('mail', () => {
   it('hides a copy filed before receipts existed behind the row that sent it', async () => {
     const subject = `Filed twice ${uniqueSuffix()}`
     const id = await queue(subject, false)
-    const sent = await waitForStatus(id, 'sent')
+    const sent = await waitForEmailStatus(id, 'sent')
     // A copy as the fake filed it before it matched Message-IDs.
     await Email.create({
       status: 'received',
@@ -187,7 +153,7 @@ describe('mail', () => {
   it('does not send an e-mail that is already sent', async () => {
     const subject = `Sent once ${uniqueSuffix()}`
     const id = await queue(subject, false)
-    await waitForStatus(id, 'sent')
+    await waitForEmailStatus(id, 'sent')
     const { sendEmail } = await import('../../server/services/mail/mailDelivery')
     await sendEmail(id)
     expect((await Email.findByPk(id))!.attempts).toBe(1)
@@ -199,12 +165,12 @@ describe('mail', () => {
     setSmtpPortForTests(await closedPort())
     try {
       const id = await queue(`Undeliverable ${uniqueSuffix()}`, false)
-      const failed = await waitForStatus(id, 'failed')
+      const failed = await waitForEmailStatus(id, 'failed')
       expect(failed.status).toBe('failed')
       expect(failed.attempts).toBe(2)
       expect(failed.error).toMatch(/ECONNREFUSED|connect/i)
     } finally {
-      setSmtpPortForTests(fake.port)
+      setSmtpPortForTests(rig.fake.port)
     }
   })
 

@@ -1,17 +1,14 @@
 import { randomUUID } from 'node:crypto'
-import { createServer } from 'node:net'
-import type { Redis } from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { SystemStatusDto } from '../../shared/schemas/status'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
+import { setSmtpPortForTests } from '../../server/mail'
 import { AuditEvent, db, Email, User } from '../../server/models'
-import { newQueueConnection } from '../../server/redis'
 import type { Actor } from '../../server/services/admin'
 import { closeImportsQueue, importsQueue } from '../../server/services/imports'
-import { closeMailQueue, queueEmail, startMailWorker } from '../../server/services/mail'
+import { queueEmail } from '../../server/services/mail'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
+import { closedPort, startMailRig, waitForEmailStatus } from './support/mailRig'
 
 // One quick attempt, so an e-mail to a closed port fails in well under a second.
 vi.hoisted(() => {
@@ -19,29 +16,9 @@ vi.hoisted(() => {
   process.env.WAYMARK_MAIL_BACKOFF_MS = '100'
 })
 
-let fake: Awaited<ReturnType<typeof startSmtpFake>>
-let connection: Redis
-let mail: ReturnType<typeof startMailWorker>
+let rig: Awaited<ReturnType<typeof startMailRig>>
 let admin: TestClient
 let actor: Actor
-
-async function closedPort(): Promise<number> {
-  const server = createServer()
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))
-  const address = server.address()
-  await new Promise((resolve) => server.close(resolve))
-  return typeof address === 'object' && address ? address.port : 1
-}
-
-/** Polls the row until it reaches `status` or 15 s pass; returns it either way. */
-async function waitForStatus(id: string, status: string): Promise<Email> {
-  const deadline = Date.now() + 15_000
-  for (;;) {
-    const row = (await Email.findByPk(id))!
-    if (row.status === status || Date.now() > deadline) return row
-    await new Promise((r) => setTimeout(r, 100))
-  }
-}
 
 async function readStatus(): Promise<SystemStatusDto> {
   return (await admin.get('/api/status').expect(200)).body as SystemStatusDto
@@ -60,24 +37,14 @@ async function queueOne(subject: string): Promise<string> {
 
 beforeAll(async () => {
   await resetSignInLimits()
-  fake = await startSmtpFake({ port: 0 })
+  rig = await startMailRig()
   setSmtpPortForTests(await closedPort())
   admin = await signedInAs('admin')
   const user = (await User.findOne({ where: { email: 'admin@ferncastle.example' } }))!
   actor = { id: user.id, email: user.email }
-  connection = newQueueConnection()
-  mail = startMailWorker(connection)
 })
 
-afterAll(async () => {
-  mail.stop()
-  await mail.worker.close()
-  await closeMailQueue()
-  await closeImportsQueue()
-  await connection.quit()
-  closeMail()
-  await fake.close()
-})
+afterAll(() => rig.stop(closeImportsQueue))
 
 describe('GET /api/status', () => {
   it('is for admins only', async () => {
@@ -93,7 +60,7 @@ describe('GET /api/status', () => {
       ['storage', 'ok'],
       ['smtp', 'down'],
     ])
-    setSmtpPortForTests(fake.port)
+    setSmtpPortForTests(rig.fake.port)
     try {
       const smtp = (await readStatus()).services.find((s) => s.service === 'smtp')!
       expect(smtp).toMatchObject({ state: 'ok', label: 'Mail relay (SMTP)' })
@@ -136,7 +103,7 @@ describe('retrying a failed e-mail from the status page', () => {
   it('lists a failed e-mail, and sends it again once the relay is back', async () => {
     const subject = `Lot report ${uniqueSuffix()}`
     const id = await queueOne(subject)
-    const failed = await waitForStatus(id, 'failed')
+    const failed = await waitForEmailStatus(id, 'failed')
     expect(failed.status).toBe('failed')
 
     const listed = await readStatus()
@@ -144,13 +111,13 @@ describe('retrying a failed e-mail from the status page', () => {
     expect(listed.failedEmails.find((m) => m.id === id)).toMatchObject({ subject, attempts: 1 })
     expect(listed.queues.find((q) => q.name === 'mail')!.failed).toBeGreaterThanOrEqual(1)
 
-    setSmtpPortForTests(fake.port)
+    setSmtpPortForTests(rig.fake.port)
     try {
       // The queue still holds the failed job under the e-mail's id; the retry must not be
       // swallowed as a duplicate of it.
       const res = await admin.post(`/api/outbox/${id}/retry`).expect(200)
       expect(res.body).toMatchObject({ id, status: 'queued', error: null })
-      const sent = await waitForStatus(id, 'sent')
+      const sent = await waitForEmailStatus(id, 'sent')
       expect(sent.status).toBe('sent')
       expect(sent.attempts).toBe(2)
     } finally {
@@ -170,7 +137,7 @@ describe('retrying a failed e-mail from the status page', () => {
 
   it('lets only admin and service retry, and names a bad id', async () => {
     const id = await queueOne(`Refused ${uniqueSuffix()}`)
-    expect((await waitForStatus(id, 'failed')).status).toBe('failed')
+    expect((await waitForEmailStatus(id, 'failed')).status).toBe('failed')
     for (const role of ['lead', 'engineer', 'operator', 'stores'])
       await (await signedInAs(role)).post(`/api/outbox/${id}/retry`).expect(403)
     expect((await Email.findByPk(id))!.status).toBe('failed')

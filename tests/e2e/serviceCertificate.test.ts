@@ -1,14 +1,6 @@
-import type { Redis } from 'ioredis'
 import { Op, QueryTypes } from 'sequelize'
 import { describe, expect, it } from 'vitest'
-import { startSmtpFake } from '../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../server/mail'
 import { db, Email } from '../../server/models'
-import { closeDocumentsQueue } from '../../server/services/documents/queue'
-import { closeMailQueue } from '../../server/services/mail/queue'
-import { newQueueConnection } from '../../server/redis'
-import { startDocumentsWorker } from '../../server/services/documents'
-import { startMailWorker } from '../../server/services/mail'
 import {
   DEMO_PASSWORD,
   demoEmail,
@@ -17,6 +9,7 @@ import {
   useE2eApp,
   waitForStillness,
 } from './support/setup'
+import { withMailWorkers } from './support/mailWorkers'
 
 /** A unit of the demo shipment, and the contact e-mail of the customer it went to. */
 async function shippedSerial(): Promise<{ serial: string; contact: string }> {
@@ -35,31 +28,7 @@ async function shippedSerial(): Promise<{ serial: string; contact: string }> {
 }
 
 describe('Customer service e-mails a certificate from a trace', () => {
-  let fake: Awaited<ReturnType<typeof startSmtpFake>>
-  let connection: Redis
-  let documents: ReturnType<typeof startDocumentsWorker>
-  let mail: ReturnType<typeof startMailWorker>
-
-  const e2e = useE2eApp({
-    // The workers and the SMTP fake run in this process, as `npm start` runs them beside the app.
-    before: async () => {
-      fake = await startSmtpFake({ port: 0 })
-      setSmtpPortForTests(fake.port)
-      connection = newQueueConnection()
-      documents = startDocumentsWorker(connection)
-      mail = startMailWorker(connection)
-    },
-    after: async () => {
-      documents?.stop()
-      mail?.stop()
-      await Promise.all([documents?.worker.close(), mail?.worker.close()])
-      await closeDocumentsQueue()
-      await closeMailQueue()
-      await connection?.quit()
-      closeMail()
-      await fake?.close()
-    },
-  })
+  const e2e = useE2eApp(withMailWorkers())
 
   it('scans a shipped serial, opens its history, e-mails a certificate and finds it in the Outbox', async () => {
     const { serial, contact } = await shippedSerial()

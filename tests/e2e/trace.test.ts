@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs'
 import { QueryTypes } from 'sequelize'
 import { describe, expect, it } from 'vitest'
 import { db } from '../../server/models'
-import { openPage, picturesOf, signInByApi, useE2eApp } from './support/setup'
+import { openPage, openPageSignedIn, picturesOf, signInByApi, useE2eApp } from './support/setup'
 
 /** The seeded unit with the richest history: a nonconformance if any, then the most runs. */
 async function busiestSerial(): Promise<string> {
@@ -87,9 +87,7 @@ describe('Trace for customer service', () => {
        GROUP BY cl.internal_code ORDER BY count(*) DESC LIMIT 1`,
       { type: QueryTypes.SELECT },
     )
-    const page = await openPage(e2e, 'trace-contain')
-    await page.goto(`${e2e.app.baseUrl}/signin`)
-    await signInByApi(page, 'lead')
+    const page = await openPageSignedIn(e2e, 'trace-contain', 'lead')
     await page.goto(`${e2e.app.baseUrl}/trace?lot=${row!.code}`)
     await page.locator('[data-test=recall-code]').waitFor()
     await page.locator('[data-test=contain]').click()

@@ -1,12 +1,10 @@
-import { UniqueConstraintError } from 'sequelize'
 import type {
   StationCreateInput,
   StationDto,
   StationUpdateInput,
 } from '../../../shared/schemas/stations'
-import { AppError } from '../../errors'
 import { Station } from '../../models'
-import { changedFields, recordAudit } from '../audit'
+import { auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../audit'
 import type { Actor } from '../audit'
 import { withTransaction } from '../../db/sql'
 
@@ -22,13 +20,9 @@ function toStationDto(s: Station): StationDto {
   }
 }
 
-function duplicateCode(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another station has this code', {
-      code: 'already in use',
-    })
-  throw err
-}
+const duplicateCode = conflictOnDuplicate('another station has this code', {
+  code: 'already in use',
+})
 
 /** Every station, ordered by code. */
 export async function listStations(): Promise<StationDto[]> {
@@ -39,13 +33,7 @@ export async function listStations(): Promise<StationDto[]> {
 export async function createStation(input: StationCreateInput, actor: Actor): Promise<StationDto> {
   return withTransaction(async (transaction) => {
     const station = await Station.create(input, { transaction })
-    const dto = toStationDto(station)
-    await recordAudit(
-      actor,
-      { action: 'station.create', entity: 'station', entityId: station.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'station.create', station.id, toStationDto(station), transaction)
   }).catch(duplicateCode)
 }
 
@@ -56,17 +44,7 @@ export async function updateStation(
   actor: Actor,
 ): Promise<StationDto> {
   return withTransaction(async (transaction) => {
-    const station = await Station.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!station) throw AppError.notFound(`station ${id}`)
-    const before = toStationDto(station)
-    await station.update(input, { transaction })
-    const after = toStationDto(station)
-    const { before: b, after: a } = changedFields(before, after)
-    await recordAudit(
-      actor,
-      { action: 'station.update', entity: 'station', entityId: id, before: b, after: a },
-      transaction,
-    )
-    return after
+    const station = await findOr404(Station, id, 'station', transaction, true)
+    return updateAudited(actor, 'station.update', station, input, toStationDto, transaction)
   }).catch(duplicateCode)
 }

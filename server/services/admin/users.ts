@@ -1,8 +1,7 @@
-import { UniqueConstraintError } from 'sequelize'
 import type { UserAdminDto, UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users'
 import { AppError } from '../../errors'
 import { User } from '../../models'
-import { changedFields, recordAudit } from '../audit'
+import { auditAction, auditCreated, changedFields, conflictOnDuplicate, findOr404 } from '../audit'
 import type { Actor } from '../audit'
 import { forgetUsers, hashPassword, toUserDto } from '../auth'
 import { execute, withTransaction } from '../../db/sql'
@@ -32,27 +31,10 @@ export async function listUsers(): Promise<UserAdminDto[]> {
 /** Creates a user; a taken e-mail is a 409 naming the field. */
 export async function createUser(input: UserCreateInput, actor: Actor): Promise<UserAdminDto> {
   const passwordHash = await hashPassword(input.password)
-  try {
-    return await withTransaction(async (transaction) => {
-      const user = await User.create(
-        { ...input, passwordHash, lastSignInAt: null },
-        { transaction },
-      )
-      const dto = toAdminDto(user)
-      await recordAudit(
-        actor,
-        { action: 'user.create', entity: 'user', entityId: user.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-  } catch (err) {
-    if (err instanceof UniqueConstraintError)
-      throw AppError.conflict('duplicate', 'a user with this e-mail exists', {
-        email: 'already in use',
-      })
-    throw err
-  }
+  return withTransaction(async (transaction) => {
+    const user = await User.create({ ...input, passwordHash, lastSignInAt: null }, { transaction })
+    return auditCreated(actor, 'user.create', user.id, toAdminDto(user), transaction)
+  }).catch(conflictOnDuplicate('a user with this e-mail exists', { email: 'already in use' }))
 }
 
 /**
@@ -71,8 +53,7 @@ export async function updateUser(
     )
   const { password, ...fields } = input
   const updated = await withTransaction(async (transaction) => {
-    const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!user) throw AppError.notFound(`user ${id}`)
+    const user = await findOr404(User, id, 'user', transaction, true)
     const before = toAdminDto(user)
     user.set(fields)
     if (password) user.passwordHash = await hashPassword(password)
@@ -80,11 +61,7 @@ export async function updateUser(
     const after = toAdminDto(user)
     const diff = changedFields(before, after)
     if (password) diff.after.password = 'changed'
-    await recordAudit(
-      actor,
-      { action: 'user.update', entity: 'user', entityId: id, ...diff },
-      transaction,
-    )
+    await auditAction(actor, 'user.update', id, diff, transaction)
     if (input.isActive === false || password) await endSessionsOf(id, transaction)
     return after
   })

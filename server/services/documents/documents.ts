@@ -4,7 +4,7 @@ import type { DocumentDto } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
 import { Document } from '../../models'
 import { enqueueDocument } from './queue'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 
 export function toDocumentDto(d: Document): DocumentDto {
@@ -71,12 +71,11 @@ export async function requestDocument(
     },
     { transaction },
   )
-  await recordAudit(
+  await auditAction(
     actor,
+    'document.request',
+    doc.id,
     {
-      action: 'document.request',
-      entity: 'document',
-      entityId: doc.id,
       after: {
         kind: spec.kind,
         lotId: doc.lotId,

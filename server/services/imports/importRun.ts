@@ -10,7 +10,7 @@ import { AppError } from '../../errors'
 import { logger } from '../../logger'
 import { DefectCode, Import, ImportRow, Station, User } from '../../models'
 import { execute, withTransaction } from '../../db/sql'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { recordStepRun } from '../floor'
 import { progressReporter, refreshCounts } from './importJobs'
@@ -60,12 +60,11 @@ export async function requestImportRun(
       { status: 'queued', progress: 0, defectCodeId: failing ? input.defectCodeId : null },
       { transaction },
     )
-    await recordAudit(
+    await auditAction(
       actor,
+      'import.run',
+      id,
       {
-        action: 'import.run',
-        entity: 'import',
-        entityId: id,
         after: { ready: imp.readyCount, failing, defectCodeId: imp.defectCodeId },
       },
       transaction,

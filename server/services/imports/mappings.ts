@@ -8,7 +8,7 @@ import type {
 import { AppError } from '../../errors'
 import { ImportMapping as ImportMappingModel, Station } from '../../models'
 import { select, withTransaction } from '../../db/sql'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 
 // A station's column mapping: which column of its rack's CSV holds the serial, the time, the
@@ -97,16 +97,16 @@ export async function saveImportMapping(
     const values = { ...input, updatedBy: actor.id }
     if (before) await before.update(values, { transaction })
     else await ImportMappingModel.create({ stationId: station.id, ...values }, { transaction })
-    await recordAudit(
+    await auditAction(
       actor,
+      'import_mapping.save',
+      station.id,
       {
-        action: 'import_mapping.save',
-        entity: 'station',
-        entityId: station.id,
         before: before ? toMapping(before) : null,
         after: input,
       },
       transaction,
+      'station',
     )
   })
   return getImportMapping(station.code)

@@ -1,8 +1,6 @@
-import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { logger } from '../../logger'
-import { redisPrefix } from '../../redis'
-import { jobLocks, makeProducer, STANDARD_JOB_OPTIONS } from '../../queue'
+import { makeProducer, STANDARD_JOB_OPTIONS, startRowWorker } from '../../queue'
+import type { RowWorker } from '../../queue'
 import { checkImport } from './dryRun'
 import { failImport, pendingImports } from './importJobs'
 import { processImport } from './importRun'
@@ -52,8 +50,6 @@ export async function enqueueImportCheck(importId: string, requestedAt: Date): P
   )
 }
 
-const SWEEP_EVERY_MS = 60_000
-
 /** Enqueues again every import left `checking` or `queued` (its job was lost) or stuck `running`. */
 export async function sweepImports(olderThanMs = 30_000): Promise<number> {
   const pending = await pendingImports(new Date(), olderThanMs)
@@ -66,33 +62,19 @@ export async function sweepImports(olderThanMs = 30_000): Promise<number> {
  * Checks bench files (the dry run) and records their good rows as step runs; progress goes to
  * the job and to the imports row.
  */
-export function startImportsWorker(connection: Redis): {
-  worker: Worker<ImportJob>
-  stop: () => void
-  sweepNow: () => void
-} {
-  const worker = new Worker<ImportJob>(
-    IMPORTS_QUEUE,
-    async (job) => {
+export function startImportsWorker(connection: Redis): RowWorker<ImportJob> {
+  return startRowWorker<ImportJob>({
+    queue: IMPORTS_QUEUE,
+    connection,
+    // One file at a time: rows of two files for one unit must not race for its step.
+    concurrency: 1,
+    run: async (job) => {
       const report = (percent: number) => job.updateProgress(percent)
       if (job.data.kind === 'check') await checkImport(job.data.importId, report)
       else await processImport(job.data.importId, report)
     },
-    // One file at a time: rows of two files for one unit must not race for its step.
-    { connection, prefix: redisPrefix, concurrency: 1, ...jobLocks() },
-  )
-  worker.on('failed', (job, err) => {
-    if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
-      failImport(job.data.importId, err.message).catch((e: unknown) =>
-        logger.error({ err: e, importId: job.data.importId }, 'could not mark import failed'),
-      )
+    fail: (data, message) => failImport(data.importId, message),
+    sweep: sweepImports,
+    what: 'import',
   })
-  const sweep = (olderThanMs?: number) =>
-    void sweepImports(olderThanMs).catch((err: unknown) =>
-      logger.warn({ err }, 'import sweep failed'),
-    )
-  sweep() // on start-up: pick up what was requested while no worker or no Redis was there
-  const timer = setInterval(sweep, SWEEP_EVERY_MS)
-  timer.unref()
-  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

@@ -4,7 +4,7 @@ import { AppError } from '../../errors'
 import { Import, Upload } from '../../models'
 import { withTransaction } from '../../db/sql'
 import { getFile, putFile } from '../../storage'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { safeFileName } from '../receiving'
 import { assertText, parseBenchCsv } from './benchCsv'
@@ -58,12 +58,11 @@ export async function uploadBenchFile(
       },
       { transaction },
     )
-    await recordAudit(
+    await auditAction(
       actor,
+      'import.upload',
+      created.id,
       {
-        action: 'import.upload',
-        entity: 'import',
-        entityId: created.id,
         after: {
           station: station.code,
           filename,

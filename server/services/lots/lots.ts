@@ -1,4 +1,4 @@
-import { Op, UniqueConstraintError } from 'sequelize'
+import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { FINISHED_UNIT_STATES, OPEN_UNIT_STATES } from '../../../shared/lots'
 import type { UnitState } from '../../../shared/lots'
@@ -12,7 +12,7 @@ import type {
 } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
 import { Lot, Product, Revision, RouteStep, Unit } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, auditCreated, auditedUpdate, conflictOnDuplicate } from '../admin'
 import type { Actor } from '../admin'
 import { lotPrintFilename, requestDocument, toDocumentDto } from '../documents'
 import { customerForLot } from '../shipping'
@@ -97,56 +97,43 @@ export async function createLot(
   /** When the lot was planned, if not now: the demo seed's clock. */
   at?: Date,
 ): Promise<LotDto> {
-  try {
-    return await withTransaction(async (transaction) => {
-      const rev = await Revision.findByPk(input.revisionId, { transaction })
-      if (!rev)
-        throw AppError.badRequest('revisionId: no such revision', {
-          revisionId: 'no such revision',
-        })
-      if (rev.status !== 'released')
-        throw AppError.badRequest(
-          `revisionId: revision ${rev.letter} is ${rev.status}; lots are built to a released revision`,
-          {
-            revisionId: 'choose a released revision',
-          },
-        )
-      const [seq] = await select<{ n: string }>(`SELECT nextval('lot_number_seq') AS n`, {
-        transaction,
+  return withTransaction(async (transaction) => {
+    const rev = await Revision.findByPk(input.revisionId, { transaction })
+    if (!rev)
+      throw AppError.badRequest('revisionId: no such revision', {
+        revisionId: 'no such revision',
       })
-      const number = input.number ?? `L-${String(seq!.n).padStart(4, '0')}`
-      // A linked customer's name wins over typed text, so the two never disagree.
-      const customerName = input.customerId
-        ? (await customerForLot(input.customerId, transaction)).name
-        : input.customerName
-      const lot = await Lot.create(
+    if (rev.status !== 'released')
+      throw AppError.badRequest(
+        `revisionId: revision ${rev.letter} is ${rev.status}; lots are built to a released revision`,
         {
-          ...input,
-          customerId: input.customerId ?? null,
-          customerName,
-          number,
-          releasedAt: null,
-          closedAt: null,
-          createdBy: actor.id,
-          ...(at ? { createdAt: at } : {}),
+          revisionId: 'choose a released revision',
         },
-        { transaction },
       )
-      const dto = await getLot(lot.id, transaction)
-      await recordAudit(
-        actor,
-        { action: 'lot.create', entity: 'lot', entityId: lot.id, after: dto, at },
-        transaction,
-      )
-      return dto
+    const [seq] = await select<{ n: string }>(`SELECT nextval('lot_number_seq') AS n`, {
+      transaction,
     })
-  } catch (err) {
-    if (err instanceof UniqueConstraintError)
-      throw AppError.conflict('duplicate', 'another lot has this number', {
-        number: 'already in use',
-      })
-    throw err
-  }
+    const number = input.number ?? `L-${String(seq!.n).padStart(4, '0')}`
+    // A linked customer's name wins over typed text, so the two never disagree.
+    const customerName = input.customerId
+      ? (await customerForLot(input.customerId, transaction)).name
+      : input.customerName
+    const lot = await Lot.create(
+      {
+        ...input,
+        customerId: input.customerId ?? null,
+        customerName,
+        number,
+        releasedAt: null,
+        closedAt: null,
+        createdBy: actor.id,
+        ...(at ? { createdAt: at } : {}),
+      },
+      { transaction },
+    )
+    const dto = await getLot(lot.id, transaction)
+    return auditCreated(actor, 'lot.create', lot.id, dto, transaction, at)
+  }).catch(conflictOnDuplicate('another lot has this number', { number: 'already in use' }))
 }
 
 /** Changes a lot while it is still planned. */
@@ -165,18 +152,17 @@ export async function updateLot(id: string, input: LotUpdateInput, actor: Actor)
           revisionId: 'choose a released revision',
         })
     }
-    const before = await getLot(id, transaction)
     const change = { ...input }
     if (input.customerId)
       change.customerName = (await customerForLot(input.customerId, transaction)).name
-    await lot.update(change, { transaction })
-    const after = await getLot(id, transaction)
-    await recordAudit(
+    return auditedUpdate(
       actor,
-      { action: 'lot.update', entity: 'lot', entityId: id, ...changedFields(before, after) },
+      'lot.update',
+      id,
       transaction,
+      () => getLot(id, transaction),
+      () => lot.update(change, { transaction }),
     )
-    return after
   })
 }
 
@@ -219,16 +205,12 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       { transaction },
     )
     await lot.update({ status: 'released', releasedAt: now }, { transaction })
-    await recordAudit(
+    const after = { status: 'released', serials: [serials[0], serials.at(-1)] }
+    await auditAction(
       actor,
-      {
-        action: 'lot.release',
-        entity: 'lot',
-        entityId: id,
-        at: now,
-        before: { status: 'planned' },
-        after: { status: 'released', serials: [serials[0], serials.at(-1)] },
-      },
+      'lot.release',
+      id,
+      { before: { status: 'planned' }, after, at: now },
       transaction,
     )
     await requestDocument(
@@ -277,18 +259,22 @@ export async function holdLot(id: string, reason: string, actor: Actor): Promise
         },
         { transaction },
       )
-    await recordAudit(
-      actor,
-      {
-        action: 'lot.hold',
-        entity: 'lot',
-        entityId: id,
-        after: { reason, units: units.map((u) => u.serial) },
-      },
-      transaction,
-    )
-    return getLot(id, transaction)
+    return heldOrFreed(actor, 'lot.hold', id, reason, units, transaction)
   })
+}
+
+/** Audits a lot's hold put on or lifted, with the units it moved, and returns the lot. */
+async function heldOrFreed(
+  actor: Actor,
+  action: string,
+  id: string,
+  reason: string,
+  units: Unit[],
+  transaction: Transaction,
+): Promise<LotDto> {
+  const after = { reason, units: units.map((u) => u.serial) }
+  await auditAction(actor, action, id, { after }, transaction)
+  return getLot(id, transaction)
 }
 
 /** Lifts a lot's hold; units it held go back to where they were, others stay as they are. */
@@ -304,17 +290,7 @@ export async function unholdLot(id: string, reason: string, actor: Actor): Promi
         { state: u.heldFromState ?? 'queued', heldFromState: null, holdKind: null, holdReason: '' },
         { transaction },
       )
-    await recordAudit(
-      actor,
-      {
-        action: 'lot.unhold',
-        entity: 'lot',
-        entityId: id,
-        after: { reason, units: units.map((u) => u.serial) },
-      },
-      transaction,
-    )
-    return getLot(id, transaction)
+    return heldOrFreed(actor, 'lot.unhold', id, reason, units, transaction)
   })
 }
 
@@ -334,11 +310,7 @@ export async function closeLot(id: string, actor: Actor, at = new Date()): Promi
         `lot ${lot.number} still has ${open} unit(s) on the floor`,
       )
     await lot.update({ status: 'closed', closedAt: at }, { transaction })
-    await recordAudit(
-      actor,
-      { action: 'lot.close', entity: 'lot', entityId: id, after: { status: 'closed' }, at },
-      transaction,
-    )
+    await auditAction(actor, 'lot.close', id, { after: { status: 'closed' }, at }, transaction)
     return getLot(id, transaction)
   })
 }

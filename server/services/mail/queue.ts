@@ -1,9 +1,7 @@
 import { env } from '../../env'
-import { Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { logger } from '../../logger'
-import { redisPrefix } from '../../redis'
-import { jobLocks, makeProducer } from '../../queue'
+import { makeProducer, startRowWorker } from '../../queue'
+import type { RowWorker } from '../../queue'
 import { failEmail, pendingEmailIds, sendEmail } from './mailDelivery'
 
 /** The queue the mail worker (below) takes e-mails to send from. */
@@ -41,8 +39,6 @@ export async function enqueueMail(emailId: string): Promise<void> {
 
 export const closeMailQueue = producer.close
 
-const SWEEP_EVERY_MS = 60_000
-
 /** Enqueues again every e-mail left `queued` (its job was lost while Redis was down). */
 export async function sweepMail(olderThanMs = 120_000): Promise<number> {
   const ids = await pendingEmailIds(new Date(), olderThanMs)
@@ -51,28 +47,14 @@ export async function sweepMail(olderThanMs = 120_000): Promise<number> {
 }
 
 /** Sends queued e-mails; the row records each attempt, the result and, at the end, any failure. */
-export function startMailWorker(connection: Redis): {
-  worker: Worker<MailJob>
-  stop: () => void
-  sweepNow: () => void
-} {
-  const worker = new Worker<MailJob>(MAIL_QUEUE, (job) => sendEmail(job.data.emailId), {
+export function startMailWorker(connection: Redis): RowWorker<MailJob> {
+  return startRowWorker<MailJob>({
+    queue: MAIL_QUEUE,
     connection,
-    prefix: redisPrefix,
     concurrency: 2,
-    ...jobLocks(),
+    run: (job) => sendEmail(job.data.emailId),
+    fail: (data, message) => failEmail(data.emailId, message),
+    sweep: sweepMail,
+    what: 'e-mail',
   })
-  worker.on('failed', (job, err) => {
-    if (job && job.attemptsMade >= (job.opts.attempts ?? 1))
-      failEmail(job.data.emailId, err.message).catch((e: unknown) =>
-        logger.error({ err: e, emailId: job.data.emailId }, 'could not mark e-mail failed'),
-      )
-  })
-  const sweep = (olderThanMs?: number) =>
-    void sweepMail(olderThanMs).catch((err: unknown) => logger.warn({ err }, 'mail sweep failed'))
-  sweep() // on start-up: pick up what was queued while no worker or no Redis was there
-  const timer = setInterval(sweep, SWEEP_EVERY_MS)
-  timer.unref()
-  // Redis is back: a queued row's job was lost or still waits (the job id dedupes), whatever its age.
-  return { worker, stop: () => clearInterval(timer), sweepNow: () => sweep(0) }
 }

@@ -11,7 +11,7 @@ import type {
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
 import { ComponentLot, Lot, RouteStep, Unit } from '../../models'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { containedUnitIds, moveComponentLotStatus } from '../receiving'
 import { verifyCountersign } from '../auth'
@@ -141,24 +141,23 @@ export async function endContainment(
         await unit.update({ holdReason }, { transaction })
         stillHeld.push({ serial: unit.serial, reason: holdReason })
       }
-      await recordAudit(
+      await auditAction(
         actor,
+        isCleared && others.length === 0 ? 'unit.release' : 'unit.hold_reason',
+        unit.id,
         {
-          action: isCleared && others.length === 0 ? 'unit.release' : 'unit.hold_reason',
-          entity: 'unit',
-          entityId: unit.id,
           before,
           after: { serial: unit.serial, state: unit.state, holdReason: unit.holdReason },
         },
         transaction,
+        'unit',
       )
     }
-    await recordAudit(
+    await auditAction(
       actor,
+      'component_lot.end_containment',
+      lot.id,
       {
-        action: 'component_lot.end_containment',
-        entity: 'component_lot',
-        entityId: lot.id,
         before: { status: 'quarantined' },
         after: { outcome: input.outcome, reason: input.reason, released, stillHeld },
       },
@@ -282,12 +281,11 @@ export async function decideContainedUnit(
         ).id
       await unit.update(releasedFields(unit), { transaction })
     }
-    await recordAudit(
+    await auditAction(
       actor,
+      'unit.containment_decision',
+      unit.id,
       {
-        action: 'unit.containment_decision',
-        entity: 'unit',
-        entityId: unit.id,
         before,
         after: {
           serial: unit.serial,

@@ -1,7 +1,7 @@
 import type { DispositionInput, NonconformanceDto } from '../../../shared/schemas/lots'
 import { AppError } from '../../errors'
 import { Lot, Nonconformance, RouteStep, StepRun, Unit } from '../../models'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { verifyCountersign } from '../auth'
 import { reworkTarget, scrapUnit, sendToRework, stepAfter } from '../units'
@@ -168,12 +168,11 @@ export async function disposeNonconformance(
       },
       { transaction },
     )
-    await recordAudit(
+    await auditAction(
       actor,
+      'nonconformance.dispose',
+      id,
       {
-        action: 'nonconformance.dispose',
-        entity: 'nonconformance',
-        entityId: id,
         at,
         before: { state: 'on_hold' },
         after: {

@@ -14,7 +14,7 @@ import type {
 } from '../../../shared/schemas/componentLots'
 import { AppError } from '../../errors'
 import { ComponentLot, Part, Supplier, Upload } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, auditCreated, auditedUpdate } from '../admin'
 import type { Actor } from '../admin'
 import { CERTIFICATE_MAX_BYTES, CERTIFICATE_TYPES, storeUpload, toUploadDto } from './uploads'
 import { findOrAddSupplier } from './suppliers'
@@ -157,12 +157,7 @@ export async function receiveComponentLot(
       { transaction },
     )
     const dto = toComponentLotDto(await loadLot(lot.id, transaction))
-    await recordAudit(
-      actor,
-      { action: 'component_lot.receive', entity: 'component_lot', entityId: lot.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'component_lot.receive', lot.id, dto, transaction)
   })
 }
 
@@ -177,7 +172,6 @@ export async function updateComponentLot(
 ): Promise<ComponentLotDto> {
   return withTransaction(async (transaction) => {
     const lot = await loadLot(id, transaction, true)
-    const before = toComponentLotDto(lot)
     if (input.quantityRemaining !== undefined && input.quantityRemaining > lot.quantityReceived)
       throw AppError.badRequest('quantityRemaining: more than was received', {
         quantityRemaining: 'more than was received',
@@ -187,27 +181,24 @@ export async function updateComponentLot(
         expiresOn: 'before the date received',
       })
     const { supplierName: typed, ...fields } = input
-    lot.set(fields)
-    if (typed !== undefined) {
-      const { supplier } = await findOrAddSupplier(typed, actor, transaction)
-      lot.supplierId = supplier.id
-      lot.supplier = supplier
-    }
-    if (lot.quantityRemaining === 0 && lot.status === 'available') lot.status = 'used_up'
-    if (lot.quantityRemaining > 0 && lot.status === 'used_up') lot.status = 'available'
-    await lot.save({ transaction })
-    const after = toComponentLotDto(lot)
-    await recordAudit(
+    return auditedUpdate(
       actor,
-      {
-        action: 'component_lot.update',
-        entity: 'component_lot',
-        entityId: id,
-        ...changedFields(before, after),
-      },
+      'component_lot.update',
+      id,
       transaction,
+      () => toComponentLotDto(lot),
+      async () => {
+        lot.set(fields)
+        if (typed !== undefined) {
+          const { supplier } = await findOrAddSupplier(typed, actor, transaction)
+          lot.supplierId = supplier.id
+          lot.supplier = supplier
+        }
+        if (lot.quantityRemaining === 0 && lot.status === 'available') lot.status = 'used_up'
+        if (lot.quantityRemaining > 0 && lot.status === 'used_up') lot.status = 'available'
+        return lot.save({ transaction })
+      },
     )
-    return after
   })
 }
 
@@ -274,17 +265,8 @@ export async function moveComponentLotStatus(
     )
   // Rejecting a lot that awaits inspection is the inspection's end too.
   await lot.update({ status: input.status, awaitsInspection: false }, { transaction })
-  await recordAudit(
-    actor,
-    {
-      action: 'component_lot.status',
-      entity: 'component_lot',
-      entityId: id,
-      before: { status: from },
-      after: { status: input.status, reason: input.reason },
-    },
-    transaction,
-  )
+  const change = { before: { status: from }, after: { status: input.status, reason: input.reason } }
+  await auditAction(actor, 'component_lot.status', id, change, transaction)
   return toComponentLotDto(lot)
 }
 
@@ -302,17 +284,8 @@ export async function attachCertificate(
     const before = lot.certificate ? toUploadDto(lot.certificate) : null
     await lot.update({ certificateUploadId: upload.id }, { transaction })
     lot.certificate = upload
-    await recordAudit(
-      actor,
-      {
-        action: 'component_lot.certificate',
-        entity: 'component_lot',
-        entityId: id,
-        before: { certificate: before },
-        after: { certificate: toUploadDto(upload) },
-      },
-      transaction,
-    )
+    const change = { before: { certificate: before }, after: { certificate: toUploadDto(upload) } }
+    await auditAction(actor, 'component_lot.certificate', id, change, transaction)
     return toComponentLotDto(lot)
   })
 }
@@ -360,12 +333,11 @@ export async function inspectComponentLot(
       { transaction },
     )
     const after = toComponentLotDto(lot)
-    await recordAudit(
+    await auditAction(
       actor,
+      'component_lot.inspection',
+      id,
       {
-        action: 'component_lot.inspection',
-        entity: 'component_lot',
-        entityId: id,
         before: { status: before.status, awaitsInspection: true },
         after: {
           decision: input.decision,

@@ -2,10 +2,10 @@ import type { Transaction } from 'sequelize'
 import type { BomLineDto, BomLineInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { BomLine, Part, RouteStep } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, auditedUpdate } from '../admin'
 import type { Actor } from '../admin'
 import { toBomLineDto } from './recipePresenters'
-import { lockDraftRevision } from './revisionAccess'
+import { editableRecipePiece, lockDraftRevision } from './revisionAccess'
 import { withTransaction } from '../../db/sql'
 
 async function withPart(line: BomLine, transaction: Transaction): Promise<BomLineDto> {
@@ -52,25 +52,19 @@ export async function createBomLine(
     const position = (await BomLine.count({ where: { revisionId }, transaction })) + 1
     const line = await BomLine.create({ ...input, revisionId, position }, { transaction })
     const dto = await withPart(line, transaction)
-    await recordAudit(
+    await auditAction(
       actor,
-      {
-        action: 'bom_line.create',
-        entity: 'bom_line',
-        entityId: line.id,
-        after: { revisionId, ...dto },
-      },
+      'bom_line.create',
+      line.id,
+      { after: { revisionId, ...dto } },
       transaction,
     )
     return dto
   })
 }
 
-async function editableLine(id: string, transaction: Transaction): Promise<BomLine> {
-  const line = await BomLine.findByPk(id, { transaction })
-  if (!line) throw AppError.notFound(`bill of materials line ${id}`)
-  await lockDraftRevision(line.revisionId, transaction)
-  return line
+function editableLine(id: string, transaction: Transaction): Promise<BomLine> {
+  return editableRecipePiece(BomLine, id, 'bill of materials line', transaction)
 }
 
 /** Changes a line of a draft's bill of materials. */
@@ -82,20 +76,14 @@ export async function updateBomLine(
   return withTransaction(async (transaction) => {
     const line = await editableLine(id, transaction)
     await checkRefs(line.revisionId, input, transaction)
-    const before = await withPart(line, transaction)
-    await line.update(input, { transaction })
-    const after = await withPart(line, transaction)
-    await recordAudit(
+    return auditedUpdate(
       actor,
-      {
-        action: 'bom_line.update',
-        entity: 'bom_line',
-        entityId: id,
-        ...changedFields(before, after),
-      },
+      'bom_line.update',
+      id,
       transaction,
+      () => withPart(line, transaction),
+      () => line.update(input, { transaction }),
     )
-    return after
   })
 }
 
@@ -105,10 +93,6 @@ export async function deleteBomLine(id: string, actor: Actor): Promise<void> {
     const line = await editableLine(id, transaction)
     const before = await withPart(line, transaction)
     await line.destroy({ transaction })
-    await recordAudit(
-      actor,
-      { action: 'bom_line.delete', entity: 'bom_line', entityId: id, before },
-      transaction,
-    )
+    await auditAction(actor, 'bom_line.delete', id, { before }, transaction)
   })
 }

@@ -1,29 +1,16 @@
-import { UniqueConstraintError } from 'sequelize'
-import type { Transaction } from 'sequelize'
 import { checkLimitProblems } from '../../../shared/checkRules'
 import type { CheckDto, CheckInput, CheckUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Check, RouteStep } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, auditCreated, conflictOnDuplicate, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { toCheckDto } from './recipePresenters'
-import { lockDraftRevision } from './revisionAccess'
+import { editableRecipePiece } from './revisionAccess'
 import { withTransaction } from '../../db/sql'
 
-function duplicateKey(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another check of this revision has this key', {
-      key: 'already used in this revision',
-    })
-  throw err
-}
-
-async function editableCheck(checkId: string, transaction: Transaction): Promise<Check> {
-  const check = await Check.findByPk(checkId, { transaction })
-  if (!check) throw AppError.notFound(`check ${checkId}`)
-  await lockDraftRevision(check.revisionId, transaction)
-  return check
-}
+const duplicateKey = conflictOnDuplicate('another check of this revision has this key', {
+  key: 'already used in this revision',
+})
 
 /** Adds a check at the end of a step's list. */
 export async function createCheck(
@@ -32,21 +19,13 @@ export async function createCheck(
   actor: Actor,
 ): Promise<CheckDto> {
   return withTransaction(async (transaction) => {
-    const step = await RouteStep.findByPk(stepId, { transaction })
-    if (!step) throw AppError.notFound(`step ${stepId}`)
-    await lockDraftRevision(step.revisionId, transaction)
+    const step = await editableRecipePiece(RouteStep, stepId, 'step', transaction)
     const position = (await Check.count({ where: { stepId }, transaction })) + 1
     const check = await Check.create(
       { ...input, stepId, revisionId: step.revisionId, position },
       { transaction },
     )
-    const dto = toCheckDto(check)
-    await recordAudit(
-      actor,
-      { action: 'check.create', entity: 'check', entityId: check.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'check.create', check.id, toCheckDto(check), transaction)
   }).catch(duplicateKey)
 }
 
@@ -57,35 +36,21 @@ export async function updateCheck(
   actor: Actor,
 ): Promise<CheckDto> {
   return withTransaction(async (transaction) => {
-    const check = await editableCheck(checkId, transaction)
-    const before = toCheckDto(check)
-    const merged = { ...before, ...input }
-    const problems = checkLimitProblems(merged)
+    const check = await editableRecipePiece(Check, checkId, 'check', transaction)
+    const problems = checkLimitProblems({ ...toCheckDto(check), ...input })
     if (problems.length)
       throw AppError.badRequest(
         `${problems[0]!.field}: ${problems[0]!.message}`,
         Object.fromEntries(problems.map((p) => [p.field, p.message])),
       )
-    await check.update(input, { transaction })
-    const after = toCheckDto(check)
-    await recordAudit(
-      actor,
-      {
-        action: 'check.update',
-        entity: 'check',
-        entityId: checkId,
-        ...changedFields(before, after),
-      },
-      transaction,
-    )
-    return after
+    return updateAudited(actor, 'check.update', check, input, toCheckDto, transaction)
   }).catch(duplicateKey)
 }
 
 /** Removes a check and closes the gap in its step's positions. */
 export async function deleteCheck(checkId: string, actor: Actor): Promise<void> {
   await withTransaction(async (transaction) => {
-    const check = await editableCheck(checkId, transaction)
+    const check = await editableRecipePiece(Check, checkId, 'check', transaction)
     const before = toCheckDto(check)
     await check.destroy({ transaction })
     const rest = await Check.findAll({
@@ -95,10 +60,6 @@ export async function deleteCheck(checkId: string, actor: Actor): Promise<void> 
     })
     for (const [i, c] of rest.entries())
       if (c.position !== i + 1) await c.update({ position: i + 1 }, { transaction })
-    await recordAudit(
-      actor,
-      { action: 'check.delete', entity: 'check', entityId: checkId, before },
-      transaction,
-    )
+    await auditAction(actor, 'check.delete', checkId, { before }, transaction)
   })
 }

@@ -1,8 +1,6 @@
-import { UniqueConstraintError } from 'sequelize'
 import type { DefectCodeDto, DefectCodeInput } from '../../../shared/schemas/recipes'
-import { AppError } from '../../errors'
 import { DefectCode } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { withTransaction } from '../../db/sql'
 
@@ -16,13 +14,9 @@ function toDto(d: DefectCode): DefectCodeDto {
   }
 }
 
-function duplicateCode(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another defect code has this code', {
-      code: 'already in use',
-    })
-  throw err
-}
+const duplicateCode = conflictOnDuplicate('another defect code has this code', {
+  code: 'already in use',
+})
 
 /** Every defect code, by code. */
 export async function listDefectCodes(): Promise<DefectCodeDto[]> {
@@ -36,13 +30,7 @@ export async function createDefectCode(
 ): Promise<DefectCodeDto> {
   return withTransaction(async (transaction) => {
     const row = await DefectCode.create(input, { transaction })
-    const dto = toDto(row)
-    await recordAudit(
-      actor,
-      { action: 'defect_code.create', entity: 'defect_code', entityId: row.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'defect_code.create', row.id, toDto(row), transaction)
   }).catch(duplicateCode)
 }
 
@@ -53,21 +41,7 @@ export async function updateDefectCode(
   actor: Actor,
 ): Promise<DefectCodeDto> {
   return withTransaction(async (transaction) => {
-    const row = await DefectCode.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!row) throw AppError.notFound(`defect code ${id}`)
-    const before = toDto(row)
-    await row.update(input, { transaction })
-    const after = toDto(row)
-    await recordAudit(
-      actor,
-      {
-        action: 'defect_code.update',
-        entity: 'defect_code',
-        entityId: id,
-        ...changedFields(before, after),
-      },
-      transaction,
-    )
-    return after
+    const row = await findOr404(DefectCode, id, 'defect code', transaction, true)
+    return updateAudited(actor, 'defect_code.update', row, input, toDto, transaction)
   }).catch(duplicateCode)
 }

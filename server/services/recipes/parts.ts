@@ -1,9 +1,9 @@
-import { Op, UniqueConstraintError } from 'sequelize'
+import { Op } from 'sequelize'
 import type { PartDto, PartInput } from '../../../shared/schemas/recipes'
 import type { PageDto, PartQuery } from '../../../shared/schemas/componentLots'
-import { AppError } from '../../errors'
 import { Part } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { AppError } from '../../errors'
+import { auditCreated, auditedUpdate, conflictOnDuplicate, findOr404 } from '../admin'
 import type { Actor } from '../admin'
 import { withTransaction } from '../../db/sql'
 
@@ -27,13 +27,9 @@ function checkShelfLife(part: { hasExpiry: boolean; shelfLifeDays: number | null
     })
 }
 
-function duplicateNumber(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another part has this part number', {
-      partNumber: 'already in use',
-    })
-  throw err
-}
+const duplicateNumber = conflictOnDuplicate('another part has this part number', {
+  partNumber: 'already in use',
+})
 
 /** A page of parts, searched by part number or description, sorted on the server. */
 export async function listParts(q: PartQuery): Promise<PageDto<PartDto>> {
@@ -59,13 +55,7 @@ export async function createPart(input: PartInput, actor: Actor): Promise<PartDt
   checkShelfLife({ hasExpiry: input.hasExpiry, shelfLifeDays: input.shelfLifeDays ?? null })
   return withTransaction(async (transaction) => {
     const part = await Part.create(input, { transaction })
-    const dto = toPartDto(part)
-    await recordAudit(
-      actor,
-      { action: 'part.create', entity: 'part', entityId: part.id, after: dto },
-      transaction,
-    )
-    return dto
+    return auditCreated(actor, 'part.create', part.id, toPartDto(part), transaction)
   }).catch(duplicateNumber)
 }
 
@@ -79,20 +69,21 @@ export async function updatePart(
   actor: Actor,
 ): Promise<PartDto> {
   return withTransaction(async (transaction) => {
-    const part = await Part.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!part) throw AppError.notFound(`part ${id}`)
-    const before = toPartDto(part)
-    part.set(input)
-    // A part that stops expiring loses its shelf life unless the same request sets one.
-    if (input.hasExpiry === false && input.shelfLifeDays === undefined) part.shelfLifeDays = null
-    checkShelfLife(part)
-    await part.save({ transaction })
-    const after = toPartDto(part)
-    await recordAudit(
+    const part = await findOr404(Part, id, 'part', transaction, true)
+    return auditedUpdate(
       actor,
-      { action: 'part.update', entity: 'part', entityId: id, ...changedFields(before, after) },
+      'part.update',
+      id,
       transaction,
+      () => toPartDto(part),
+      () => {
+        part.set(input)
+        // A part that stops expiring loses its shelf life unless the same request sets one.
+        if (input.hasExpiry === false && input.shelfLifeDays === undefined)
+          part.shelfLifeDays = null
+        checkShelfLife(part)
+        return part.save({ transaction })
+      },
     )
-    return after
   }).catch(duplicateNumber)
 }

@@ -1,4 +1,3 @@
-import { UniqueConstraintError } from 'sequelize'
 import type {
   ProductCreateInput,
   ProductDto,
@@ -6,7 +5,7 @@ import type {
 } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Product, Revision } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditCreated, conflictOnDuplicate, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { withTransaction } from '../../db/sql'
 
@@ -37,35 +36,21 @@ export async function listProducts(includeDrafts: boolean): Promise<ProductDto[]
 
 /** Adds a product with an empty draft revision A to start its recipe in. */
 export async function createProduct(input: ProductCreateInput, actor: Actor): Promise<ProductDto> {
-  try {
-    return await withTransaction(async (transaction) => {
-      const product = await Product.create(input, { transaction })
-      const rev = await Revision.create(
-        {
-          productId: product.id,
-          letter: 'A',
-          copiedFromId: null,
-          releasedAt: null,
-          releasedBy: null,
-        },
-        { transaction },
-      )
-      product.revisions = [rev]
-      const dto = toProductDto(product)
-      await recordAudit(
-        actor,
-        { action: 'product.create', entity: 'product', entityId: product.id, after: dto },
-        transaction,
-      )
-      return dto
-    })
-  } catch (err) {
-    if (err instanceof UniqueConstraintError)
-      throw AppError.conflict('duplicate', 'another product has this code', {
-        code: 'already in use',
-      })
-    throw err
-  }
+  return withTransaction(async (transaction) => {
+    const product = await Product.create(input, { transaction })
+    const rev = await Revision.create(
+      {
+        productId: product.id,
+        letter: 'A',
+        copiedFromId: null,
+        releasedAt: null,
+        releasedBy: null,
+      },
+      { transaction },
+    )
+    product.revisions = [rev]
+    return auditCreated(actor, 'product.create', product.id, toProductDto(product), transaction)
+  }).catch(conflictOnDuplicate('another product has this code', { code: 'already in use' }))
 }
 
 /** Changes a product's name or description; the code is fixed because serials carry it. */
@@ -80,19 +65,6 @@ export async function updateProduct(
       transaction,
     })
     if (!product) throw AppError.notFound(`product ${id}`)
-    const before = toProductDto(product)
-    await product.update(input, { transaction })
-    const after = toProductDto(product)
-    await recordAudit(
-      actor,
-      {
-        action: 'product.update',
-        entity: 'product',
-        entityId: id,
-        ...changedFields(before, after),
-      },
-      transaction,
-    )
-    return after
+    return updateAudited(actor, 'product.update', product, input, toProductDto, transaction)
   })
 }

@@ -1,7 +1,8 @@
-import type { Transaction } from 'sequelize'
+import type { Model, ModelStatic, Transaction } from 'sequelize'
 import { can } from '../../../shared/permissions'
 import type { Role } from '../../../shared/roles'
 import { AppError } from '../../errors'
+import { findOr404 } from '../admin'
 import { BomLine, Check, Part, Product, Revision, RouteStep, User, Winding } from '../../models'
 
 /** The include that loads a revision with its whole recipe. */
@@ -45,4 +46,16 @@ export async function lockDraftRevision(id: string, transaction: Transaction): P
       `revision ${rev.letter} is ${rev.status} and frozen: make a new revision from it to change anything`,
     )
   return rev
+}
+
+/** A piece of a recipe (a step, check, winding or BOM line), its draft revision locked; or a 404. */
+export async function editableRecipePiece<M extends Model & { revisionId: string }>(
+  model: ModelStatic<M>,
+  id: string,
+  what: string,
+  transaction: Transaction,
+): Promise<M> {
+  const piece = await findOr404(model, id, what, transaction)
+  await lockDraftRevision(piece.revisionId, transaction)
+  return piece
 }

@@ -3,7 +3,7 @@ import { nextRevisionLetter } from '../../../shared/recipeDefinitions'
 import type { RevisionDto, RevisionUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Product, Revision } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, findOr404, statusMove, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { copyRecipe } from './revisionCopy'
 import { toRevisionDto } from './recipePresenters'
@@ -17,8 +17,7 @@ export async function getRevision(id: string): Promise<RevisionDto> {
 
 async function nextLetter(productId: string, transaction: Transaction): Promise<string> {
   // Lock the product so two engineers adding a revision at once do not pick the same letter.
-  const product = await Product.findByPk(productId, { transaction, lock: transaction.LOCK.UPDATE })
-  if (!product) throw AppError.notFound(`product ${productId}`)
+  await findOr404(Product, productId, 'product', transaction, true)
   const existing = await Revision.findAll({
     where: { productId },
     attributes: ['letter'],
@@ -36,14 +35,11 @@ export async function createRevision(productId: string, actor: Actor): Promise<R
       { transaction },
     )
     const dto = toRevisionDto(await loadRevision(rev.id, transaction))
-    await recordAudit(
+    await auditAction(
       actor,
-      {
-        action: 'revision.create',
-        entity: 'revision',
-        entityId: rev.id,
-        after: { productId, letter },
-      },
+      'revision.create',
+      rev.id,
+      { after: { productId, letter } },
       transaction,
     )
     return dto
@@ -58,25 +54,13 @@ export async function updateRevision(
 ): Promise<RevisionDto> {
   return withTransaction(async (transaction) => {
     const rev = await lockDraftRevision(id, transaction)
-    const fields = (r: Revision) => ({
-      notes: r.notes,
-      fpyThresholdPercent: r.fpyThresholdPercent,
-      workingVolts: r.workingVolts,
-      insulation: r.insulation,
+    const read = () => ({
+      notes: rev.notes,
+      fpyThresholdPercent: rev.fpyThresholdPercent,
+      workingVolts: rev.workingVolts,
+      insulation: rev.insulation,
     })
-    const before = fields(rev)
-    await rev.update(input, { transaction })
-    const after = fields(rev)
-    await recordAudit(
-      actor,
-      {
-        action: 'revision.update',
-        entity: 'revision',
-        entityId: id,
-        ...changedFields(before, after),
-      },
-      transaction,
-    )
+    await updateAudited(actor, 'revision.update', rev, input, read, transaction)
     return toRevisionDto(await loadRevision(id, transaction))
   })
 }
@@ -87,36 +71,22 @@ export async function deleteRevision(id: string, actor: Actor): Promise<void> {
     const rev = await lockDraftRevision(id, transaction)
     const dto = toRevisionDto(await loadRevision(id, transaction))
     await rev.destroy({ transaction })
-    await recordAudit(
-      actor,
-      { action: 'revision.delete', entity: 'revision', entityId: id, before: dto },
-      transaction,
-    )
+    await auditAction(actor, 'revision.delete', id, { before: dto }, transaction)
   })
 }
 
 /** Retires a released revision: no new lot may be made to it. */
 export async function obsoleteRevision(id: string, actor: Actor): Promise<RevisionDto> {
   return withTransaction(async (transaction) => {
-    const rev = await Revision.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!rev) throw AppError.notFound(`revision ${id}`)
+    const rev = await findOr404(Revision, id, 'revision', transaction, true)
     if (rev.status !== 'released')
       throw AppError.conflict(
         'not_released',
         `revision ${rev.letter} is ${rev.status}: only a released revision can be made obsolete`,
       )
     await rev.update({ status: 'obsolete' }, { transaction })
-    await recordAudit(
-      actor,
-      {
-        action: 'revision.obsolete',
-        entity: 'revision',
-        entityId: id,
-        before: { status: 'released' },
-        after: { status: 'obsolete' },
-      },
-      transaction,
-    )
+    const change = statusMove('released', 'obsolete')
+    await auditAction(actor, 'revision.obsolete', id, change, transaction)
     return toRevisionDto(await loadRevision(id, transaction))
   })
 }
@@ -141,16 +111,8 @@ export async function copyRevision(id: string, actor: Actor): Promise<RevisionDt
       { transaction },
     )
     await copyRecipe(source, copy.id, transaction)
-    await recordAudit(
-      actor,
-      {
-        action: 'revision.copy',
-        entity: 'revision',
-        entityId: copy.id,
-        after: { from: source.letter, letter },
-      },
-      transaction,
-    )
+    const after = { from: source.letter, letter }
+    await auditAction(actor, 'revision.copy', copy.id, { after }, transaction)
     return toRevisionDto(await loadRevision(copy.id, transaction))
   })
 }

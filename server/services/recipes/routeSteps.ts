@@ -2,10 +2,10 @@ import type { Transaction } from 'sequelize'
 import type { StepDto, StepInput, StepUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Check, RouteStep } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, changedFields } from '../admin'
 import type { Actor } from '../admin'
 import { toStepDto } from './recipePresenters'
-import { lockDraftRevision } from './revisionAccess'
+import { editableRecipePiece, lockDraftRevision } from './revisionAccess'
 import { withTransaction } from '../../db/sql'
 
 async function stepsOf(revisionId: string, transaction: Transaction): Promise<RouteStep[]> {
@@ -24,11 +24,8 @@ async function renumber(steps: RouteStep[], transaction: Transaction): Promise<v
 }
 
 /** Loads a step and locks its revision as an editable draft. */
-async function editableStep(stepId: string, transaction: Transaction): Promise<RouteStep> {
-  const step = await RouteStep.findByPk(stepId, { transaction })
-  if (!step) throw AppError.notFound(`step ${stepId}`)
-  await lockDraftRevision(step.revisionId, transaction)
-  return step
+function editableStep(stepId: string, transaction: Transaction): Promise<RouteStep> {
+  return editableRecipePiece(RouteStep, stepId, 'step', transaction)
 }
 
 /** Appends a step to the end of a draft's route. */
@@ -42,16 +39,8 @@ export async function createStep(
     const position = (await RouteStep.count({ where: { revisionId }, transaction })) + 1
     const step = await RouteStep.create({ ...input, revisionId, position }, { transaction })
     const dto = toStepDto(step, [])
-    await recordAudit(
-      actor,
-      {
-        action: 'step.create',
-        entity: 'route_step',
-        entityId: step.id,
-        after: { revisionId, ...dto },
-      },
-      transaction,
-    )
+    const after = { revisionId, ...dto }
+    await auditAction(actor, 'step.create', step.id, { after }, transaction, 'route_step')
     return dto
   })
 }
@@ -77,15 +66,8 @@ export async function updateStep(
       transaction,
     })
     const after = toStepDto(fresh!)
-    const { before: b, after: a } = changedFields(
-      { ...before, checks: [] },
-      { ...after, checks: [] },
-    )
-    await recordAudit(
-      actor,
-      { action: 'step.update', entity: 'route_step', entityId: stepId, before: b, after: a },
-      transaction,
-    )
+    const change = changedFields({ ...before, checks: [] }, { ...after, checks: [] })
+    await auditAction(actor, 'step.update', stepId, change, transaction, 'route_step')
     return after
   })
 }
@@ -97,11 +79,7 @@ export async function deleteStep(stepId: string, actor: Actor): Promise<void> {
     const before = toStepDto(step, await Check.findAll({ where: { stepId }, transaction }))
     await step.destroy({ transaction })
     await renumber(await stepsOf(step.revisionId, transaction), transaction)
-    await recordAudit(
-      actor,
-      { action: 'step.delete', entity: 'route_step', entityId: stepId, before },
-      transaction,
-    )
+    await auditAction(actor, 'step.delete', stepId, { before }, transaction, 'route_step')
   })
 }
 
@@ -126,17 +104,8 @@ export async function reorderSteps(
     const before = steps.map((s) => s.id)
     const ordered = stepIds.map((id) => byId.get(id)!)
     await renumber(ordered, transaction)
-    await recordAudit(
-      actor,
-      {
-        action: 'step.reorder',
-        entity: 'revision',
-        entityId: revisionId,
-        before: { order: before },
-        after: { order: stepIds },
-      },
-      transaction,
-    )
+    const change = { before: { order: before }, after: { order: stepIds } }
+    await auditAction(actor, 'step.reorder', revisionId, change, transaction, 'revision')
     return ordered.map((s) => toStepDto(s))
   })
 }

@@ -13,7 +13,7 @@ import type {
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
 import { DefectCode, Lot, RouteStep, ServiceCase, Unit } from '../../models'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { createShipment } from '../shipping'
 import { reworkTarget, sendToRework } from '../units'
@@ -241,12 +241,11 @@ export async function openServiceCase(
       { transaction },
     )
     await unit.update({ state: 'returned' }, { transaction })
-    await recordAudit(
+    await auditAction(
       actor,
+      'service_case.open',
+      sc.id,
       {
-        action: 'service_case.open',
-        entity: 'service_case',
-        entityId: sc.id,
         at,
         before: { unitState: 'shipped' },
         after: {
@@ -285,12 +284,11 @@ export async function updateServiceCase(
       })
     const before = { findings: sc.findings, defectCodeId: sc.defectCodeId }
     await sc.update(input, { transaction })
-    await recordAudit(
+    await auditAction(
       actor,
+      'service_case.update',
+      id,
       {
-        action: 'service_case.update',
-        entity: 'service_case',
-        entityId: id,
         before,
         after: { findings: sc.findings, defectCodeId: sc.defectCodeId },
       },
@@ -344,12 +342,11 @@ export async function closeServiceCase(
       reworkToStepId = target.id
       if (lot.status === 'closed') {
         await lot.update({ status: 'in_progress', closedAt: null }, { transaction })
-        await recordAudit(
+        await auditAction(
           actor,
+          'lot.reopen',
+          lot.id,
           {
-            action: 'lot.reopen',
-            entity: 'lot',
-            entityId: lot.id,
             before: { status: 'closed' },
             after: { status: 'in_progress', reason: `repair of ${unit.serial} (${sc.number})` },
           },
@@ -405,12 +402,11 @@ export async function closeServiceCase(
       },
       { transaction },
     )
-    await recordAudit(
+    await auditAction(
       actor,
+      'service_case.close',
+      id,
       {
-        action: 'service_case.close',
-        entity: 'service_case',
-        entityId: id,
         at: now,
         before: { status: 'open', unitState: 'returned' },
         after: {

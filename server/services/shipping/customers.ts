@@ -1,4 +1,3 @@
-import { UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import type {
   CustomerCreateInput,
@@ -7,7 +6,7 @@ import type {
 } from '../../../shared/schemas/shipping'
 import { AppError } from '../../errors'
 import { Customer } from '../../models'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { execute, select, withTransaction } from '../../db/sql'
 
@@ -55,33 +54,21 @@ export async function getCustomer(id: string, transaction?: Transaction): Promis
   return toDto(row)
 }
 
-function duplicateName(err: unknown): never {
-  if (err instanceof UniqueConstraintError)
-    throw AppError.conflict('duplicate', 'another customer has this name', {
-      name: 'already in use',
-    })
-  throw err
-}
+const duplicateName = conflictOnDuplicate('another customer has this name', {
+  name: 'already in use',
+})
 
 /** Adds a customer; names are unique regardless of case. */
 export async function createCustomer(
   input: CustomerCreateInput,
   actor: Actor,
 ): Promise<CustomerDto> {
-  try {
-    return await withTransaction(async (transaction) => {
-      const c = await Customer.create(input, { transaction })
-      const dto = await getCustomer(c.id, transaction)
-      await recordAudit(
-        actor,
-        { action: 'customer.create', entity: 'customer', entityId: c.id, after: input },
-        transaction,
-      )
-      return dto
-    })
-  } catch (err) {
-    duplicateName(err)
-  }
+  return withTransaction(async (transaction) => {
+    const c = await Customer.create(input, { transaction })
+    const dto = await getCustomer(c.id, transaction)
+    await auditAction(actor, 'customer.create', c.id, { after: input }, transaction)
+    return dto
+  }).catch(duplicateName)
 }
 
 /**
@@ -93,33 +80,24 @@ export async function updateCustomer(
   input: CustomerUpdateInput,
   actor: Actor,
 ): Promise<CustomerDto> {
-  try {
-    return await withTransaction(async (transaction) => {
-      const c = await Customer.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-      if (!c) throw AppError.notFound(`customer ${id}`)
-      const before = { name: c.name, contactEmail: c.contactEmail, address: c.address }
-      await c.update(input, { transaction })
-      const after = { name: c.name, contactEmail: c.contactEmail, address: c.address }
-      if (before.name !== after.name)
-        await execute('UPDATE lots SET customer_name = :name WHERE customer_id = :id', {
-          replacements: { name: c.name, id },
-          transaction,
-        })
-      await recordAudit(
-        actor,
-        {
-          action: 'customer.update',
-          entity: 'customer',
-          entityId: id,
-          ...changedFields(before, after),
-        },
+  return withTransaction(async (transaction) => {
+    const c = await findOr404(Customer, id, 'customer', transaction, true)
+    const oldName = c.name
+    await updateAudited(
+      actor,
+      'customer.update',
+      c,
+      input,
+      () => ({ name: c.name, contactEmail: c.contactEmail, address: c.address }),
+      transaction,
+    )
+    if (c.name !== oldName)
+      await execute('UPDATE lots SET customer_name = :name WHERE customer_id = :id', {
+        replacements: { name: c.name, id },
         transaction,
-      )
-      return getCustomer(id, transaction)
-    })
-  } catch (err) {
-    duplicateName(err)
-  }
+      })
+    return getCustomer(id, transaction)
+  }).catch(duplicateName)
 }
 
 /** The customer a lot names, or a 400 on `customerId` when there is none. */

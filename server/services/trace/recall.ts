@@ -12,7 +12,7 @@ import type {
 } from '../../../shared/schemas/trace'
 import { AppError } from '../../errors'
 import { ComponentLot, Email, Part, Supplier, Unit } from '../../models'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { moveComponentLotStatus } from '../receiving'
 import { writeCsv } from '../../csv'
@@ -214,12 +214,11 @@ export async function containComponentLot(
         { heldFromState: u.state, state: 'on_hold', holdKind: 'containment', holdReason },
         { transaction },
       )
-      await recordAudit(
+      await auditAction(
         actor,
+        'unit.hold',
+        u.id,
         {
-          action: 'unit.hold',
-          entity: 'unit',
-          entityId: u.id,
           at,
           before,
           after: { state: 'on_hold', serial: u.serial, reason: holdReason },
@@ -272,12 +271,11 @@ export async function containComponentLot(
       )
       drafts.push({ emailId: email.id, customerName: c.customerName, to: c.contactEmail, serials })
     }
-    await recordAudit(
+    await auditAction(
       actor,
+      'component_lot.contain',
+      found.id,
       {
-        action: 'component_lot.contain',
-        entity: 'component_lot',
-        entityId: found.id,
         at,
         after: { reason, held, alreadyHeld, quarantined, drafts: drafts.map((d) => d.emailId) },
       },

@@ -1,14 +1,10 @@
-import { createServer } from 'node:net'
-import type { Redis } from 'ioredis'
 import { describe, expect, it, vi } from 'vitest'
-import { startSmtpFake } from '../../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../../server/mail'
+import { setSmtpPortForTests } from '../../../server/mail'
 import { db, Email, User } from '../../../server/models'
-import { newQueueConnection } from '../../../server/redis'
-import { queueEmail, startMailWorker } from '../../../server/services/mail'
-import { closeMailQueue } from '../../../server/services/mail/queue'
+import { queueEmail } from '../../../server/services/mail'
 import { uniqueSuffix } from '../../api/support/client'
 import { demoEmail, openPage, signInAs, useE2eApp } from '../support/setup'
+import { closedPort, startMailRig } from '../../api/support/mailRig'
 
 // One attempt per e-mail, so a message to a relay that is down fails at once instead of after
 // the production back-off. Set before the server's settings are read, which imports do.
@@ -16,34 +12,17 @@ vi.hoisted(() => {
   process.env.WAYMARK_MAIL_ATTEMPTS = '1'
 })
 
-/** A loopback port nothing listens on: the mail relay is down. */
-async function closedPort(): Promise<number> {
-  const server = createServer()
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve))
-  const address = server.address()
-  await new Promise((resolve) => server.close(resolve))
-  return typeof address === 'object' && address ? address.port : 1
-}
-
 describe('Admin journey', () => {
-  let connection: Redis
-  let mail: ReturnType<typeof startMailWorker>
-  let relay: Awaited<ReturnType<typeof startSmtpFake>>
+  let rig: Awaited<ReturnType<typeof startMailRig>> | undefined
 
+  // The relay starts down: the mail transport points at a port nothing listens on.
   const e2e = useE2eApp({
     before: async () => {
+      rig = await startMailRig()
       setSmtpPortForTests(await closedPort())
-      relay = await startSmtpFake({ port: 0 })
-      connection = newQueueConnection()
-      mail = startMailWorker(connection)
     },
     after: async () => {
-      mail?.stop()
-      await mail?.worker.close()
-      await closeMailQueue()
-      await connection?.quit()
-      await relay?.close()
-      closeMail()
+      await rig?.stop()
     },
   })
 
@@ -72,7 +51,7 @@ describe('Admin journey', () => {
     expect(await problem.textContent()).toMatch(/ECONNREFUSED|connect/i)
 
     // The relay is back: the admin's home, the status page, offers the message again.
-    setSmtpPortForTests(relay.port)
+    setSmtpPortForTests(rig!.fake.port)
     await page.goto(`${e2e.app.baseUrl}/`)
     await page.waitForURL(/\/admin\/status$/)
     const mail = page.locator('.status__mail', { hasText: subject })

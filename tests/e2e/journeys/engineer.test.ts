@@ -10,7 +10,7 @@ import {
   unitWaitingAtStart,
 } from '../support/demo'
 import { scanTraveler } from '../support/floorDriver'
-import { callApi, openPage, signInAs, signInByApi, useE2eApp } from '../support/setup'
+import { callApi, openPageSignedIn, signInAs, signInByApi, useE2eApp } from '../support/setup'
 
 /** The limits the Floor shows beside a check of the open step. */
 async function limitsShown(page: Page, serial: string, key: string): Promise<string> {
@@ -22,12 +22,9 @@ describe('Engineer journey', () => {
   const e2e = useE2eApp()
 
   it('makes the next revision, tightens a limit, releases it; new lots use it, old units keep theirs', async () => {
-    const page = await openPage(e2e, 'journey-engineer')
-    await page.goto(`${e2e.app.baseUrl}/signin`)
-
     // The newest released revision of a demo product whose route starts at winding with a
     // numeric check between two limits, and a unit of it waiting there (set up as the lead).
-    await signInByApi(page, 'lead')
+    const page = await openPageSignedIn(e2e, 'journey-engineer', 'lead')
     const products = await callApi<ProductDto[]>(page, '/products')
     const isNewest = (r: RevisionDto) => {
       const letters = products.find((p) => p.id === r.productId)!.revisions.map((x) => x.letter)

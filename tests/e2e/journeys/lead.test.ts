@@ -11,7 +11,7 @@ import {
   stepRunBody,
   usableLotCodes,
 } from '../support/demo'
-import { callApi, openPage, signInAs, signInByApi, useE2eApp } from '../support/setup'
+import { callApi, openPageSignedIn, signInAs, signInByApi, useE2eApp } from '../support/setup'
 
 /** "<first passes> of <first attempts>" under a step's bar in the first-pass yield chart. */
 async function stepCounts(page: Page, lotNumber: string, stepName: string): Promise<string> {
@@ -28,11 +28,8 @@ describe('Lead journey', () => {
   const e2e = useE2eApp()
 
   it('sees a failed first attempt lower the step’s yield, sends the unit to rework, and the re-pass does not count as first', async () => {
-    const page = await openPage(e2e, 'journey-lead')
-    await page.goto(`${e2e.app.baseUrl}/signin`)
-
     // A new lot of two units of a demo product that starts at winding, for figures of its own.
-    await signInByApi(page, 'lead')
+    const page = await openPageSignedIn(e2e, 'journey-lead', 'lead')
     const isLimited = (c: CheckDto) =>
       c.kind === 'numeric' &&
       !c.derived &&

@@ -15,7 +15,7 @@ import {
   scanTraveler,
   typePassingReadings,
 } from '../support/floorDriver'
-import { callApi, openPage, signInByApi, signInHere, useE2eApp } from '../support/setup'
+import { callApi, openPageSignedIn, signInByApi, signInHere, useE2eApp } from '../support/setup'
 
 const ROUTE = DEMO_ROUTE
 
@@ -23,12 +23,9 @@ describe('Operator journey', () => {
   const e2e = useE2eApp()
 
   it('takes a unit through winding, soldering, hipot with a second signature, and load test', async () => {
-    const page = await openPage(e2e, 'journey-operator')
-    await page.goto(`${e2e.app.baseUrl}/signin`)
-
     // The lead's side, through the API: a demo product whose route has the four steps with lots
     // to fit at winding, a hipot that needs a second person, and a unit waiting at its start.
-    await signInByApi(page, 'lead')
+    const page = await openPageSignedIn(e2e, 'journey-operator', 'lead')
     const revision = (await revisionsWithRoute(page, ROUTE)).find(
       (r) =>
         r.bom.some((b) => b.fittedAtStepId === stepOf(r, 'winding').id) &&

@@ -1,17 +1,10 @@
-import type { Redis } from 'ioredis'
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
-import { startSmtpFake } from '../../../server/devMail/smtpFake'
-import { closeMail, setSmtpPortForTests } from '../../../server/mail'
-import { newQueueConnection } from '../../../server/redis'
-import { startDocumentsWorker } from '../../../server/services/documents'
-import { closeDocumentsQueue } from '../../../server/services/documents/queue'
-import { startMailWorker } from '../../../server/services/mail'
-import { closeMailQueue } from '../../../server/services/mail/queue'
 import type { OutboxPageDto } from '../../../shared/schemas/outbox'
 import type { ShipmentDto, ShipmentSummaryDto } from '../../../shared/schemas/shipping'
 import type { UnitTraceDto } from '../../../shared/schemas/trace'
 import { callApi, openPage, signInAs, useE2eApp } from '../support/setup'
+import { withMailWorkers } from '../support/mailWorkers'
 
 /**
  * A shipped unit no service case has taken back yet, from the newest shipment with a customer
@@ -28,31 +21,7 @@ async function shippedUnit(page: Page): Promise<{ serial: string; contact: strin
 }
 
 describe('Service journey', () => {
-  let fake: Awaited<ReturnType<typeof startSmtpFake>>
-  let connection: Redis
-  let documents: ReturnType<typeof startDocumentsWorker>
-  let mail: ReturnType<typeof startMailWorker>
-
-  const e2e = useE2eApp({
-    // The workers and the SMTP fake run in this process, as `npm start` runs them beside the app.
-    before: async () => {
-      fake = await startSmtpFake({ port: 0 })
-      setSmtpPortForTests(fake.port)
-      connection = newQueueConnection()
-      documents = startDocumentsWorker(connection)
-      mail = startMailWorker(connection)
-    },
-    after: async () => {
-      documents?.stop()
-      mail?.stop()
-      await Promise.all([documents?.worker.close(), mail?.worker.close()])
-      await closeDocumentsQueue()
-      await closeMailQueue()
-      await connection?.quit()
-      closeMail()
-      await fake?.close()
-    },
-  })
+  const e2e = useE2eApp(withMailWorkers())
 
   it('traces a shipped serial, e-mails its certificate and logs the customer’s return', async () => {
     const page = await openPage(e2e, 'journey-service')

@@ -9,18 +9,22 @@ import {
   unitWaitingAtStart,
 } from '../support/demo'
 import { scanTraveler } from '../support/floorDriver'
-import { callApi, openPage, signInAs, signInByApi, signInHere, useE2eApp } from '../support/setup'
+import {
+  callApi,
+  openPageSignedIn,
+  signInAs,
+  signInByApi,
+  signInHere,
+  useE2eApp,
+} from '../support/setup'
 
 describe('Stores journey', () => {
   const e2e = useE2eApp()
 
   it('quarantines a component lot in Receiving, and the Floor refuses to fit it', async () => {
-    const page = await openPage(e2e, 'journey-stores')
-    await page.goto(`${e2e.app.baseUrl}/signin`)
-
     // Set-up through the API: a unit waiting at winding (as the lead), and a delivery of the
     // part fitted first there, received by stores, so no other test fits from this lot.
-    await signInByApi(page, 'lead')
+    const page = await openPageSignedIn(e2e, 'journey-stores', 'lead')
     const revision = (await revisionsWithRoute(page, DEMO_ROUTE)).find(
       (r) => r.steps[0]!.stationKind === 'winding' && linesAt(r, r.steps[0]!).length > 0,
     )

@@ -100,6 +100,21 @@ export async function signInByApi(page: Page, role: DemoRole): Promise<void> {
 }
 
 /**
+ * A fresh tab (as openPage) on the sign-in page, signed in as `role` through the API: for a test
+ * that sets its data up through the API before it looks at a screen.
+ */
+export async function openPageSignedIn(
+  context: E2eContext,
+  name: string,
+  role: DemoRole,
+): Promise<Page> {
+  const page = await openPage(context, name)
+  await page.goto(`${context.app.baseUrl}/signin`)
+  await signInByApi(page, role)
+  return page
+}
+
+/**
  * Signs in through the form of the sign-in page the tab shows, as a person does, and waits
  * until the app has left that page.
  */

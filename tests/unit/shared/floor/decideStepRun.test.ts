@@ -8,6 +8,7 @@ import type {
 } from '../../../../shared/floor/decideStepRun'
 import type { LotToFit } from '../../../../shared/floor/componentLotRefusal'
 import type { CheckDto } from '../../../../shared/schemas/recipes'
+import { checkDto } from '../../support/checkDto'
 
 // No database: plain objects stand for what the scan reads. The expected words are the Floor's
 // own (common practice, no source); each computed value names where it comes from.
@@ -15,20 +16,7 @@ import type { CheckDto } from '../../../../shared/schemas/recipes'
 const at = new Date('2026-12-02T09:00:00Z')
 
 function check(over: Partial<CheckDto> & Pick<CheckDto, 'id' | 'key' | 'label'>): CheckDto {
-  return {
-    stepId: 'step-3',
-    position: 1,
-    kind: 'numeric',
-    unit: 'V',
-    nominal: null,
-    lower: null,
-    upper: null,
-    decimals: 2,
-    choices: null,
-    derived: null,
-    derivedInputs: null,
-    ...over,
-  }
+  return checkDto({ stepId: 'step-3', ...over })
 }
 
 const vin = check({ id: 'c-vin', key: 'vin', label: 'Input voltage' })

@@ -3,23 +3,9 @@ import { releaseBlockers, releaseProblems } from '../../../../shared/recipes/com
 import { nextRevisionLetter } from '../../../../shared/recipeDefinitions'
 import { checkLimitProblems } from '../../../../shared/checkRules'
 import type { CheckDto, StepDto } from '../../../../shared/schemas/recipes'
+import { checkDto } from '../../support/checkDto'
 
-const baseCheck: CheckDto = {
-  id: 'c',
-  stepId: 's',
-  position: 1,
-  key: 'v',
-  label: 'V',
-  kind: 'numeric',
-  unit: 'V',
-  nominal: 10,
-  lower: 9,
-  upper: 11,
-  decimals: 2,
-  choices: null,
-  derived: null,
-  derivedInputs: null,
-}
+const baseCheck: CheckDto = checkDto({ key: 'v', label: 'V', nominal: 10, lower: 9, upper: 11 })
 const step = (checks: CheckDto[]): StepDto => ({
   id: 's',
   position: 1,

@@ -6,25 +6,10 @@ import {
   overallVerdict,
 } from '../../../../shared/recipes/evaluate'
 import type { CheckDto, WindingDto } from '../../../../shared/schemas/recipes'
+import { checkDto } from '../../support/checkDto'
 
 function check(over: Partial<CheckDto>): CheckDto {
-  return {
-    id: over.key ?? 'id',
-    stepId: 's',
-    position: 1,
-    key: 'k',
-    label: 'L',
-    kind: 'numeric',
-    unit: 'V',
-    nominal: null,
-    lower: null,
-    upper: null,
-    decimals: 2,
-    choices: null,
-    derived: null,
-    derivedInputs: null,
-    ...over,
-  }
+  return checkDto({ id: over.key ?? 'id', ...over })
 }
 
 const secondary: WindingDto = {

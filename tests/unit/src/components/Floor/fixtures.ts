@@ -1,25 +1,21 @@
 import type { FloorUnitDto } from '@shared/schemas/lots'
 import type { BomLineDto, CheckDto, WindingDto } from '@shared/schemas/recipes'
+import { checkDto } from '../../../support/checkDto'
 
 /** A numeric check, as the winding step of the demo recipe has them. */
 export function numericCheck(overrides: Partial<CheckDto> = {}): CheckDto {
-  return {
+  return checkDto({
     id: 'c-la',
     stepId: 'step-1',
-    position: 1,
     key: 'l_primary_a',
     label: 'Inductance, primary A',
-    kind: 'numeric',
     unit: 'µH',
     nominal: 108,
     lower: 81,
     upper: 135,
     decimals: 1,
-    choices: null,
-    derived: null,
-    derivedInputs: null,
     ...overrides,
-  }
+  })
 }
 
 export const secondary: WindingDto = {

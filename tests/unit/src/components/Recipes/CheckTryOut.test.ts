@@ -1,26 +1,21 @@
 import { mount } from '@vue/test-utils'
 import { describe, expect, it } from 'vitest'
 import type { CheckDto, WindingDto } from '@shared/schemas/recipes'
+import { checkDto } from '../../../support/checkDto'
 import CheckTryOut from '@/components/Recipes/CheckTryOut.vue'
 
 function check(overrides: Partial<CheckDto>): CheckDto {
-  return {
+  return checkDto({
     id: 'c1',
     stepId: 's1',
-    position: 1,
     key: 'v_out',
     label: 'Output voltage',
-    kind: 'numeric',
-    unit: 'V',
     nominal: 350,
     lower: 345,
     upper: 355,
     decimals: 1,
-    choices: null,
-    derived: null,
-    derivedInputs: null,
     ...overrides,
-  }
+  })
 }
 
 const secondary: WindingDto = {
