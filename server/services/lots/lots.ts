@@ -235,6 +235,7 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       { kind: 'travelers', lotId: id, filename: lotPrintFilename(lot.number, 'travelers') },
       actor,
       transaction,
+      now,
     )
     await requestDocument(
       {
@@ -245,6 +246,7 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       },
       actor,
       transaction,
+      now,
     )
     return getLot(id, transaction)
   })

@@ -243,6 +243,7 @@ export async function createShipment(
       },
       actor,
       t,
+      at,
     )
     return getShipment(shipment.id, t)
   }
