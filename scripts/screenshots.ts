@@ -27,6 +27,11 @@ async function main(argv: string[]): Promise<number> {
   }
   const { config } = await startServices()
   const env = testRunEnv(config)
+  // The server reads its settings from process.env when its modules load: set them first.
+  Object.assign(process.env, env)
+  const { emptyLaneQueues, startMailFake } = await import('./lib/screenshotSetup')
+  // The lane's Redis outlives its database: empty it, so the Status page shows the demo's jobs.
+  console.log(`==> emptied this lane's queues (${await emptyLaneQueues()} jobs of earlier runs)`)
   const prepared = await prepareDatabase(config, env, ['--reset'], [])
   if (prepared !== 0) return prepared
   const built = await runStep('build client', config, bin(config, 'vite'), ['build'], {
@@ -35,14 +40,14 @@ async function main(argv: string[]): Promise<number> {
   })
   if (built !== 0) return built
 
-  // The server reads its settings from process.env when its modules load: set them first.
-  Object.assign(process.env, env)
   const { startAppServer } = await import('../tests/e2e/support/appServer')
   const { launchBrowser, waitForStillness } = await import('../tests/e2e/support/browser')
   const { SCREENS, findSubjects } = await import('./lib/screenshotScreens')
 
   console.log('\n==> screenshots')
   mkdirSync(OUT_DIR, { recursive: true })
+  // A mail fake in this process, so the Status page shows a mail relay (no worker sends).
+  const mail = await startMailFake()
   const app = await startAppServer()
   const browser = await launchBrowser()
   let failures = 0
@@ -66,6 +71,7 @@ async function main(argv: string[]): Promise<number> {
   } finally {
     await browser.close()
     await app.close()
+    await mail.close()
   }
   return failures === 0 ? 0 : 1
 }

@@ -2,10 +2,10 @@ import { db, Lot, Station, User } from '../models'
 import { recordAudit } from '../services/admin'
 import type { Actor } from '../services/admin'
 import { hashPassword } from '../services/auth'
-import { evaluateLotStep, lotStepsRunSince } from '../services/quality'
 import { DEMO_HASH_COST, DEMO_PASSWORD, DEMO_USERS } from './demoUsers'
 import { DEMO_STATIONS } from './demoStations'
 import { demoAnchor, demoClock } from './demoClock'
+import { DemoAlerts } from './demoAlerts'
 import { demoCast } from './demoFloor'
 import { SeriesMemory } from './demoReadings'
 import { loadDemoCustomers } from './demoShipping'
@@ -50,19 +50,6 @@ export async function loadPeopleAndFloor(): Promise<void> {
 }
 
 /**
- * Judges every lot step the story ran, as the alerts worker does after each scan, so the Yield
- * board is settled when the app first serves. The jobs the scans queued find nothing new to
- * raise afterwards: an alert is stored once.
- */
-async function settleAlerts(anchor: Date): Promise<number> {
-  let raised = 0
-  const since = new Date(anchor.getTime() - 120 * 86_400_000)
-  for (const { lotId, stepId } of await lotStepsRunSince(since))
-    raised += (await evaluateLotStep(lotId, stepId)).raised
-  return raised
-}
-
-/**
  * Loads the invented Ferncastle Power scenario (DESIGN.md §10): six weeks of working days before
  * `now`, through the services. Each part is skipped when its rows exist already, so running it
  * twice changes nothing. Returns false when `onlyIfEmpty` found users.
@@ -82,8 +69,18 @@ export async function loadDemo({
   const cast = await demoCast()
   await loadDemoCustomers(cast.lead)
   if ((await Lot.count()) === 0) {
-    await loadDemoStory({ clock: demoClock(anchor), cast, memory: new SeriesMemory() })
-    const alerts = await settleAlerts(anchor)
+    // Alerts are judged after each step run of the story, at its time, as the alerts worker
+    // would have: the Yield board is settled when the app first serves, and the jobs the scans
+    // queued find nothing new to raise afterwards (an alert is stored once).
+    const judged = new DemoAlerts()
+    await loadDemoStory({
+      clock: demoClock(anchor),
+      cast,
+      memory: new SeriesMemory(),
+      alerts: judged,
+    })
+    await judged.sendDigestsDue(new Date(anchor.getTime() - 1))
+    const alerts = judged.raised
     // The anchor the story's dates hang from, so a reader (or a test) can rebuild its calendar.
     await recordAudit(SEED_ACTOR, {
       action: 'demo.load',

@@ -126,10 +126,13 @@ export const LOT_PLANS: Record<keyof typeof DEMO_ORDER_REFS, Plan> = {
 }
 
 /**
- * The lots whose story should raise a quality alert: the miscount at WND-2, and the lot wound on
- * the suspect core lot (its inductances sit low). No other lot should have an open alert.
+ * The lots whose story may raise a quality alert: the miscount at WND-2, the hipot lot (its two
+ * hipot failures put the step's first-pass yield below the threshold while the lot was built),
+ * and the lot wound on the suspect core lot (its inductances sit low). No other lot should have
+ * an alert.
  */
 export const DEMO_ALERT_LOTS: readonly string[] = [
   DEMO_ORDER_REFS.miscount,
+  DEMO_ORDER_REFS.hipot,
   DEMO_ORDER_REFS.contained,
 ]

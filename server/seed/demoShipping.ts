@@ -50,19 +50,27 @@ export async function demoCustomerId(name: string): Promise<string> {
   return c.id
 }
 
-/** Makes a document's PDF now, with the worker's own code, so the seed can e-mail it at once. */
+const MINUTE_MS = 60_000
+
+/**
+ * Makes a document's PDF now, with the worker's own code, so the seed can e-mail it at once;
+ * asked for at `at` and made a minute later in the story's time.
+ */
 async function requestAndRender(
   spec: Parameters<typeof requestDocument>[0],
   actor: Actor,
+  at: Date,
 ): Promise<string> {
-  const doc = await withTransaction((t) => requestDocument(spec, actor, t))
-  await renderDocument(doc.id, async () => {})
+  const doc = await withTransaction((t) => requestDocument(spec, actor, t, at))
+  await renderDocument(doc.id, async () => {}, new Date(at.getTime() + MINUTE_MS))
   return doc.id
 }
 
 /**
  * Ships every passed unit of a lot to its customer with its packing slip, makes the certificate
- * of conformance and e-mails it to the customer's contact (so the Outbox has it).
+ * of conformance and e-mails it to the customer's contact (so the Outbox has it), each stamped
+ * with the story's time: packed at `at`, the certificate asked for ten minutes later and sent
+ * a quarter of an hour after that.
  */
 export async function shipLot(
   lotId: string,
@@ -80,7 +88,7 @@ export async function shipLot(
     at,
   )
   const slip = shipment.documents.find((d) => d.kind === 'packing_slip')
-  if (slip) await renderDocument(slip.id, async () => {})
+  if (slip) await renderDocument(slip.id, async () => {}, new Date(at.getTime() + MINUTE_MS))
   const certificateId = await requestAndRender(
     {
       kind: 'certificate',
@@ -88,11 +96,13 @@ export async function shipLot(
       filename: shipmentFilename(shipment.number, 'certificate'),
     },
     people.service,
+    new Date(at.getTime() + 10 * MINUTE_MS),
   )
   await emailDocument(
     certificateId,
     { to: [], note: `Certificate of conformance for your order ${order.orderRef}.` },
     people.service,
+    new Date(at.getTime() + 25 * MINUTE_MS),
   )
   return { number: shipment.number, serials }
 }

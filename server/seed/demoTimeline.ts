@@ -7,6 +7,7 @@ import type { Actor } from '../services/admin'
 import { recordStepRun } from '../services/floor'
 import { LATE_SHIFT_FROM_MINUTE } from './demoClock'
 import type { DemoClock } from './demoClock'
+import type { DemoAlerts } from './demoAlerts'
 import { demoReadings, gaussian, seededRandom, SeriesMemory } from './demoReadings'
 import { DEMO_PASSWORD } from './demoUsers'
 
@@ -40,11 +41,15 @@ const STATION_OF_KIND: Record<string, string> = {
   packing: 'PCK-1',
 }
 
-/** Everything one seed run shares: its clock, people and the last value of every series. */
+/**
+ * Everything one seed run shares: its clock, people, the last value of every series, and the
+ * alerts judged as the story goes (none when absent).
+ */
 export interface Scene {
   clock: DemoClock
   cast: Cast
   memory: SeriesMemory
+  alerts?: DemoAlerts
 }
 
 export interface LotPlan {
@@ -261,6 +266,8 @@ export class LotTimeline {
       operator,
       it.at,
     )
+    // The alerts worker judges the lot's step after each scan; the story does so at its time.
+    await this.scene.alerts?.afterRun(this.lotId, step.id, it.at)
     const failed = out.body.stepRun.result === 'fail'
     if (failed !== Boolean(it.defectCode))
       throw new Error(

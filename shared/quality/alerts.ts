@@ -197,23 +197,34 @@ function sizeWords(d: RunRuleAlertDetails, unit: string | null): string {
 }
 
 /**
+ * What happened, in plain words and short enough for one line, e.g. "Winding bench 2: 6 of the
+ * last 8 units read about 2 turns over on Secondary turns from ratio".
+ */
+export function alertWhat(a: AlertSubject): string {
+  const d = a.details
+  const where = d.station ?? a.stepName
+  if (d.kind === 'fpy')
+    return `${where}: first-pass yield ${percent(d.fpy)} (${d.passedFirst} of ${d.firstAttempts} first attempts) is below the ${formatFigure(d.thresholdPercent)} % threshold`
+  const count = d.window.length
+  const verb = d.outCount === 1 ? 'reads' : 'read'
+  const of = count === 1 ? '1 unit' : `${d.outCount} of the last ${count} units`
+  return `${where}: ${of} ${verb} ${sizeWords(d, a.checkUnit)} on ${a.checkLabel ?? 'the check'}`
+}
+
+/** What to look at first, e.g. "check the turn counter and recount a suspect unit". */
+export function alertHint(a: AlertSubject): string {
+  return a.details.hint ?? whatToCheck('other', null)
+}
+
+/**
  * What happened and what to look at, in plain words, e.g. "Winding bench 2: 6 of the last 8
  * units read about 2 turns over on Secondary turns from ratio (all by Ann Ode); check the turn
  * counter and recount a suspect unit."
  */
 export function alertSummary(a: AlertSubject): string {
   const d = a.details
-  if (d.kind === 'fpy') {
-    const where = d.station ?? a.stepName
-    const hint = d.hint ?? whatToCheck('other', null)
-    return `${where}: first-pass yield ${percent(d.fpy)} (${d.passedFirst} of ${d.firstAttempts} first attempts) is below the ${formatFigure(d.thresholdPercent)} % threshold; ${hint}.`
-  }
-  const where = d.station ?? a.stepName
-  const count = d.window.length
-  const verb = d.outCount === 1 ? 'reads' : 'read'
-  const by = d.operator ? ` (all by ${d.operator})` : ''
-  const of = count === 1 ? '1 unit' : `${d.outCount} of the last ${count} units`
-  return `${where}: ${of} ${verb} ${sizeWords(d, a.checkUnit)} on ${a.checkLabel ?? 'the check'}${by}; ${d.hint}.`
+  const by = d.kind === 'run_rule' && d.operator ? ` (all by ${d.operator})` : ''
+  return `${alertWhat(a)}${by}; ${alertHint(a)}.`
 }
 
 /** The rules of an alert as stored: one for an FPY alert, every broken one for an episode. */

@@ -3,6 +3,7 @@
 // alert and one e-mail, however many rules its points break. Pure: the alerts worker feeds in
 // the series it read and stores what `planEpisodes` says.
 import { runRuleViolations } from './runRules'
+import type { RuleViolation } from './runRules'
 import { capability, median } from './spc'
 
 /**
@@ -21,6 +22,46 @@ export const RE_ARM_POINTS = 8
 /** The σ-multiple beyond which each Western Electric rule counts a point (rule 4: the centre). */
 export const RULE_ZONE_SIGMAS: Record<1 | 2 | 3 | 4, number> = { 1: 3, 2: 2, 3: 1, 4: 0 }
 
+/** Each rule's window and how many of its points must lie beyond the zone on one side. */
+const RULE_WINDOWS: Record<1 | 2 | 3 | 4, { window: number; needed: number }> = {
+  1: { window: 1, needed: 1 },
+  2: { window: 3, needed: 2 },
+  3: { window: 5, needed: 4 },
+  4: { window: 8, needed: 8 },
+}
+
+/**
+ * The smallest departure from the centre worth an alert on a turn count: half a turn. A wound
+ * coil has a whole number of turns, so a reading less than half a turn off rounds to the
+ * nominal count (DESIGN.md §7 flags a deviation only when it rounds to another whole turn); a
+ * steady shift of a few hundredths of a turn is the meter or the reader, nothing a lead can
+ * rewind. Common practice, no source.
+ */
+export const TURN_MIN_SHIFT = 0.5
+
+/** What the practical minimum shift needs to know of a check. */
+export interface ShiftCheck {
+  unit: string | null
+  derived: string | null
+}
+
+const TURN_COUNT_FORMULAS = [
+  'turns_from_inductance',
+  'turn_deviation',
+  'secondary_turns_from_ratio',
+]
+
+/**
+ * The smallest departure from the centre a lead can act on, in the check's unit: TURN_MIN_SHIFT
+ * for a turn count (read or derived), else 0 (every departure the rules flag counts).
+ */
+export function practicalShift(check: ShiftCheck): number {
+  const isTurns =
+    check.unit === 'turns' ||
+    (check.derived !== null && TURN_COUNT_FORMULAS.includes(check.derived))
+  return isTurns ? TURN_MIN_SHIFT : 0
+}
+
 /** Whether a series can be judged: enough points and some spread. */
 export type SeriesJudgement = 'judged' | 'too_few_points' | 'no_spread'
 
@@ -34,6 +75,11 @@ export interface SeriesBasis {
   centreSource: 'nominal' | 'lot_median'
   /** Within sigma: average moving range / d2 (1.128); null when not judged. */
   sigma: number | null
+  /**
+   * A point counts towards a rule only this far from the centre or more, whatever σ says (see
+   * `practicalShift`); 0 leaves the rules as they are.
+   */
+  minShift: number
 }
 
 /**
@@ -47,16 +93,26 @@ const RELATIVE_NOISE = 1e-9
  * drag towards itself) and within sigma of a series in build order. Fewer than RUN_RULE_MIN_POINTS values, or no spread (every value equal, or a sigma
  * that is rounding noise), is not judged: no rule can fire on it.
  */
-export function seriesBasis(values: readonly number[], nominal: number | null): SeriesBasis {
+export function seriesBasis(
+  values: readonly number[],
+  nominal: number | null,
+  minShift = 0,
+): SeriesBasis {
   const centreSource = nominal === null ? 'lot_median' : 'nominal'
   if (values.length < RUN_RULE_MIN_POINTS)
-    return { judgement: 'too_few_points', centre: null, centreSource, sigma: null }
+    return { judgement: 'too_few_points', centre: null, centreSource, sigma: null, minShift }
   const { mean, sdWithin } = capability(values)
   const scale = Math.max(1, ...values.map(Math.abs))
   const isFlat = values.every((v) => v === values[0])
   if (isFlat || mean === null || sdWithin === null || !(sdWithin > RELATIVE_NOISE * scale))
-    return { judgement: 'no_spread', centre: null, centreSource, sigma: null }
-  return { judgement: 'judged', centre: nominal ?? median(values)!, centreSource, sigma: sdWithin }
+    return { judgement: 'no_spread', centre: null, centreSource, sigma: null, minShift }
+  return {
+    judgement: 'judged',
+    centre: nominal ?? median(values)!,
+    centreSource,
+    sigma: sdWithin,
+    minShift,
+  }
 }
 
 /** One out-of-control stretch of a series, by 0-based build-order index. */
@@ -74,16 +130,41 @@ export interface Episode {
 }
 
 /**
+ * Whether the rule broken at `hit.index` still breaks when each point it counts must also lie
+ * at least `minShift` from the centre, besides beyond its kσ zone.
+ */
+function isPractical(
+  values: readonly number[],
+  hit: RuleViolation,
+  centre: number,
+  sigma: number,
+  minShift: number,
+): boolean {
+  if (!(minShift > 0)) return true
+  const { window, needed } = RULE_WINDOWS[hit.rule]
+  const zone = RULE_ZONE_SIGMAS[hit.rule] * sigma
+  const counts = (d: number) => d > zone && d >= minShift
+  const slice = values.slice(hit.index + 1 - window, hit.index + 1)
+  const above = slice.filter((v) => counts(v - centre)).length
+  const below = slice.filter((v) => counts(centre - v)).length
+  return above >= needed || below >= needed
+}
+
+/**
  * The first episode at or after `from`: it starts at the first broken rule there and takes in
- * every later one until RE_ARM_POINTS points in a row break none. Null when none is broken.
+ * every later one until RE_ARM_POINTS points in a row break none. A rule broken only by points
+ * nearer the centre than `minShift` does not count. Null when none is broken.
  */
 export function nextEpisode(
   values: readonly number[],
   centre: number,
   sigma: number,
   from = 0,
+  minShift = 0,
 ): Episode | null {
-  const hits = runRuleViolations(values, centre, sigma).filter((v) => v.index >= from)
+  const hits = runRuleViolations(values, centre, sigma).filter(
+    (v) => v.index >= from && isPractical(values, v, centre, sigma, minShift),
+  )
   if (!hits.length) return null
   const start = hits[0]!.index
   let last = start
@@ -135,17 +216,17 @@ export function planEpisodes(
 ): EpisodePlan {
   if (basis.judgement !== 'judged' || basis.centre === null || basis.sigma === null)
     return { raise: [] }
-  const { centre, sigma } = basis
+  const { centre, sigma, minShift } = basis
   const plan: EpisodePlan = { raise: [] }
   let from = state.armedFrom
   if (state.activeStart !== null) {
-    const now = nextEpisode(values, centre, sigma, state.activeStart)
+    const now = nextEpisode(values, centre, sigma, state.activeStart, minShift)
     plan.active = now
     if (!now || !now.isOver) return plan
     from = now.rearmAt
   }
   for (;;) {
-    const next = nextEpisode(values, centre, sigma, from)
+    const next = nextEpisode(values, centre, sigma, from, minShift)
     if (!next) return plan
     plan.raise.push(next)
     if (!next.isOver) return plan
@@ -185,19 +266,21 @@ function shared(values: (string | null)[]): string | null {
 /**
  * Reads an episode for the alert text: the window of the last RE_ARM_POINTS points up to its
  * latest broken rule, the points there beyond the episode's widest zone (rule 1: 3σ, rule 2:
- * 2σ, rule 3: 1σ, rule 4: the centre) on the side most of them fall, their mean distance from
- * the centre, and the station and operator they share.
+ * 2σ, rule 3: 1σ, rule 4: the centre; never nearer than `minShift`) on the side most of them
+ * fall, their mean distance from the centre, and the station and operator they share.
  */
 export function readEpisode(
   points: readonly EpisodePoint[],
   episode: Episode,
   centre: number,
   sigma: number,
+  minShift = 0,
 ): EpisodeReading {
   const window = points.slice(Math.max(0, episode.last + 1 - RE_ARM_POINTS), episode.last + 1)
-  const zone = Math.min(...episode.rules.map((r) => RULE_ZONE_SIGMAS[r])) * sigma
-  const above = window.filter((p) => p.value > centre + zone)
-  const below = window.filter((p) => p.value < centre - zone)
+  const widest = Math.min(...episode.rules.map((r) => RULE_ZONE_SIGMAS[r])) * sigma
+  const beyond = (d: number) => d > widest && d >= minShift
+  const above = window.filter((p) => beyond(p.value - centre))
+  const below = window.filter((p) => beyond(centre - p.value))
   const side = above.length >= below.length ? 'above' : 'below'
   const out = side === 'above' ? above : below
   const shift = out.reduce((s, p) => s + Math.abs(p.value - centre), 0) / Math.max(1, out.length)

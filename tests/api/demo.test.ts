@@ -321,5 +321,84 @@ describe('the demo shop', () => {
     expect(stray.map((a) => `${a.lotNumber} ${a.stepName}: ${a.headline}`)).toEqual([])
     expect(onDemoLots.length).toBeGreaterThanOrEqual(1)
     expect(onDemoLots.length).toBeLessThanOrEqual(5)
+    // The miscount is among them, named by its bench and its size (two turns; the estimate from
+    // inductance is coarser, as it carries the core's AL tolerance).
+    const miscount = onDemoLots.filter(
+      (a) => a.lotId === lot(DEMO_ORDER_REFS.miscount).id && a.details.kind === 'run_rule',
+    )
+    expect(miscount.length).toBeGreaterThanOrEqual(1)
+    for (const a of miscount)
+      expect(a.summary).toMatch(/^Winding bench 2: .* about (1\.[5-9]|2|2\.[0-4]) turns over/)
+  })
+
+  it('raises no turn-count alert for a shift of less than half a turn', async () => {
+    // Half a turn: less rounds to the nominal count (DESIGN.md §7); common practice, no source.
+    const all = (await lead.get('/api/alerts').expect(200)).body as AlertDto[]
+    const turnAlerts = all.filter((a) => a.details.kind === 'run_rule' && a.checkUnit === 'turns')
+    expect(turnAlerts.length).toBeGreaterThanOrEqual(1)
+    for (const a of turnAlerts)
+      if (a.details.kind === 'run_rule') expect(a.details.shift).toBeGreaterThanOrEqual(0.5)
+  })
+
+  it("stamps alerts, documents and e-mails, and their audit rows, with the story's time", async () => {
+    const lotIds = [...lots.values()].map((l) => l.id)
+    const alerts = await sql<{ id: string; created_at: Date; ended_at: Date | null }>(
+      `SELECT id, created_at, ended_at FROM alerts WHERE lot_id IN (:lotIds)`,
+      { lotIds },
+    )
+    expect(alerts.length).toBeGreaterThanOrEqual(1)
+    for (const a of alerts) {
+      expect(new Date(a.created_at).getTime()).toBeLessThan(anchor.getTime())
+      if (a.ended_at) expect(new Date(a.ended_at).getTime()).toBeLessThan(anchor.getTime())
+      const [raised] = await sql<{ at: Date }>(
+        `SELECT at FROM audit_events WHERE action = 'alert.raise' AND entity_id = :id`,
+        { id: a.id },
+      )
+      expect(new Date(raised!.at)).toEqual(new Date(a.created_at))
+    }
+    // The lead was told of the first alert by an e-mail queued when it was raised (later ones
+    // within the digest window wait for the window's end, in the story's time too).
+    const [told] = await sql<{ first: Date; last: Date }>(
+      `SELECT min(n.mailed_at) AS first, max(n.mailed_at) AS last
+         FROM alert_notices n JOIN alerts a ON a.id = n.alert_id WHERE a.lot_id IN (:lotIds)`,
+      { lotIds },
+    )
+    const firstRaised = Math.min(...alerts.map((a) => new Date(a.created_at).getTime()))
+    expect(new Date(told!.first).getTime()).toBe(firstRaised)
+    expect(new Date(told!.last).getTime()).toBeLessThan(anchor.getTime())
+    // The shipments' papers: asked for, made and e-mailed after packing, all before the anchor.
+    const papers = await sql<{
+      shipped: Date
+      kind: string
+      created_at: Date
+      finished_at: Date | null
+      requested: Date
+      emailed: Date | null
+      email_audit: Date | null
+    }>(
+      `SELECT s.created_at AS shipped, d.kind, d.created_at, d.finished_at,
+              (SELECT a.at FROM audit_events a WHERE a.action = 'document.request'
+                AND a.entity_id = d.id::text) AS requested,
+              e.created_at AS emailed,
+              (SELECT a.at FROM audit_events a WHERE a.action = 'email.queue'
+                AND a.entity_id = e.id::text) AS email_audit
+         FROM documents d JOIN shipments s ON s.id = d.shipment_id
+         LEFT JOIN emails e ON e.related_entity = 'document' AND e.related_id = d.id
+        WHERE s.order_ref IN (:refs)`,
+      { refs: ORDER_REFS },
+    )
+    expect(
+      papers.filter((p) => p.kind === 'certificate' && p.emailed).length,
+    ).toBeGreaterThanOrEqual(3)
+    for (const p of papers) {
+      const shipped = new Date(p.shipped).getTime()
+      expect(new Date(p.created_at).getTime()).toBeGreaterThanOrEqual(shipped)
+      expect(new Date(p.requested)).toEqual(new Date(p.created_at))
+      expect(new Date(p.finished_at!).getTime()).toBeLessThan(anchor.getTime())
+      if (!p.emailed) continue
+      expect(new Date(p.emailed).getTime()).toBeGreaterThan(new Date(p.created_at).getTime())
+      expect(new Date(p.emailed).getTime()).toBeLessThan(anchor.getTime())
+      expect(new Date(p.email_audit!)).toEqual(new Date(p.emailed))
+    }
   })
 })

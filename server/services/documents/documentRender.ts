@@ -14,6 +14,8 @@ import { loadDocumentData } from './documentData'
 export async function renderDocument(
   id: string,
   onProgress: (percent: number) => Promise<void>,
+  /** When it was made, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<void> {
   const doc = await Document.findByPk(id)
   if (!doc) throw new Error(`document ${id} does not exist`)
@@ -38,7 +40,7 @@ export async function renderDocument(
     storageKey: stored.key,
     sha256: stored.sha256,
     size: stored.size,
-    finishedAt: new Date(),
+    finishedAt: at ?? new Date(),
   })
   await onProgress(100)
 }

@@ -53,6 +53,8 @@ export async function requestDocument(
   spec: DocumentSpec,
   actor: Actor,
   transaction: Transaction,
+  /** When it was asked for, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<Document> {
   const doc = await Document.create(
     {
@@ -68,6 +70,7 @@ export async function requestDocument(
       error: null,
       createdBy: actor.id,
       finishedAt: null,
+      ...(at ? { createdAt: at } : {}),
     },
     { transaction },
   )
@@ -83,6 +86,7 @@ export async function requestDocument(
         shipmentId: doc.shipmentId,
         layout: doc.layout,
       },
+      at,
     },
     transaction,
   )

@@ -217,6 +217,7 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       { kind: 'travelers', lotId: id, filename: lotPrintFilename(lot.number, 'travelers') },
       actor,
       transaction,
+      now,
     )
     await requestDocument(
       {
@@ -227,6 +228,7 @@ export async function releaseLot(id: string, actor: Actor, now = new Date()): Pr
       },
       actor,
       transaction,
+      now,
     )
     return getLot(id, transaction)
   })

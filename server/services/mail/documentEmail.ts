@@ -119,6 +119,8 @@ export async function emailDocument(
   id: string,
   input: DocumentEmailInput,
   actor: Actor & { role: Role },
+  /** When it was sent off, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<EmailDto> {
   return withTransaction(async (transaction) => {
     const doc = await finishedDocument(id, transaction)
@@ -146,6 +148,7 @@ export async function emailDocument(
       },
       actor,
       transaction,
+      at,
     )
     await recordAudit(
       actor,
@@ -154,6 +157,7 @@ export async function emailDocument(
         entity: 'document',
         entityId: doc.id,
         after: { kind: doc.kind, filename: doc.filename, to, emailId: email.id },
+        at,
       },
       transaction,
     )

@@ -107,6 +107,8 @@ export async function queueEmail(
   mail: OutgoingEmail,
   actor: Actor,
   transaction: Transaction,
+  /** When it was queued, if not now: the demo seed's clock. */
+  at?: Date,
 ): Promise<EmailDto> {
   const to = Array.isArray(mail.to) ? mail.to : [mail.to]
   if (to.length === 0) throw AppError.badRequest('an e-mail needs at least one recipient')
@@ -125,6 +127,7 @@ export async function queueEmail(
       relatedId: mail.related?.id ?? null,
       createdBy: actor.id,
       sentAt: null,
+      ...(at ? { createdAt: at } : {}),
     },
     { transaction },
   )
@@ -140,6 +143,7 @@ export async function queueEmail(
         attachments: attachments.map((a) => a.filename),
         related: mail.related ?? null,
       },
+      at,
     },
     transaction,
   )

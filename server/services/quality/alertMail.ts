@@ -114,6 +114,7 @@ async function mailLead(
         },
     ALERTS_ACTOR,
     transaction,
+    now,
   )
   await execute(
     `UPDATE alert_notices SET email_id = :emailId, mailed_at = :now, is_digest = :isDigest
@@ -133,12 +134,14 @@ async function mailLead(
 }
 
 /**
- * Tells every active lead of a new alert, in the transaction that raised it: its own e-mail now,
- * or a place in the lead's next digest. Returns the leads whose digest is due later, with when.
+ * Tells every active lead of a new alert, in the transaction that raised it: its own e-mail now
+ * (or at `at`, the demo seed's clock), or a place in the lead's next digest. Returns the leads
+ * whose digest is due later, with when.
  */
 export async function noticeLeads(
   alertId: string,
   transaction: Transaction,
+  at?: Date,
 ): Promise<{ leadId: string; dueAt: Date }[]> {
   const leads = await select<Lead>(
     `SELECT id, email FROM users WHERE role = 'lead' AND is_active ORDER BY id`,
@@ -146,7 +149,7 @@ export async function noticeLeads(
   )
   if (!leads.length) logger.warn({ alertId }, 'alert raised, but there is no active lead to e-mail')
   const later: { leadId: string; dueAt: Date }[] = []
-  const now = new Date()
+  const now = at ?? new Date()
   for (const lead of leads) {
     await lockLead(lead.id, transaction)
     await execute(

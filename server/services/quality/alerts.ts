@@ -16,7 +16,12 @@ import type {
   FpyAlertDetails,
   RunRuleAlertDetails,
 } from '../../../shared/quality/alerts'
-import { planEpisodes, readEpisode, seriesBasis } from '../../../shared/quality/episodes'
+import {
+  planEpisodes,
+  practicalShift,
+  readEpisode,
+  seriesBasis,
+} from '../../../shared/quality/episodes'
 import type { Episode, EpisodePoint, SeriesBasis } from '../../../shared/quality/episodes'
 import type {
   AcknowledgeAlertsInput,
@@ -154,12 +159,16 @@ const subjectOf = (c: SeriesContext, details: AlertDetails): AlertSubject => ({
   checkUnit: c.check?.unit ?? null,
 })
 
-/** Stores a new alert, audits it and tells the leads, in the caller's transaction. */
+/**
+ * Stores a new alert, audits it and tells the leads, in the caller's transaction, at `at` (the
+ * demo seed's clock) or now.
+ */
 async function raise(
   c: SeriesContext,
   details: AlertDetails,
   episode: Episode | null,
   transaction: Transaction,
+  at: Date | undefined,
 ): Promise<{ leadId: string; dueAt: Date }[]> {
   const id = randomUUID()
   const rules = alertRules(details)
@@ -168,7 +177,8 @@ async function raise(
     `INSERT INTO alerts (id, lot_id, step_id, rule, rules, check_id, details, status, episode_start,
                          ended_at, rearm_index, created_at, updated_at)
      VALUES (:id, :lotId, :stepId, :rule, ARRAY[:rules]::varchar(32)[], :checkId,
-             CAST(:details AS jsonb), 'open', :start, :endedAt, :rearm, now(), now())
+             CAST(:details AS jsonb), 'open', :start, :endedAt, :rearm,
+             COALESCE(CAST(:at AS timestamptz), now()), COALESCE(CAST(:at AS timestamptz), now()))
      ON CONFLICT DO NOTHING
      RETURNING id`,
     {
@@ -181,8 +191,9 @@ async function raise(
         checkId: c.check?.id ?? null,
         details: JSON.stringify(details),
         start: episode?.start ?? null,
-        endedAt: isOver ? new Date() : null,
+        endedAt: isOver ? (at ?? new Date()) : null,
         rearm: isOver ? episode!.rearmAt : null,
+        at: at ?? null,
       },
       transaction,
     },
@@ -203,34 +214,45 @@ async function raise(
         summary: alertSummary(subject),
         ...(isOver ? { backInControl: true } : {}),
       },
+      at,
     },
     transaction,
   )
-  return noticeLeads(id, transaction)
+  return noticeLeads(id, transaction, at)
 }
 
-/** Updates a running alert's figures; ends it (back in control) when `rearmAt` is given. */
+/**
+ * Updates a running alert's figures; ends it (back in control) when `rearmAt` is given, at `at`
+ * (the demo seed's clock) or now.
+ */
 async function carryOn(
   alertId: string,
   details: AlertDetails | null,
   rearmAt: number | null,
   transaction: Transaction,
+  at: Date | undefined,
 ): Promise<void> {
   if (details)
     await execute(
       `UPDATE alerts SET details = CAST(:details AS jsonb), rules = ARRAY[:rules]::varchar(32)[],
-              updated_at = now()
+              updated_at = COALESCE(CAST(:at AS timestamptz), now())
         WHERE id = :alertId`,
       {
-        replacements: { alertId, details: JSON.stringify(details), rules: alertRules(details) },
+        replacements: {
+          alertId,
+          details: JSON.stringify(details),
+          rules: alertRules(details),
+          at: at ?? null,
+        },
         transaction,
       },
     )
   if (rearmAt !== null)
     await execute(
-      `UPDATE alerts SET ended_at = now(), rearm_index = :rearmAt, updated_at = now()
+      `UPDATE alerts SET ended_at = COALESCE(CAST(:at AS timestamptz), now()),
+              rearm_index = :rearmAt, updated_at = COALESCE(CAST(:at AS timestamptz), now())
         WHERE id = :alertId`,
-      { replacements: { alertId, rearmAt }, transaction },
+      { replacements: { alertId, rearmAt, at: at ?? null }, transaction },
     )
   if (rearmAt !== null)
     await recordAudit(
@@ -240,6 +262,7 @@ async function carryOn(
         entity: 'alert',
         entityId: alertId,
         after: { rearmedFromPoint: rearmAt + 1 },
+        at,
       },
       transaction,
     )
@@ -252,7 +275,7 @@ function episodeDetails(
   basis: SeriesBasis,
   episode: Episode,
 ): RunRuleAlertDetails {
-  const reading = readEpisode(points, episode, basis.centre!, basis.sigma!)
+  const reading = readEpisode(points, episode, basis.centre!, basis.sigma!, basis.minShift)
   return {
     kind: 'run_rule',
     rules: episode.rules,
@@ -272,9 +295,10 @@ async function judgeRunRules(
   c: SeriesContext,
   points: readonly EpisodePoint[],
   nominal: number | null,
+  at: Date | undefined,
 ): Promise<EvaluationResult> {
   const values = points.map((p) => p.value)
-  const basis = seriesBasis(values, nominal)
+  const basis = seriesBasis(values, nominal, practicalShift(c.check!))
   const out: EvaluationResult = { raised: 0, ended: 0, digests: [] }
   if (basis.judgement !== 'judged') return out
   return withTransaction(async (transaction) => {
@@ -291,12 +315,13 @@ async function judgeRunRules(
         now ? episodeDetails(c, points, basis, now) : null,
         rearm,
         transaction,
+        at,
       )
       if (rearm !== null) out.ended++
     }
     for (const episode of plan.raise) {
       out.digests.push(
-        ...(await raise(c, episodeDetails(c, points, basis, episode), episode, transaction)),
+        ...(await raise(c, episodeDetails(c, points, basis, episode), episode, transaction, at)),
       )
       out.raised++
       if (episode.isOver) out.ended++
@@ -305,7 +330,11 @@ async function judgeRunRules(
   })
 }
 
-async function judgeFpy(c: SeriesContext, revision: Revision): Promise<EvaluationResult> {
+async function judgeFpy(
+  c: SeriesContext,
+  revision: Revision,
+  at: Date | undefined,
+): Promise<EvaluationResult> {
   const counts = await stepFirstAttempts(c.lot.id, c.step.id)
   const found = fpyBreach({ ...counts, thresholdPercent: revision.fpyThresholdPercent })
   const breach: FpyAlertDetails | null = found && {
@@ -318,12 +347,12 @@ async function judgeFpy(c: SeriesContext, revision: Revision): Promise<Evaluatio
     const stored = await storedSeries(c.lot.id, c.step.id, null, transaction)
     if (stored.active) {
       // Back at or above the threshold ends the episode; still below keeps its figures current.
-      await carryOn(stored.active.id, breach, breach ? null : 0, transaction)
+      await carryOn(stored.active.id, breach, breach ? null : 0, transaction, at)
       if (!breach) out.ended++
       return out
     }
     if (!breach) return out
-    out.digests.push(...(await raise(c, breach, null, transaction)))
+    out.digests.push(...(await raise(c, breach, null, transaction, at)))
     out.raised++
     return out
   })
@@ -334,9 +363,14 @@ async function judgeFpy(c: SeriesContext, revision: Revision): Promise<Evaluatio
  * step, the run rules on each series of numeric checks. Raises an alert (and its e-mail) for
  * each new episode, keeps a running one's figures current, and ends those back in control.
  * Safe to run any number of times, and by two workers at once: each series is locked while it
- * is judged, and an episode already stored is neither stored nor sent again.
+ * is judged, and an episode already stored is neither stored nor sent again. `at` stamps what
+ * it stores and sends when it is not now: the demo seed judges its past as it plays it.
  */
-export async function evaluateLotStep(lotId: string, stepId: string): Promise<EvaluationResult> {
+export async function evaluateLotStep(
+  lotId: string,
+  stepId: string,
+  at?: Date,
+): Promise<EvaluationResult> {
   const total: EvaluationResult = { raised: 0, ended: 0, digests: [] }
   const lot = await Lot.findByPk(lotId)
   const step = await RouteStep.findByPk(stepId)
@@ -348,7 +382,7 @@ export async function evaluateLotStep(lotId: string, stepId: string): Promise<Ev
     total.ended += r.ended
     total.digests.push(...r.digests)
   }
-  add(await judgeFpy({ lot, step, check: null }, revision))
+  add(await judgeFpy({ lot, step, check: null }, revision, at))
   // Run rules watch the winding benches (DESIGN.md §1: catch a drifting bench early).
   if (step.stationKind === 'winding') {
     const checks = await Check.findAll({
@@ -362,7 +396,14 @@ export async function evaluateLotStep(lotId: string, stepId: string): Promise<Ev
       series.map((s) => s.head.id),
     )
     for (const s of series)
-      add(await judgeRunRules({ lot, step, check: s.head }, points.get(s.head.id) ?? [], s.nominal))
+      add(
+        await judgeRunRules(
+          { lot, step, check: s.head },
+          points.get(s.head.id) ?? [],
+          s.nominal,
+          at,
+        ),
+      )
   }
   if (total.raised || total.ended)
     logger.info(

@@ -252,6 +252,7 @@ export async function createShipment(
       },
       actor,
       t,
+      at,
     )
     return getShipment(shipment.id, t)
   }

@@ -2,8 +2,10 @@ import { describe, expect, it } from 'vitest'
 import {
   NOT_ENOUGH_VARIATION,
   RE_ARM_POINTS,
+  TURN_MIN_SHIFT,
   nextEpisode,
   planEpisodes,
+  practicalShift,
   readEpisode,
   seriesBasis,
 } from '../../../../shared/quality/episodes'
@@ -171,5 +173,56 @@ describe('readEpisode', () => {
     const r = readEpisode(pts, nextEpisode(values, 10.1, basis.sigma!)!, 10.1, basis.sigma!)
     expect(r.station).toBeNull()
     expect(r.outCount).toBe(4)
+  })
+})
+
+describe('the practical minimum shift of a turn count', () => {
+  // Half a turn: a reading nearer the nominal than that rounds to the nominal whole turn count
+  // (DESIGN.md §7 flags a turn deviation only when it rounds to another whole turn). Common
+  // practice, no source.
+  it('is half a turn for a turn count, read or derived, and nothing for other checks', () => {
+    expect(TURN_MIN_SHIFT).toBe(0.5)
+    expect(practicalShift({ unit: 'turns', derived: null })).toBe(0.5)
+    expect(practicalShift({ unit: 'turns', derived: 'secondary_turns_from_ratio' })).toBe(0.5)
+    expect(practicalShift({ unit: null, derived: 'turn_deviation' })).toBe(0.5)
+    expect(practicalShift({ unit: 'mH', derived: null })).toBe(0)
+    expect(practicalShift({ unit: 'V', derived: null })).toBe(0)
+  })
+
+  // Constructed, like the demo's bench after a rework: 10 ratio-test readings alternating 92.01
+  // and 92.03, then 10 alternating 91.92 and 91.94 (a reader's steady 0.07 turn low). MR̄ =
+  // (18 × 0.02 + 0.09) / 19 = 0.0237 → σ = 0.021 (d2 1.128), so 91.93 is 3.3σ below 92: without
+  // a minimum, rules 1, 2, 3 and 4 all break, for a shift no lead can rewind.
+  const drift = [
+    ...Array.from({ length: 10 }, (_, i) => (i % 2 ? 92.03 : 92.01)),
+    ...Array.from({ length: 10 }, (_, i) => (i % 2 ? 91.94 : 91.92)),
+  ]
+
+  it('raises nothing for a steady shift of a few hundredths of a turn', () => {
+    const plain = seriesBasis(drift, 92)
+    expect(plain.minShift).toBe(0)
+    const flagged = nextEpisode(drift, 92, plain.sigma!)
+    expect(flagged?.rules).toEqual([1, 2, 3, 4])
+    const turns = seriesBasis(drift, 92, TURN_MIN_SHIFT)
+    expect(turns.minShift).toBe(0.5)
+    expect(nextEpisode(drift, 92, turns.sigma!, 0, TURN_MIN_SHIFT)).toBeNull()
+    expect(planEpisodes(drift, turns, { activeStart: null, armedFrom: 0 })).toEqual({ raise: [] })
+  })
+
+  it('still raises a miscount of two turns, and reads only the points that far off', () => {
+    // Constructed: 10 calm readings near 92, six at 94 (two turns over), then the drift above.
+    const values = [...drift.slice(0, 10), 94, 94.02, 93.99, 94.01, 94, 93.98, ...drift.slice(10)]
+    const pts = points(values, (i) => (i >= 10 && i < 16 ? 'Bench 2' : 'Bench 1'))
+    const basis = seriesBasis(values, 92, TURN_MIN_SHIFT)
+    const plan = planEpisodes(values, basis, { activeStart: null, armedFrom: 0 })
+    expect(plan.raise).toHaveLength(1)
+    const e = plan.raise[0]!
+    expect(e.start).toBe(10)
+    // The low readings after the miscount break no rule by half a turn: the episode is over
+    // once 8 of them follow its last hit, and nothing is raised after it.
+    expect(e.isOver).toBe(true)
+    const r = readEpisode(pts, e, 92, basis.sigma!, basis.minShift)
+    expect(r).toMatchObject({ side: 'above', outCount: 6, station: 'Bench 2' })
+    expect(r.shift).toBeCloseTo(2, 2) // mean of the six: 12.00 / 6 = 2.00, arithmetic
   })
 })

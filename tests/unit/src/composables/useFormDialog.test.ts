@@ -7,6 +7,7 @@ import { z } from 'zod'
 import { useFormDialog } from '@/composables/useFormDialog'
 import type { FormDialogState } from '@/composables/useFormDialog'
 import { useZodRules } from '@/composables/useZodRules'
+import type { StationCreateInput, StationDto } from '@shared/schemas/stations'
 
 const Input = z.object({ name: z.string().trim().min(1), turns: z.number().int().nullable() })
 type Input = z.infer<typeof Input>
@@ -78,8 +79,8 @@ describe('useFormDialog', () => {
 describe('a form dialog wired with useFormDialog (StationFormDialog)', () => {
   it('opens filled from the station, and saves the input as the shared schema parses it', async () => {
     const saved: unknown[] = []
-    const dialog = useEditDialog(
-      async (_target, input) => saved.push(input),
+    const dialog = useEditDialog<StationDto, StationCreateInput>(
+      async (_target, input) => void saved.push(input),
       () => 'Saved',
     )
     const wrapper = mount(StationFormDialog, { props: { dialog }, attachTo: document.body })
