@@ -1,9 +1,10 @@
 import { UniqueConstraintError } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { checkLimitProblems } from '../../../shared/checkRules'
+import { CHECK_DOCUMENT_FLAGS, isForCustomersByDefault } from '../../../shared/schemas/recipes'
 import type { CheckDto, CheckInput, CheckUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { Check, RouteStep } from '../../models'
+import { Check, Revision, RouteStep } from '../../models'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { toCheckDto } from './recipePresenters'
@@ -18,12 +19,28 @@ function duplicateKey(err: unknown): never {
   throw err
 }
 
-async function editableCheck(checkId: string, transaction: Transaction): Promise<Check> {
+/**
+ * The check, its revision locked. `onlyFlags`: the change touches only the document flags,
+ * which steer the lot report and the certificate and never a verdict, so a released revision
+ * may still take it (audited like any change); anything else needs a draft.
+ */
+async function editableCheck(
+  checkId: string,
+  transaction: Transaction,
+  onlyFlags = false,
+): Promise<Check> {
   const check = await Check.findByPk(checkId, { transaction })
   if (!check) throw AppError.notFound(`check ${checkId}`)
-  await lockDraftRevision(check.revisionId, transaction)
+  if (onlyFlags)
+    await Revision.findByPk(check.revisionId, { transaction, lock: transaction.LOCK.UPDATE })
+  else await lockDraftRevision(check.revisionId, transaction)
   return check
 }
+
+const isFlagsOnly = (input: CheckUpdateInput) =>
+  Object.entries(input).every(
+    ([k, v]) => v === undefined || (CHECK_DOCUMENT_FLAGS as readonly string[]).includes(k),
+  )
 
 /** Adds a check at the end of a step's list. */
 export async function createCheck(
@@ -37,7 +54,14 @@ export async function createCheck(
     await lockDraftRevision(step.revisionId, transaction)
     const position = (await Check.count({ where: { stepId }, transaction })) + 1
     const check = await Check.create(
-      { ...input, stepId, revisionId: step.revisionId, position },
+      {
+        ...input,
+        isKey: input.isKey ?? false,
+        isForCustomers: input.isForCustomers ?? isForCustomersByDefault(input),
+        stepId,
+        revisionId: step.revisionId,
+        position,
+      },
       { transaction },
     )
     const dto = toCheckDto(check)
@@ -57,7 +81,7 @@ export async function updateCheck(
   actor: Actor,
 ): Promise<CheckDto> {
   return withTransaction(async (transaction) => {
-    const check = await editableCheck(checkId, transaction)
+    const check = await editableCheck(checkId, transaction, isFlagsOnly(input))
     const before = toCheckDto(check)
     const merged = { ...before, ...input }
     const problems = checkLimitProblems(merged)

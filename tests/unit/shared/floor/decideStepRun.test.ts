@@ -27,6 +27,8 @@ function check(over: Partial<CheckDto> & Pick<CheckDto, 'id' | 'key' | 'label'>)
     choices: null,
     derived: null,
     derivedInputs: null,
+    isKey: false,
+    isForCustomers: true,
     ...over,
   }
 }

@@ -19,6 +19,8 @@ const baseCheck: CheckDto = {
   choices: null,
   derived: null,
   derivedInputs: null,
+  isKey: false,
+  isForCustomers: true,
 }
 const step = (checks: CheckDto[]): StepDto => ({
   id: 's',

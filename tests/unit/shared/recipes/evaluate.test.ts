@@ -23,6 +23,8 @@ function check(over: Partial<CheckDto>): CheckDto {
     choices: null,
     derived: null,
     derivedInputs: null,
+    isKey: false,
+    isForCustomers: true,
     ...over,
   }
 }

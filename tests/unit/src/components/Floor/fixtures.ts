@@ -18,6 +18,8 @@ export function numericCheck(overrides: Partial<CheckDto> = {}): CheckDto {
     choices: null,
     derived: null,
     derivedInputs: null,
+    isKey: false,
+    isForCustomers: true,
     ...overrides,
   }
 }

@@ -19,6 +19,8 @@ function check(overrides: Partial<CheckDto>): CheckDto {
     choices: null,
     derived: null,
     derivedInputs: null,
+    isKey: false,
+    isForCustomers: true,
     ...overrides,
   }
 }
