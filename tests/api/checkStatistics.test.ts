@@ -1,3 +1,4 @@
+import { mkdir, writeFile } from 'node:fs/promises'
 import { PDFParse } from 'pdf-parse'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { DocumentDto } from '../../shared/schemas/lots'
@@ -46,6 +47,8 @@ describe('statistics on any check and the document flags', () => {
     const doc = made.body as DocumentDto
     await renderDocument(doc.id, async () => {})
     const file = await binary(lead.get(`/api/documents/${doc.id}/file`)).expect(200)
+    await mkdir('test-results', { recursive: true })
+    await writeFile(`test-results/stats-${doc.kind}.pdf`, file.body as Buffer) // to look at
     return pdfText(file.body as Buffer)
   }
 
