@@ -85,7 +85,7 @@ function limitWords(check: CertificateCheck): string {
   return checkLimitWords(check)
 }
 
-const resultWord = (isPass: boolean) => (isPass ? 'pass' : 'FAIL')
+const resultWord = (isPass: boolean) => (isPass ? 'PASS' : 'FAIL')
 
 /** The statement on every certificate, naming the shop and the revision(s). */
 export function conformanceStatement(data: CertificateData): string {
@@ -116,7 +116,7 @@ function summaryRows(group: CertificateGroup, step: CertificateGroup['steps'][nu
     const label = check.derived ? `${check.label} (derived)` : check.label
     const result =
       values.length === group.units.length && passed === values.length
-        ? `pass, ${passed} of ${group.units.length}`
+        ? `PASS, ${passed} of ${group.units.length}`
         : `${passed} of ${group.units.length} passed`
     return [label, limitWords(check), measured, result]
   })

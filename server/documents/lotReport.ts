@@ -18,6 +18,7 @@ import {
   table,
   W,
 } from './lotReportLayout'
+import { drawKeyCheck } from './lotReportKeyChecks'
 import { drawTurnSeries } from './lotReportTurns'
 import type { LotReportData } from './lotReportTypes'
 
@@ -245,6 +246,9 @@ export async function lotReportPdf(
       for (const s of d.turnSeries) drawTurnSeries(doc, c, s)
     },
     drawCapability,
+    (doc, c, d) => {
+      for (const s of d.keyChecks) drawKeyCheck(doc, c, s)
+    },
     drawNonconformances,
   ]
   for (const [i, draw] of sections.entries()) {

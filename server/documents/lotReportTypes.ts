@@ -4,6 +4,7 @@ import type { TurnVerdict } from '../../shared/quality/turnReview'
 import type { LotStatus } from '../../shared/lots'
 import type { NonconformanceDto } from '../../shared/schemas/lots'
 import type { LotYieldDto } from '../../shared/schemas/yield'
+import type { CheckSeriesDto } from '../../shared/schemas/statistics'
 
 // Everything the lot report PDF shows. The documents service gathers it (lotReportData.ts) so
 // the renderer stays a pure function of this data (and so the tests can compare the PDF's text
@@ -82,5 +83,7 @@ export interface LotReportData {
   pareto: ParetoBar[]
   turnSeries: TurnSeries[]
   capability: CheckCapability[]
+  /** The checks the engineer marked as key, each with its I-MR chart and capability. */
+  keyChecks: CheckSeriesDto[]
   nonconformances: NonconformanceDto[]
 }

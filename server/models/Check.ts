@@ -21,6 +21,8 @@ export class Check extends RecordModel<Check> {
   declare choices: ChoiceOption[] | null
   declare derived: DerivedFormula | null
   declare derivedInputs: Record<string, string> | null
+  declare isKey: boolean
+  declare isForCustomers: boolean
 }
 
 export function initCheck(sequelize: Sequelize): void {
@@ -39,5 +41,7 @@ export function initCheck(sequelize: Sequelize): void {
     choices: { type: DataTypes.JSONB, allowNull: true },
     derived: { type: DataTypes.STRING(40), allowNull: true },
     derivedInputs: { type: DataTypes.JSONB, allowNull: true },
+    isKey: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    isForCustomers: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
   })
 }

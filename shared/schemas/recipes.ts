@@ -112,6 +112,26 @@ const checkFields = {
     .nullable()
     .default(null),
   derivedInputs: z.record(text(), text()).nullable().default(null),
+  isKey: z.boolean().optional(),
+  /** Left out: on, except for turn counts (see `isForCustomersByDefault`). */
+  isForCustomers: z.boolean().optional(),
+}
+
+/** The flags that steer documents only; a released revision's checks may still change them. */
+export const CHECK_DOCUMENT_FLAGS = ['isKey', 'isForCustomers'] as const
+
+const TURN_FORMULAS: readonly (DerivedFormula | null)[] = [
+  'turns_from_inductance',
+  'turn_deviation',
+  'secondary_turns_from_ratio',
+]
+
+/** A check goes on the certificate unless it counts turns: how the shop winds is internal. */
+export function isForCustomersByDefault(c: {
+  unit: Unit | null
+  derived: DerivedFormula | null
+}): boolean {
+  return c.unit !== 'turns' && !TURN_FORMULAS.includes(c.derived)
 }
 
 /** A check as created; limits are cross-checked by the same rule the update uses. */
@@ -195,6 +215,10 @@ export interface CheckDto {
   choices: ChoiceOption[] | null
   derived: DerivedFormula | null
   derivedInputs: Record<string, string> | null
+  /** Its statistics go in the lot report (documents only; may change after release). */
+  isKey: boolean
+  /** Its results go on the customer's certificate (documents only; may change after release). */
+  isForCustomers: boolean
 }
 
 export interface StepDto {

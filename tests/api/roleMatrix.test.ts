@@ -198,6 +198,8 @@ const EXPECTED: { method: string; path: string; who: Who }[] = [
   },
   { method: 'get', path: '/api/yield/lots/:id/detail', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/yield/lots/:id/turns', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/lots/:id/statistics', who: ['lead', 'engineer', 'admin'] },
+  { method: 'get', path: '/api/yield/statistics', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/exports/lots', who: ['lead', 'engineer', 'admin'] },
   { method: 'get', path: '/api/exports/lots/:id/measurements', who: ['lead', 'engineer', 'admin'] },
 ]

@@ -137,7 +137,8 @@ export async function certificateData(doc: Document): Promise<CertificateData> {
         position: s.position,
         name: s.name,
         stationKind: s.stationKind,
-        checks: s.checks,
+        // Only what the engineer marked for customers: turn counts stay internal by default.
+        checks: s.checks.filter((c) => c.isForCustomers),
       })),
       units: units
         .filter((u) => u.revision_id === revisionId)

@@ -15,7 +15,7 @@ import { select } from '../../db/sql'
 import { listNonconformances } from '../quality'
 import { toRevisionDto } from '../recipes'
 import { loadRevision } from '../recipes'
-import { lotTurnDeviation } from '../quality'
+import { lotKeyCheckSeries, lotTurnDeviation } from '../quality'
 import { getLotYield } from '../quality'
 import { lotUnitTotals } from '../quality'
 
@@ -174,12 +174,13 @@ export async function loadLotReportData(lotId: string): Promise<LotReportData> {
   const lot = await Lot.findByPk(lotId)
   if (!lot) throw AppError.notFound(`lot ${lotId}`)
   const rev = toRevisionDto(await loadRevision(lot.revisionId))
-  const [y, totals, pareto, turnSeries, caps, ncs, latest] = await Promise.all([
+  const [y, totals, pareto, turnSeries, caps, keyChecks, ncs, latest] = await Promise.all([
     getLotYield(lotId),
     lotUnitTotals([lotId]),
     defectPareto(lotId),
     lotTurnDeviationSeries(lotId),
     checkCapabilities(lotId, rev),
+    lotKeyCheckSeries(lotId),
     listNonconformances({ lotId }),
     latestActivity(lotId),
   ])
@@ -205,6 +206,7 @@ export async function loadLotReportData(lotId: string): Promise<LotReportData> {
     pareto,
     turnSeries,
     capability: caps,
+    keyChecks,
     nonconformances: ncs,
   }
 }

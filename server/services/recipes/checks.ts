@@ -1,8 +1,10 @@
+import type { Transaction } from 'sequelize'
 import { checkLimitProblems } from '../../../shared/checkRules'
+import { CHECK_DOCUMENT_FLAGS, isForCustomersByDefault } from '../../../shared/schemas/recipes'
 import type { CheckDto, CheckInput, CheckUpdateInput } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
-import { Check, RouteStep } from '../../models'
-import { auditAction, auditCreated, conflictOnDuplicate, updateAudited } from '../admin'
+import { Check, Revision, RouteStep } from '../../models'
+import { auditAction, auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
 import { toCheckDto } from './recipePresenters'
 import { editableRecipePiece } from './revisionAccess'
@@ -11,6 +13,27 @@ import { withTransaction } from '../../db/sql'
 const duplicateKey = conflictOnDuplicate('another check of this revision has this key', {
   key: 'already used in this revision',
 })
+
+/**
+ * The check, its revision locked. `onlyFlags`: the change touches only the document flags,
+ * which steer the lot report and the certificate and never a verdict, so a released revision
+ * may still take it (audited like any change); anything else needs a draft.
+ */
+async function editableCheck(
+  checkId: string,
+  transaction: Transaction,
+  onlyFlags = false,
+): Promise<Check> {
+  if (!onlyFlags) return editableRecipePiece(Check, checkId, 'check', transaction)
+  const check = await findOr404(Check, checkId, 'check', transaction)
+  await Revision.findByPk(check.revisionId, { transaction, lock: transaction.LOCK.UPDATE })
+  return check
+}
+
+const isFlagsOnly = (input: CheckUpdateInput) =>
+  Object.entries(input).every(
+    ([k, v]) => v === undefined || (CHECK_DOCUMENT_FLAGS as readonly string[]).includes(k),
+  )
 
 /** Adds a check at the end of a step's list. */
 export async function createCheck(
@@ -22,7 +45,14 @@ export async function createCheck(
     const step = await editableRecipePiece(RouteStep, stepId, 'step', transaction)
     const position = (await Check.count({ where: { stepId }, transaction })) + 1
     const check = await Check.create(
-      { ...input, stepId, revisionId: step.revisionId, position },
+      {
+        ...input,
+        isKey: input.isKey ?? false,
+        isForCustomers: input.isForCustomers ?? isForCustomersByDefault(input),
+        stepId,
+        revisionId: step.revisionId,
+        position,
+      },
       { transaction },
     )
     return auditCreated(actor, 'check.create', check.id, toCheckDto(check), transaction)
@@ -36,7 +66,7 @@ export async function updateCheck(
   actor: Actor,
 ): Promise<CheckDto> {
   return withTransaction(async (transaction) => {
-    const check = await editableRecipePiece(Check, checkId, 'check', transaction)
+    const check = await editableCheck(checkId, transaction, isFlagsOnly(input))
     const problems = checkLimitProblems({ ...toCheckDto(check), ...input })
     if (problems.length)
       throw AppError.badRequest(

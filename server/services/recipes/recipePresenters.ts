@@ -36,6 +36,8 @@ export function toCheckDto(c: Check): CheckDto {
     choices: c.choices,
     derived: c.derived,
     derivedInputs: c.derivedInputs,
+    isKey: c.isKey,
+    isForCustomers: c.isForCustomers,
   }
 }
 

@@ -16,6 +16,9 @@ export interface CheckForm {
   choices: ChoiceOption[]
   derived: DerivedFormula | null
   derivedInputs: Record<string, string>
+  isKey: boolean
+  /** null: the default for its unit and formula (turn counts off the certificate). */
+  isForCustomers: boolean | null
 }
 
 export const CHECK_KIND_LABELS: Record<CheckKind, string> = {
@@ -38,6 +41,8 @@ export function emptyCheckForm(): CheckForm {
     choices: [],
     derived: null,
     derivedInputs: {},
+    isKey: false,
+    isForCustomers: null,
   }
 }
 
@@ -55,6 +60,8 @@ export function checkFormOf(c: CheckDto): CheckForm {
     derived,
     choices: c.choices?.map((o) => ({ ...o })) ?? [],
     derivedInputs: { ...(c.derivedInputs ?? {}) },
+    isKey: c.isKey,
+    isForCustomers: c.isForCustomers,
   }
 }
 
@@ -76,6 +83,8 @@ export function checkInputOf(form: CheckForm): CheckInput {
         : null,
     derived: isNumeric ? form.derived : null,
     derivedInputs: isNumeric && form.derived ? { ...form.derivedInputs } : null,
+    isKey: isNumeric && form.isKey,
+    ...(form.isForCustomers === null ? {} : { isForCustomers: form.isForCustomers }),
   }
 }
 

@@ -2,7 +2,7 @@ import type { CheckDto } from '../../../shared/schemas/recipes'
 
 /**
  * A check of a route step as the API sends it: a plain numeric reading in volts, two decimals,
- * no nominal, limits, choices or derivation unless `over` gives them.
+ * no nominal, limits, choices or derivation, not key, on the certificate, unless `over` gives them.
  */
 export function checkDto(over: Partial<CheckDto> = {}): CheckDto {
   return {
@@ -20,6 +20,8 @@ export function checkDto(over: Partial<CheckDto> = {}): CheckDto {
     choices: null,
     derived: null,
     derivedInputs: null,
+    isKey: false,
+    isForCustomers: true,
     ...over,
   }
 }

@@ -159,7 +159,7 @@ describe('certificatePdf', { timeout: 30_000 }, () => {
     expect(text).toContain('60–65 s') // hipot duration limits
     expect(text).toContain('max 5 mA')
     expect(text).toContain('min 100 MΩ')
-    expect(text).toContain('pass, 2 of 2')
+    expect(text).toContain('PASS, 2 of 2')
     expect(text).toContain('attempt 2') // the rework run is the one that counts, and says so
     // The summary gives the spread over the shipment: 1705 to 1712 V.
     expect(text).toContain('1705 to 1712 V')

@@ -52,6 +52,7 @@ function emptyLot(): LotReportData {
     pareto: [],
     turnSeries: [],
     capability: [],
+    keyChecks: [],
     nonconformances: [],
   }
 }

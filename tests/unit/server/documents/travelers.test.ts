@@ -19,7 +19,7 @@ function check(position: number, fields: Partial<CheckDto>): CheckDto {
   return {
     ...{ id: `check-${position}`, stepId: 'step', position, key: `k${position}`, label: 'Check' },
     ...{ kind: 'numeric', unit: null, nominal: null, lower: null, upper: null, decimals: 0 },
-    ...{ choices: null, derived: null, derivedInputs: null },
+    ...{ choices: null, derived: null, derivedInputs: null, isKey: false, isForCustomers: true },
     ...fields,
   }
 }

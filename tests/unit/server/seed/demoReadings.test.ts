@@ -43,6 +43,8 @@ const steps: StepDto[] = fp24.steps.map((s, i) => ({
     upper: c.upper ?? null,
     decimals: c.decimals ?? 2,
     choices: c.choices ?? null,
+    isKey: false,
+    isForCustomers: true,
     derived: c.derived ?? null,
     derivedInputs: c.derivedInputs ?? null,
   })),

@@ -5,26 +5,12 @@ import {
 } from '../../../../shared/recipes/revisionChanges'
 import type { RecipeContent } from '../../../../shared/recipes/revisionChanges'
 import type { BomLineDto, CheckDto, StepDto, WindingDto } from '../../../../shared/schemas/recipes'
+import { checkDto } from '../../support/checkDto'
 
 // Pairing and wording rules are ours: common practice, no source.
 
-const check = (id: string, key: string, over: Partial<CheckDto> = {}): CheckDto => ({
-  id,
-  stepId: 's',
-  position: 1,
-  key,
-  label: key,
-  kind: 'numeric',
-  unit: 'mH',
-  nominal: 10,
-  lower: 9,
-  upper: 11,
-  decimals: 2,
-  choices: null,
-  derived: null,
-  derivedInputs: null,
-  ...over,
-})
+const check = (id: string, key: string, over: Partial<CheckDto> = {}): CheckDto =>
+  checkDto({ id, key, label: key, unit: 'mH', nominal: 10, lower: 9, upper: 11, ...over })
 const step = (id: string, position: number, name: string, checks: CheckDto[] = []): StepDto => ({
   id,
   position,
