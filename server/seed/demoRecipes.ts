@@ -108,6 +108,7 @@ export const DEMO_PARTS: PartInput[] = [
     description: 'Polyimide insulation tape 25 mm',
     unitOfMeasure: 'm',
     hasExpiry: true,
+    shelfLifeDays: 365,
   },
   {
     partNumber: 'PCB-FP24-B',
@@ -150,6 +151,7 @@ export const DEMO_PARTS: PartInput[] = [
     description: 'Solder wire, lead-free, 0.7 mm',
     unitOfMeasure: 'g',
     hasExpiry: true,
+    shelfLifeDays: 730,
   },
   {
     partNumber: 'ENC-AL2',
