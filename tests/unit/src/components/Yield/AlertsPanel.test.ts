@@ -27,6 +27,7 @@ function alert(over: Partial<AlertDto>): AlertDto {
       fpy: 0.8,
       thresholdPercent: 90,
       interval: { low: 0.49, high: 0.943 },
+      station: 'Load-test rack 1',
     },
     summary:
       'Load-test rack 1: first-pass yield 80.0 % (8 of 10 first attempts) is below the 90 % threshold; look at the Pareto.',
@@ -75,7 +76,7 @@ describe('AlertsPanel', () => {
     const rows = wrapper.findAll('.alerts__item')
     expect(rows).toHaveLength(1)
     expect(rows[0]!.find('.alerts__line').text()).toContain('Hipot')
-    expect(rows[0]!.find('.alerts__text').text()).toMatch(/^Load-test rack 1: first-pass yield/)
+    expect(rows[0]!.find('.alerts__what').text()).toMatch(/^Load-test rack 1: first-pass yield/)
     expect(wrapper.text()).toContain('1 open alert on this lot')
     // The acknowledged one on request, after the open one.
     await wrapper
