@@ -81,7 +81,7 @@ describe('Shipping screen', () => {
     await sure.getByText(`2 units go to ${customerName}`, { exact: false }).waitFor()
     await sure.getByRole('button', { name: 'Ship', exact: true }).click()
 
-    const drawer = page.locator('.el-drawer')
+    const drawer = page.locator('.el-drawer:not(.shell-menu)')
     await drawer.getByText('Packing slip').first().waitFor()
     expect(await drawer.textContent()).toContain(customerName)
     for (const s of passed)

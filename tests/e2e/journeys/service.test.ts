@@ -66,7 +66,7 @@ describe('Service journey', () => {
     await form.getByLabel('What the customer reports').fill('No output after a week in service')
     await form.getByRole('button', { name: 'Log return' }).click()
     await form.waitFor({ state: 'hidden' })
-    const drawer = page.locator('.el-drawer')
+    const drawer = page.locator('.el-drawer:not(.shell-menu)')
     await expect.poll(() => drawer.locator('.svc-serial').textContent()).toBe(serial)
 
     const trace = await callApi<UnitTraceDto>(page, `/trace/units/${serial}`)
