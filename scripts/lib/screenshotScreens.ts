@@ -2,6 +2,7 @@
 // API by what they are (the demo scenario may change; these behaviours do not).
 import type { Page } from 'playwright-core'
 import type { LotDto } from '../../shared/schemas/lots'
+import type { StatisticsDto } from '../../shared/schemas/statistics'
 import type { LotTurnDeviationDto } from '../../shared/schemas/yield'
 import type { RevisionDto, StepDto } from '../../shared/schemas/recipes'
 import {
@@ -24,6 +25,8 @@ export interface Subjects {
   lotId: string
   /** The lot whose secondary turns look most suspect, and the first day of its runs. */
   turnsLot: { number: string; from: string }
+  /** A lot with enough readings of one load-test check to chart, and that check's label. */
+  statsLot: { id: string; label: string }
   /** The unit with the richest history, and a component lot it holds. */
   traceSerial: string
   componentLotCode: string
@@ -106,6 +109,20 @@ export const SCREENS: readonly Screen[] = [
   home('lead'),
   { name: 'lot', show: (page, base, s) => open(page, `${base}/lots/${s.lotId}`, '.grid-cell') },
   {
+    name: 'lot-statistics',
+    async show(page, base, s) {
+      await open(page, `${base}/lots/${s.statsLot.id}`, '[data-test="lot-statistics"]')
+      const panel = page.locator('[data-test="lot-statistics"]')
+      await panel.locator('[data-test="check-picker"]').click()
+      await page
+        .locator('.el-select-dropdown__item:visible', { hasText: s.statsLot.label })
+        .first()
+        .click()
+      await panel.locator('[data-test="mr-chart"] svg').waitFor()
+      await panel.evaluate((p) => p.scrollIntoView({ block: 'start' }))
+    },
+  },
+  {
     name: 'yield-turn-panel',
     async show(page, base, s) {
       await open(page, `${base}/yield`, '.el-table__row')
@@ -185,6 +202,16 @@ export async function findSubjects(page: Page, base: string): Promise<Subjects> 
         turnsLot = { number: lot.number, from: first.slice(0, 10), suspects }
     }
   }
+  let statsLot = { id: '', label: '' }
+  for (const lot of lots.filter((l) => l.status !== 'planned')) {
+    const stats = await callApi<StatisticsDto>(page, `/yield/lots/${lot.id}/statistics`)
+    const eff = stats.checks.find((c) => c.key === 'efficiency_pct' && c.readings >= 8)
+    if (eff) {
+      statsLot = { id: lot.id, label: eff.label }
+      break
+    }
+  }
+  if (!statsLot.id) throw new Error('the demo has no lot with eight efficiency readings')
   const trace = await busiestUnit(page, lots)
   const windingStation = await stationOf(page, 'winding')
   await callApi(page, '/auth/logout', 'POST')
@@ -194,6 +221,7 @@ export async function findSubjects(page: Page, base: string): Promise<Subjects> 
     waitingSerial: serial,
     lotId: (inProgress[0] ?? lots[0]!).id,
     turnsLot,
+    statsLot,
     ...trace,
   }
 }
