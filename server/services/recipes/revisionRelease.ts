@@ -8,7 +8,7 @@ import type { ReleaseInput, RevisionDto } from '../../../shared/schemas/recipes'
 import { AppError } from '../../errors'
 import { Revision } from '../../models'
 import { select, withTransaction } from '../../db/sql'
-import { recordAudit } from '../admin'
+import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { toRevisionDto } from './recipePresenters'
 import { loadRevision, lockDraftRevision } from './revisionAccess'
@@ -103,24 +103,22 @@ export async function releaseRevision(
     )
     for (const s of retired) {
       await Revision.update({ status: 'obsolete' }, { where: { id: s.id }, transaction })
-      await recordAudit(
+      await auditAction(
         actor,
+        'revision.obsolete',
+        s.id,
         {
-          action: 'revision.obsolete',
-          entity: 'revision',
-          entityId: s.id,
           before: { status: 'released' },
           after: { status: 'obsolete', replacedBy: rev.letter, openLots: s.openLots },
         },
         transaction,
       )
     }
-    await recordAudit(
+    await auditAction(
       actor,
+      'revision.release',
+      id,
       {
-        action: 'revision.release',
-        entity: 'revision',
-        entityId: id,
         before: { status: 'draft' },
         after: {
           status: 'released',
