@@ -1,5 +1,4 @@
 import { mkdir, writeFile } from 'node:fs/promises'
-import { PDFParse } from 'pdf-parse'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { DocumentDto } from '../../shared/schemas/lots'
 import type { RevisionDto } from '../../shared/schemas/recipes'
@@ -8,6 +7,7 @@ import { AuditEvent } from '../../server/models'
 import { renderDocument } from '../../server/services/documents/documentRender'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
+import { binary, pdfText } from './support/pdf'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 
@@ -17,23 +17,6 @@ import type { TestLot } from './support/floor'
 const today = new Date().toISOString().slice(0, 10)
 // The output voltages of eight units, in scan order (invented for the test).
 const VOUT = [350, 351, 349, 350, 352, 348, 350, 351]
-
-const flat = (text: string) => text.normalize('NFKC').replace(/\s+/g, ' ')
-async function pdfText(pdf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: new Uint8Array(pdf) })
-  try {
-    return flat((await parser.getText()).text)
-  } finally {
-    await parser.destroy()
-  }
-}
-function binary(req: ReturnType<TestClient['get']>) {
-  return req.buffer(true).parse((res, done) => {
-    const chunks: Buffer[] = []
-    res.on('data', (c: Buffer) => chunks.push(c))
-    res.on('end', () => done(null, Buffer.concat(chunks)))
-  })
-}
 
 describe('statistics on any check and the document flags', () => {
   let engineer: TestClient

@@ -12,22 +12,11 @@ import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../server/services/documents'
 import { resetSignInLimits, signedInAs } from './support/client'
 import type { TestClient } from './support/client'
+import { flat, pdfText } from './support/pdf'
 import { runMixedLot } from './support/floor'
 import type { TestLot } from './support/floor'
 
 const today = new Date().toISOString().slice(0, 10)
-// pdf.js hands text back NFKC-normalised (µ comes back as Greek mu) and wrapped into lines.
-const flat = (text: string) => text.normalize('NFKC').replace(/\s+/g, ' ')
-
-async function pdfText(pdf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: new Uint8Array(pdf) })
-  try {
-    return flat((await parser.getText()).text)
-  } finally {
-    await parser.destroy()
-  }
-}
-
 type Parser = Parameters<ReturnType<TestClient['get']>['parse']>[0]
 /** Reads a binary download (supertest buffers only text by default). */
 const binary = ((res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {

@@ -1,4 +1,3 @@
-import { PDFParse } from 'pdf-parse'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { DocumentDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { EmailDto, OutboxPageDto } from '../../shared/schemas/outbox'
@@ -8,6 +7,7 @@ import { AuditEvent, Check, Email, Measurement, Shipment, StepRun, Unit } from '
 import { renderDocument } from '../../server/services/documents/documentRender'
 import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
+import { binary, pdfText } from './support/pdf'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 import { startMailRig } from './support/mailRig'
@@ -16,26 +16,6 @@ vi.hoisted(() => {
   process.env.WAYMARK_MAIL_ATTEMPTS = '2'
   process.env.WAYMARK_MAIL_BACKOFF_MS = '100'
 })
-
-// pdf.js hands text back NFKC-normalised and wrapped into lines.
-const flat = (text: string) => text.normalize('NFKC').replace(/\s+/g, ' ')
-
-async function pdfText(pdf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: pdf })
-  try {
-    return flat((await parser.getText()).text)
-  } finally {
-    await parser.destroy()
-  }
-}
-
-function binary(req: ReturnType<TestClient['get']>) {
-  return req.buffer(true).parse((res, done) => {
-    const chunks: Buffer[] = []
-    res.on('data', (c: Buffer) => chunks.push(c))
-    res.on('end', () => done(null, Buffer.concat(chunks)))
-  })
-}
 
 async function waitFor<T>(probe: () => Promise<T | null | undefined>, what: string): Promise<T> {
   const deadline = Date.now() + 15_000

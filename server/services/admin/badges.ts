@@ -6,7 +6,7 @@ import { AppError } from '../../errors'
 import { User } from '../../models'
 import { withTransaction } from '../../db/sql'
 import { hashPassword, verifyPassword } from '../auth'
-import { recordAudit } from '../audit'
+import { auditAction } from '../audit'
 import type { Actor } from '../audit'
 
 /** Crockford's base 32: no I, L, O or U, so a badge code read aloud is not misheard. */
@@ -42,17 +42,11 @@ export async function issueBadge(userId: string, actor: Actor): Promise<Buffer> 
   const hadBadge = user.badgeCode !== null
   await withTransaction(async (transaction) => {
     await user.update({ badgeCode }, { transaction })
-    await recordAudit(
-      actor,
-      {
-        action: 'user.badge',
-        entity: 'user',
-        entityId: user.id,
-        before: { badge: hadBadge ? 'printed' : 'none' },
-        after: { badge: hadBadge ? 'replaced' : 'printed' },
-      },
-      transaction,
-    )
+    const change = {
+      before: { badge: hadBadge ? 'printed' : 'none' },
+      after: { badge: hadBadge ? 'replaced' : 'printed' },
+    }
+    await auditAction(actor, 'user.badge', user.id, change, transaction)
   })
   return badgePdf({
     name: user.name,
@@ -81,17 +75,11 @@ export async function setOwnPin(
   await withTransaction(async (transaction) => {
     const hadPin = user.pinHash !== null
     await user.update({ pinHash, pinSetAt }, { transaction })
-    await recordAudit(
-      actor,
-      {
-        action: 'user.pin',
-        entity: 'user',
-        entityId: user.id,
-        before: { pin: hadPin ? 'set' : 'none' },
-        after: { pin: hadPin ? 'changed' : 'set' },
-      },
-      transaction,
-    )
+    const change = {
+      before: { pin: hadPin ? 'set' : 'none' },
+      after: { pin: hadPin ? 'changed' : 'set' },
+    }
+    await auditAction(actor, 'user.pin', user.id, change, transaction)
   })
   return { pinSetAt: pinSetAt.toISOString() }
 }
