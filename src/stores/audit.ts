@@ -30,10 +30,7 @@ export const useAuditStore = defineStore('audit', () => {
     }
   }
 
-  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
-    (paging) => auditApi.list({ ...paging, ...query() }),
-    50,
-  )
+  const list = usePagedList((paging) => auditApi.list({ ...paging, ...query() }), 50)
 
   function clear() {
     Object.assign(filters, EMPTY)
@@ -41,17 +38,5 @@ export const useAuditStore = defineStore('audit', () => {
 
   const csvUrl = () => auditApi.csvUrl(query())
 
-  return {
-    rows,
-    total,
-    page,
-    pageSize,
-    filters,
-    isLoading,
-    loadError,
-    fetchPage,
-    search,
-    clear,
-    csvUrl,
-  }
+  return { ...list, filters, clear, csvUrl }
 })

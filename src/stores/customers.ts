@@ -1,43 +1,22 @@
 import { defineStore } from 'pinia'
-import { computed, ref } from 'vue'
-import type {
-  CustomerCreateInput,
-  CustomerDto,
-  CustomerUpdateInput,
-} from '@shared/schemas/shipping'
+import { computed } from 'vue'
 import { customersApi } from '@/api/customers'
+import { saving } from './lists/saving'
+import { useFetched } from './lists/useFetched'
 
 export const useCustomersStore = defineStore('customers', () => {
-  /** Every customer, by name. */
-  const customers = ref<CustomerDto[]>([])
-  /** True while the list loads. */
-  const isLoading = ref(false)
+  /** Every customer, by name; `isLoading` while the list loads, `fetchAll` throws ApiError. */
+  const { data: customers, isLoading, load: fetchAll } = useFetched(customersApi.list, [])
   /** Customers by id, for the links and pickers. */
   const byId = computed(() => new Map(customers.value.map((c) => [c.id, c])))
 
-  /** Fetches the list; throws ApiError. */
-  async function fetchAll() {
-    isLoading.value = true
-    try {
-      customers.value = await customersApi.list()
-    } finally {
-      isLoading.value = false
-    }
-  }
-
   /** Adds a customer and returns it; throws ApiError with field messages. */
-  async function create(input: CustomerCreateInput) {
-    const created = await customersApi.create(input)
-    await fetchAll()
-    return created
-  }
+  const create = saving(customersApi.create, fetchAll)
 
   /** Changes a customer; throws ApiError with field messages. */
-  async function update(id: string, input: CustomerUpdateInput) {
-    const updated = await customersApi.update(id, input)
-    customers.value = customers.value.map((c) => (c.id === id ? updated : c))
-    return updated
-  }
+  const update = saving(customersApi.update, (updated) => {
+    customers.value = customers.value.map((c) => (c.id === updated.id ? updated : c))
+  })
 
   return { customers, isLoading, byId, fetchAll, create, update }
 })

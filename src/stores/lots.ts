@@ -5,16 +5,16 @@ import type { UnitState } from '@shared/lots'
 import type {
   DispositionInput,
   DocumentDto,
-  LotCreateInput,
   LotDto,
   LotGridDto,
-  LotUpdateInput,
   NonconformanceDto,
 } from '@shared/schemas/lots'
 import { lotsApi } from '@/api/lots'
 import type { DocumentRequest } from '@/api/lots'
 import { nonconformancesApi } from '@/api/nonconformances'
 import { productsApi } from '@/api/products'
+import { saving } from './lists/saving'
+import { useFetched } from './lists/useFetched'
 
 /** A released revision a new lot can build, for the revision select. */
 export interface RevisionChoice {
@@ -25,9 +25,8 @@ export interface RevisionChoice {
 
 /** Lots: the list, and the one lot open on its page with its grid, documents and nonconformances. */
 export const useLotsStore = defineStore('lots', () => {
-  /** Every lot, newest first. */
-  const lots = ref<LotDto[]>([])
-  const isLoading = ref(false)
+  /** Every lot, newest first; `fetchAll` throws ApiError. */
+  const { data: lots, isLoading, load: fetchAll } = useFetched(lotsApi.list, [])
   /** The lot open on its page. */
   const lot = ref<LotDto | null>(null)
   const grid = ref<LotGridDto | null>(null)
@@ -49,21 +48,12 @@ export const useLotsStore = defineStore('lots', () => {
     )
   })
 
+  /** Puts a lot in the list (a new one first) and on its page when it is open there. */
   function put(next: LotDto) {
     lots.value = lots.value.some((l) => l.id === next.id)
       ? lots.value.map((l) => (l.id === next.id ? next : l))
       : [next, ...lots.value]
     if (lot.value?.id === next.id) lot.value = next
-  }
-
-  /** Fetches every lot; throws ApiError. */
-  async function fetchAll() {
-    isLoading.value = true
-    try {
-      lots.value = await lotsApi.list()
-    } finally {
-      isLoading.value = false
-    }
   }
 
   /** Fetches the released revisions of every product, for the New lot dialog. */
@@ -80,17 +70,8 @@ export const useLotsStore = defineStore('lots', () => {
     )
   }
 
-  async function create(input: LotCreateInput) {
-    const created = await lotsApi.create(input)
-    put(created)
-    return created
-  }
-
-  async function update(id: string, input: LotUpdateInput) {
-    const updated = await lotsApi.update(id, input)
-    put(updated)
-    return updated
-  }
+  const create = saving(lotsApi.create, put)
+  const update = saving(lotsApi.update, put)
 
   /** Opens a lot's page: the lot, its grid, documents and open nonconformances together. */
   async function open(id: string) {

@@ -14,7 +14,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   /** True while the open e-mail is being fetched. */
   const isCurrentLoading = ref(false)
 
-  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+  const list = usePagedList(
     (paging) =>
       outboxApi.list({
         ...paging,
@@ -63,24 +63,17 @@ export const useOutboxStore = defineStore('outbox', () => {
     if (input.subject !== current.value.subject || input.text !== current.value.text)
       await outboxApi.updateDraft(id, input)
     current.value = await outboxApi.sendDraft(id)
-    await fetchPage()
+    await list.fetchPage()
   }
 
   return {
+    ...list,
     saveDraft,
     sendDraft,
-    rows,
-    total,
-    page,
-    pageSize,
     status,
-    isLoading,
-    loadError,
     openId,
     current,
     isCurrentLoading,
-    fetchPage,
-    search,
     open,
     close,
     attachmentUrl,

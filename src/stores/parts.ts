@@ -1,8 +1,9 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { PartDto, PartInput } from '@shared/schemas/recipes'
+import type { PartDto } from '@shared/schemas/recipes'
 import type { PART_SORTS } from '@shared/schemas/componentLots'
 import { partsApi } from '@/api/parts'
+import { saving } from './lists/saving'
 import { usePagedList } from './lists/usePagedList'
 
 export type PartSort = (typeof PART_SORTS)[number]
@@ -14,7 +15,7 @@ export const usePartsStore = defineStore('parts', () => {
   const sort = ref<PartSort>('partNumber')
   const order = ref<'asc' | 'desc'>('asc')
 
-  const { rows, total, page, pageSize, isLoading, loadError, fetchPage, search } = usePagedList(
+  const list = usePagedList(
     (paging) =>
       partsApi.list({
         ...paging,
@@ -30,32 +31,16 @@ export const usePartsStore = defineStore('parts', () => {
     return (await partsApi.list({ page: 1, pageSize: 20, q: text.trim() || undefined })).rows
   }
 
-  /** Creates a part and shows the list again from the first page. */
-  async function create(input: PartInput) {
-    const part = await partsApi.create(input)
-    await fetchPage()
-    return part
-  }
-
+  /** Creates a part and shows the current page again. */
+  const create = saving(partsApi.create, list.fetchPage)
   /** Updates a part in place. */
-  async function update(id: string, input: Partial<PartInput>) {
-    const part = await partsApi.update(id, input)
-    rows.value = rows.value.map((p) => (p.id === id ? part : p))
-    return part
-  }
+  const update = saving(partsApi.update, list.put)
 
   return {
-    rows,
-    total,
-    page,
-    pageSize,
+    ...list,
     q,
     sort,
     order,
-    isLoading,
-    loadError,
-    fetchPage,
-    search,
     lookup,
     create,
     update,

@@ -3,32 +3,26 @@ import { ref } from 'vue'
 import type { StepDto } from '@shared/schemas/recipes'
 import type {
   ServiceCaseCloseInput,
-  ServiceCaseCreateInput,
   ServiceCaseDto,
   ServiceCaseUpdateInput,
 } from '@shared/schemas/shipping'
 import { revisionsApi } from '@/api/revisions'
 import { serviceCasesApi } from '@/api/serviceCases'
+import { saving } from './lists/saving'
+import { useFetched } from './lists/useFetched'
 
 export const useServiceStore = defineStore('service', () => {
-  /** Cases, open ones first. */
-  const cases = ref<ServiceCaseDto[]>([])
-  const isLoading = ref(false)
   /** The filter of the list; empty for every case. */
   const status = ref<'open' | 'closed' | ''>('open')
+  /** Cases with the current filter, open ones first; `fetchAll` throws ApiError. */
+  const {
+    data: cases,
+    isLoading,
+    load: fetchAll,
+  } = useFetched(() => serviceCasesApi.list({ status: status.value || undefined }), [])
   /** The case open in the drawer and the route of its unit (its documents have their panel). */
   const current = ref<ServiceCaseDto | null>(null)
   const steps = ref<StepDto[]>([])
-
-  /** Fetches the list with the current filter; throws ApiError. */
-  async function fetchAll() {
-    isLoading.value = true
-    try {
-      cases.value = await serviceCasesApi.list({ status: status.value || undefined })
-    } finally {
-      isLoading.value = false
-    }
-  }
 
   function put(c: ServiceCaseDto) {
     current.value = c
@@ -43,11 +37,7 @@ export const useServiceStore = defineStore('service', () => {
   }
 
   /** Logs a return; the unit becomes returned. Throws ApiError with field messages. */
-  async function create(input: ServiceCaseCreateInput) {
-    const c = await serviceCasesApi.open(input)
-    await fetchAll()
-    return c
-  }
+  const create = saving(serviceCasesApi.open, fetchAll)
 
   async function update(input: ServiceCaseUpdateInput) {
     if (current.value) put(await serviceCasesApi.update(current.value.id, input))

@@ -1,14 +1,10 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import type { DocumentDto } from '@shared/schemas/lots'
-import type {
-  ShipmentCreateInput,
-  ShipmentDto,
-  ShipmentSummaryDto,
-  ShippableUnitDto,
-} from '@shared/schemas/shipping'
+import type { ShipmentCreateInput, ShipmentDto, ShippableUnitDto } from '@shared/schemas/shipping'
 import { ApiError } from '@/api/client'
 import { shipmentsApi } from '@/api/shipments'
+import { useFetched } from './lists/useFetched'
 
 /** One scan at the packing bench, as the list beside the scan box shows it. */
 export interface PackScan {
@@ -22,9 +18,8 @@ export interface PackScan {
 }
 
 export const useShippingStore = defineStore('shipping', () => {
-  /** Recent shipments, newest first. */
-  const shipments = ref<ShipmentSummaryDto[]>([])
-  const isLoading = ref(false)
+  /** Recent shipments, newest first; `fetchAll` throws ApiError. */
+  const { data: shipments, isLoading, load: fetchAll } = useFetched(() => shipmentsApi.list(), [])
   /** Units scanned into the shipment being packed, in scan order. */
   const packed = ref<ShippableUnitDto[]>([])
   /** Every scan at this bench, newest first, including the refused ones. */
@@ -37,16 +32,6 @@ export const useShippingStore = defineStore('shipping', () => {
       current.value?.documents.some((d) => d.status === 'queued' || d.status === 'running') ??
       false,
   )
-
-  /** Fetches the shipment list; throws ApiError. */
-  async function fetchAll() {
-    isLoading.value = true
-    try {
-      shipments.value = await shipmentsApi.list()
-    } finally {
-      isLoading.value = false
-    }
-  }
 
   /**
    * Checks one scan at once and adds the unit when it may ship. Never throws: a refusal is

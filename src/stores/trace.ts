@@ -1,15 +1,15 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
+import type { Ref } from 'vue'
 import type {
   ContainedUnitDecisionInput,
   ContainResultDto,
   EndContainmentInput,
   EndContainmentResultDto,
-  RecallScopeDto,
-  UnitTraceDto,
 } from '@shared/schemas/trace'
 import { ApiError } from '@/api/client'
 import { traceApi } from '@/api/trace'
+import { whileLoading } from './lists/whileLoading'
 
 /** A lookup that did not find a unit: what was asked, what the server said, what it offers. */
 export interface TraceMiss {
@@ -26,53 +26,48 @@ function missOf(asked: string, error: unknown): TraceMiss | null {
   return { asked, code: error.code, message: error.message, suggestions }
 }
 
-export const useTraceStore = defineStore('trace', () => {
-  /** The unit on screen. */
-  const trace = ref<UnitTraceDto | null>(null)
-  /** The last serial lookup that found nothing (mistyped or unknown), with suggestions. */
+/**
+ * A lookup by what the person typed: the record found, or the miss with its suggestions.
+ * `lookUp` throws the errors that are not a miss (ApiError, network).
+ */
+function useLookup<T>(find: (asked: string) => Promise<T>) {
+  const found = ref(null) as Ref<T | null>
   const miss = ref<TraceMiss | null>(null)
   const isLoading = ref(false)
-  /** The recall scope on screen. */
-  const scope = ref<RecallScopeDto | null>(null)
-  const scopeMiss = ref<TraceMiss | null>(null)
-  const isScopeLoading = ref(false)
+
+  async function lookUp(asked: string) {
+    miss.value = null
+    await whileLoading(isLoading, async () => {
+      try {
+        found.value = await find(asked)
+      } catch (error) {
+        const m = missOf(asked, error)
+        if (!m) throw error
+        found.value = null
+        miss.value = m
+      }
+    })
+  }
+
+  return { found, miss, isLoading, lookUp }
+}
+
+export const useTraceStore = defineStore('trace', () => {
+  /** The unit on screen, or the last serial lookup that found nothing (mistyped or unknown). */
+  const units = useLookup(traceApi.unit)
+  /** The recall scope on screen, or the component lot code that found nothing. */
+  const scopes = useLookup(traceApi.recall)
+  const scope = scopes.found
   /** What the last containment did. */
   const contained = ref<ContainResultDto | null>(null)
   /** What the last end of a containment did. */
   const ended = ref<EndContainmentResultDto | null>(null)
 
-  /** Looks a serial up; a mistyped or unknown one lands in `miss`, other errors are thrown. */
-  async function lookUp(serial: string) {
-    isLoading.value = true
-    miss.value = null
-    try {
-      trace.value = await traceApi.unit(serial)
-    } catch (error) {
-      const m = missOf(serial, error)
-      if (!m) throw error
-      trace.value = null
-      miss.value = m
-    } finally {
-      isLoading.value = false
-    }
-  }
-
   /** Loads the recall scope of a component lot; an unknown code lands in `scopeMiss`. */
   async function lookUpLot(code: string) {
-    isScopeLoading.value = true
-    scopeMiss.value = null
     contained.value = null
     ended.value = null
-    try {
-      scope.value = await traceApi.recall(code)
-    } catch (error) {
-      const m = missOf(code, error)
-      if (!m) throw error
-      scope.value = null
-      scopeMiss.value = m
-    } finally {
-      isScopeLoading.value = false
-    }
+    await scopes.lookUp(code)
   }
 
   /** Lead: contains the lot on screen; throws ApiError. */
@@ -102,15 +97,17 @@ export const useTraceStore = defineStore('trace', () => {
   }
 
   return {
-    trace,
-    miss,
-    isLoading,
+    /** The unit on screen. */
+    trace: units.found,
+    miss: units.miss,
+    isLoading: units.isLoading,
+    /** Looks a serial up; a mistyped or unknown one lands in `miss`, other errors are thrown. */
+    lookUp: units.lookUp,
     scope,
-    scopeMiss,
-    isScopeLoading,
+    scopeMiss: scopes.miss,
+    isScopeLoading: scopes.isLoading,
     contained,
     ended,
-    lookUp,
     lookUpLot,
     contain,
     endContainment,

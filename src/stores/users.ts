@@ -3,14 +3,8 @@ import { usersApi } from '@/api/users'
 import { useRecordList } from './lists/useRecordList'
 
 export const useUsersStore = defineStore('users', () => {
-  /** Every user, sorted by name; `isLoading` while they are fetched. */
-  const {
-    rows: users,
-    isLoading,
-    fetchAll,
-    create,
-    update,
-  } = useRecordList(usersApi, (u) => u.name)
+  /** Every user, sorted by name, with the list's flag and calls (`isLoading`, `fetchAll`, …). */
+  const { rows: users, ...list } = useRecordList(usersApi, (u) => u.name)
 
-  return { users, isLoading, fetchAll, create, update }
+  return { users, ...list }
 })

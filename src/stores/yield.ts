@@ -10,6 +10,8 @@ import type {
 import type { ProductDto } from '@shared/schemas/recipes'
 import { productsApi } from '@/api/products'
 import { yieldApi } from '@/api/yield'
+import { useFetched } from './lists/useFetched'
+import { whileLoading } from './lists/whileLoading'
 
 /** The board's period and filters; dates are whole UTC days, both included. */
 export interface YieldFilter {
@@ -38,8 +40,12 @@ function defaultFilter(now = new Date()): YieldFilter {
 /** The Yield board: the period's summary and the selected lot's figures and turn review. */
 export const useYieldStore = defineStore('yield', () => {
   const filter = ref<YieldFilter>(defaultFilter())
-  const summary = ref<YieldSummaryDto | null>(null)
-  const isLoading = ref(false)
+  /** The KPIs and lots table for the filter; `fetchSummary` throws ApiError. */
+  const {
+    data: summary,
+    isLoading,
+    load: fetchSummary,
+  } = useFetched<YieldSummaryDto | null>(() => yieldApi.summary(filter.value), null)
   /** The lot picked in the table. */
   const selectedLotId = ref<string | null>(null)
   const lotYield = ref<LotYieldDto | null>(null)
@@ -53,33 +59,16 @@ export const useYieldStore = defineStore('yield', () => {
     products.value = await productsApi.list()
   }
 
-  /** Fetches the KPIs and lots table for the filter; throws ApiError. */
-  async function fetchSummary() {
-    isLoading.value = true
-    try {
-      summary.value = await yieldApi.summary(filter.value)
-    } finally {
-      isLoading.value = false
-    }
-  }
-
   /** Selects a lot and fetches its step FPYs, detail and turn review together. */
   async function selectLot(id: string) {
     selectedLotId.value = id
-    isLotLoading.value = true
-    try {
-      const [y, d, t] = await Promise.all([
-        yieldApi.lot(id),
-        yieldApi.detail(id),
-        yieldApi.turns(id),
-      ])
-      if (selectedLotId.value !== id) return
-      lotYield.value = y
-      detail.value = d
-      turns.value = t
-    } finally {
-      isLotLoading.value = false
-    }
+    const [y, d, t] = await whileLoading(isLotLoading, () =>
+      Promise.all([yieldApi.lot(id), yieldApi.detail(id), yieldApi.turns(id)]),
+    )
+    if (selectedLotId.value !== id) return
+    lotYield.value = y
+    detail.value = d
+    turns.value = t
   }
 
   /** Only the turn review, for the lot page. */

@@ -1,6 +1,7 @@
 import { ref } from 'vue'
 import type { Ref } from 'vue'
 import { messageOf } from '@/api/client'
+import { whileLoading } from './whileLoading'
 
 /** One page of a list as the server sends it. */
 export interface Page<T> {
@@ -14,7 +15,7 @@ export interface Page<T> {
  * @param fetch asks the API for one page; the store adds its own filters and sort
  * @param pageSize rows per page at first
  */
-export function usePagedList<T>(
+export function usePagedList<T extends { id: string }>(
   fetch: (paging: { page: number; pageSize: number }) => Promise<Page<T>>,
   pageSize = 25,
 ) {
@@ -31,18 +32,23 @@ export function usePagedList<T>(
 
   /** Fetches the current page; throws ApiError. */
   async function fetchPage() {
-    isLoading.value = true
     try {
-      const result = await fetch({ page: page.value, pageSize: size.value })
+      const result = await whileLoading(isLoading, () =>
+        fetch({ page: page.value, pageSize: size.value }),
+      )
       rows.value = result.rows
       total.value = result.total
       loadError.value = null
     } catch (error) {
       loadError.value = messageOf(error)
       throw error
-    } finally {
-      isLoading.value = false
     }
+  }
+
+  /** Shows a saved row in place of the one with its id on this page; returns it. */
+  function put(row: T) {
+    rows.value = rows.value.map((r) => (r.id === row.id ? row : r))
+    return row
   }
 
   /** Applies changed filters or sort from the first page. */
@@ -51,5 +57,5 @@ export function usePagedList<T>(
     await fetchPage()
   }
 
-  return { rows, total, page, pageSize: size, isLoading, loadError, fetchPage, search }
+  return { rows, total, page, pageSize: size, isLoading, loadError, fetchPage, search, put }
 }

@@ -1,5 +1,7 @@
 import { ref } from 'vue'
 import type { Ref } from 'vue'
+import { saving } from './saving'
+import { whileLoading } from './whileLoading'
 
 /** The calls of a resource whose whole list the browser keeps. */
 export interface RecordListApi<T, C, U> {
@@ -31,27 +33,13 @@ export function useRecordList<T extends { id: string }, C, U>(
 
   /** Fetches every record; throws ApiError, the view decides how to show it. */
   async function fetchAll() {
-    isLoading.value = true
-    try {
-      rows.value = (await api.list()).sort(bySortKey)
-    } finally {
-      isLoading.value = false
-    }
+    rows.value = (await whileLoading(isLoading, () => api.list())).sort(bySortKey)
   }
 
   /** Creates a record and keeps it in the list. */
-  async function create(input: C) {
-    const record = await api.create(input)
-    put(record)
-    return record
-  }
-
+  const create = saving((input: C) => api.create(input), put)
   /** Updates a record and puts the server's answer back in the list. */
-  async function update(id: string, input: U) {
-    const record = await api.update(id, input)
-    put(record)
-    return record
-  }
+  const update = saving((id: string, input: U) => api.update(id, input), put)
 
   return { rows, isLoading, put, fetchAll, create, update }
 }
