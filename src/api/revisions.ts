@@ -42,41 +42,45 @@ export const revisionsApi = {
   copy: (id: string) => request<RevisionDto>(at('revisions', id, '/copy'), json('POST')),
 }
 
-export const windingsApi = {
-  create: (revisionId: string, input: WindingInput) =>
-    request<WindingDto>(at('revisions', revisionId, '/windings'), json('POST', input)),
-  update: (id: string, input: Partial<WindingInput>) =>
-    request<WindingDto>(at('windings', id), json('PATCH', input)),
-  remove: (id: string) => request<void>(at('windings', id), json('DELETE')),
+/**
+ * The calls every part of a revision has: create under its owner, change and delete by id.
+ * @param owner the owner's path, e.g. `revisions`
+ * @param below the part's collection below its owner, e.g. `/steps`
+ * @param base the part's own path, e.g. `steps`
+ */
+function partApi<T, C, U>(owner: string, below: string, base: string) {
+  return {
+    create: (ownerId: string, input: C) =>
+      request<T>(at(owner, ownerId, below), json('POST', input)),
+    update: (id: string, input: U) => request<T>(at(base, id), json('PATCH', input)),
+    remove: (id: string) => request<void>(at(base, id), json('DELETE')),
+  }
 }
 
+export const windingsApi = partApi<WindingDto, WindingInput, Partial<WindingInput>>(
+  'revisions',
+  '/windings',
+  'windings',
+)
+
+// A step's `create` appends it at the end of the route; `remove` deletes its checks too, and
+// the server renumbers the rest.
 export const stepsApi = {
-  /** Appends a step at the end of the route. */
-  create: (revisionId: string, input: StepInput) =>
-    request<StepDto>(at('revisions', revisionId, '/steps'), json('POST', input)),
-  update: (id: string, input: StepUpdateInput) =>
-    request<StepDto>(at('steps', id), json('PATCH', input)),
-  /** Deletes a step and its checks; the server renumbers the rest. */
-  remove: (id: string) => request<void>(at('steps', id), json('DELETE')),
+  ...partApi<StepDto, StepInput, StepUpdateInput>('revisions', '/steps', 'steps'),
   /** Puts every step of the revision in the given order. */
   reorder: (revisionId: string, stepIds: string[]) =>
     request<StepDto[]>(at('revisions', revisionId, '/steps/order'), json('PUT', { stepIds })),
 }
 
-export const checksApi = {
-  /** 409 `duplicate` with `fields.key` when the key is used elsewhere in the revision. */
-  create: (stepId: string, input: CheckInput) =>
-    request<CheckDto>(at('steps', stepId, '/checks'), json('POST', input)),
-  update: (id: string, input: CheckUpdateInput) =>
-    request<CheckDto>(at('checks', id), json('PATCH', input)),
-  remove: (id: string) => request<void>(at('checks', id), json('DELETE')),
-}
+// A check's `create` answers 409 `duplicate` with `fields.key` when the key is used elsewhere in
+// the revision.
+export const checksApi = partApi<CheckDto, CheckInput, CheckUpdateInput>(
+  'steps',
+  '/checks',
+  'checks',
+)
 
 export const bomApi = {
   list: (revisionId: string) => request<BomLineDto[]>(at('revisions', revisionId, '/bom')),
-  create: (revisionId: string, input: BomLineInput) =>
-    request<BomLineDto>(at('revisions', revisionId, '/bom'), json('POST', input)),
-  update: (id: string, input: Partial<BomLineInput>) =>
-    request<BomLineDto>(at('bom-lines', id), json('PATCH', input)),
-  remove: (id: string) => request<void>(at('bom-lines', id), json('DELETE')),
+  ...partApi<BomLineDto, BomLineInput, Partial<BomLineInput>>('revisions', '/bom', 'bom-lines'),
 }

@@ -8,24 +8,31 @@ import { searchApi } from '@/api/search'
 /** How long typing must pause before the box asks the server. */
 const PAUSE_MS = 150
 
+type HitScreen = (hit: SearchHitDto) => RouteLocationRaw
+
+/** A screen that opens the record named in its `open` query, e.g. a drawer over a list. */
+const opening =
+  (name: string): HitScreen =>
+  (hit) => ({ name, query: { open: hit.id } })
+/** A screen of the record's own, at its id. */
+const ownPage =
+  (name: string): HitScreen =>
+  (hit) => ({ name, params: { id: hit.id } })
+
+/** The screen that shows each kind of record the search finds. */
+const HIT_SCREENS: Record<SearchHitDto['kind'], HitScreen> = {
+  unit: (hit) => ({ name: 'trace', query: { serial: hit.ref } }),
+  lot: ownPage('lot'),
+  componentLot: (hit) => ({ name: 'componentLots', query: { q: hit.ref } }),
+  customer: opening('customers'),
+  revision: ownPage('revision'),
+  shipment: opening('shipping'),
+  serviceCase: opening('service'),
+}
+
 /** The screen that shows a record the search found. */
 export function searchHitRoute(hit: SearchHitDto): RouteLocationRaw {
-  switch (hit.kind) {
-    case 'unit':
-      return { name: 'trace', query: { serial: hit.ref } }
-    case 'lot':
-      return { name: 'lot', params: { id: hit.id } }
-    case 'componentLot':
-      return { name: 'componentLots', query: { q: hit.ref } }
-    case 'customer':
-      return { name: 'customers', query: { open: hit.id } }
-    case 'revision':
-      return { name: 'revision', params: { id: hit.id } }
-    case 'shipment':
-      return { name: 'shipping', query: { open: hit.id } }
-    case 'serviceCase':
-      return { name: 'service', query: { open: hit.id } }
-  }
+  return HIT_SCREENS[hit.kind](hit)
 }
 
 /**

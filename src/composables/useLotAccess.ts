@@ -1,21 +1,17 @@
 import { computed } from 'vue'
-import { can } from '@shared/permissions'
-import type { Permission } from '@shared/permissions'
 import { useSessionStore } from '@/stores/session'
+import { usePermissionFlags } from './usePermissionFlags'
 
-/**
- * What the signed-in user may do in Lots and on the Floor, from the permission lists the
- * server's route guards read. It only hides controls: the server checks every call.
- */
+/** What the signed-in user may do in Lots and on the Floor; it only hides controls. */
 export function useLotAccess() {
   const session = useSessionStore()
-  const has = (permission: Permission) => computed(() => can(session.role ?? undefined, permission))
-  return {
-    canEditLots: has('editLots'),
-    canDispose: has('disposeNonconformances'),
-    canRecordStepRuns: has('recordStepRuns'),
-    canReadAlerts: has('readAlerts'),
-    /** Use as is by anyone else needs an engineer's countersign. */
-    isEngineer: computed(() => session.role === 'engineer'),
-  }
+  const flags = usePermissionFlags({
+    canEditLots: 'editLots',
+    canDispose: 'disposeNonconformances',
+    canRecordStepRuns: 'recordStepRuns',
+    canReadAlerts: 'readAlerts',
+  })
+  /** Use as is by anyone else needs an engineer's countersign. */
+  const isEngineer = computed(() => session.role === 'engineer')
+  return { ...flags, isEngineer }
 }

@@ -9,6 +9,11 @@ import { confirmAction } from './confirmAction'
 import { toSentence } from './format'
 import { useSubmit } from './useSubmit'
 
+/** What the reason prompts of a hold and of its release ask. */
+const HOLD_QUESTION =
+  'Why is the lot held? Operators see this at every station when they scan one of its units.'
+const UNHOLD_QUESTION = 'Why may work go on? The reason goes into the lot’s history.'
+
 /** Asks for a reason in a message box, checked by the schema the server uses; null when cancelled. */
 async function askReason(
   message: string,
@@ -60,23 +65,20 @@ export function useLotActions() {
       await run(store.release, `Lot ${lot.number} released`)
   }
 
-  async function hold() {
-    const reason = await askReason(
-      'Why is the lot held? Operators see this at every station when they scan one of its units.',
-      'Hold the lot',
-      'Hold lot',
-    )
-    if (reason) await run(() => store.hold(reason), 'Lot on hold')
+  /** Runs `action` with the reason the lead gives in a prompt; nothing when it is cancelled. */
+  async function withReason(
+    action: (reason: string) => Promise<unknown>,
+    [message, title, button]: [string, string, string],
+    success: string,
+  ) {
+    const reason = await askReason(message, title, button)
+    if (reason) await run(() => action(reason), success)
   }
 
-  async function unhold() {
-    const reason = await askReason(
-      'Why may work go on? The reason goes into the lot’s history.',
-      'Release the hold',
-      'Release hold',
-    )
-    if (reason) await run(() => store.unhold(reason), 'Hold released')
-  }
+  const hold = () =>
+    withReason(store.hold, [HOLD_QUESTION, 'Hold the lot', 'Hold lot'], 'Lot on hold')
+  const unhold = () =>
+    withReason(store.unhold, [UNHOLD_QUESTION, 'Release the hold', 'Release hold'], 'Hold released')
 
   async function close() {
     const lot = store.lot

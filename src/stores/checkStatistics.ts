@@ -2,6 +2,20 @@ import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { StatisticsDto } from '@shared/schemas/statistics'
 import { statisticsApi } from '@/api/statistics'
+import { whileLoading } from './lists/whileLoading'
+
+/**
+ * Fetches the statistics of `checkRef`; without one, of the first check that has readings (the
+ * first answer lists the checks), else that first answer.
+ */
+async function firstWithReadings(
+  checkRef: string,
+  fetch: (checkRef: string) => Promise<StatisticsDto>,
+): Promise<StatisticsDto> {
+  const got = await fetch(checkRef)
+  const first = got.checks.find((c) => c.readings > 0)
+  return !checkRef && first ? fetch(first.ref) : got
+}
 
 /** Statistics on any numeric check: one lot's (lot page) and a product's (Yield board). */
 export const useCheckStatisticsStore = defineStore('checkStatistics', () => {
@@ -13,15 +27,10 @@ export const useCheckStatisticsStore = defineStore('checkStatistics', () => {
 
   /** Loads the lot's checks; picks `checkRef`, or else the first check with readings. */
   async function fetchLot(lotId: string, checkRef = '') {
-    isLoading.value = true
-    try {
-      let got = await statisticsApi.lot(lotId, checkRef)
-      const first = got.checks.find((c) => c.readings > 0)
-      if (!checkRef && first) got = await statisticsApi.lot(lotId, first.ref)
-      lot.value = { ...got, lotId }
-    } finally {
-      isLoading.value = false
-    }
+    const got = await whileLoading(isLoading, () =>
+      firstWithReadings(checkRef, (ref) => statisticsApi.lot(lotId, ref)),
+    )
+    lot.value = { ...got, lotId }
   }
 
   /** Loads a product's checks in the period; picks `checkRef`, or the first with readings. */
@@ -29,15 +38,9 @@ export const useCheckStatisticsStore = defineStore('checkStatistics', () => {
     query: { productId: string; revisionId: string; from: string; to: string },
     checkRef = '',
   ) {
-    isLoading.value = true
-    try {
-      let got = await statisticsApi.product({ ...query, checkKey: checkRef })
-      const first = got.checks.find((c) => c.readings > 0)
-      if (!checkRef && first) got = await statisticsApi.product({ ...query, checkKey: first.ref })
-      product.value = got
-    } finally {
-      isLoading.value = false
-    }
+    product.value = await whileLoading(isLoading, () =>
+      firstWithReadings(checkRef, (ref) => statisticsApi.product({ ...query, checkKey: ref })),
+    )
   }
 
   return { lot, product, isLoading, fetchLot, fetchProduct }

@@ -10,6 +10,7 @@ import type {
 import type { StationDto } from '@shared/schemas/stations'
 import { floorApi } from '@/api/floor'
 import { stationsApi } from '@/api/stations'
+import { whileLoading } from './lists/whileLoading'
 
 /** One station screen: which station it is, the unit scanned last and the station's recent runs. */
 export const useFloorStore = defineStore('floor', () => {
@@ -64,13 +65,8 @@ export const useFloorStore = defineStore('floor', () => {
 
   /** Looks a scanned serial up at this station; throws ApiError (404, 400 mistyped). */
   async function scan(serial: string) {
-    isLooking.value = true
-    try {
-      current.value = await floorApi.unit(serial, stationCode.value)
-      return current.value
-    } finally {
-      isLooking.value = false
-    }
+    current.value = await whileLoading(isLooking, () => floorApi.unit(serial, stationCode.value))
+    return current.value
   }
 
   /** Forgets the scanned unit, e.g. when the operator moves on. */
@@ -85,16 +81,13 @@ export const useFloorStore = defineStore('floor', () => {
 
   /** Records a step run, then clears the unit and refreshes the recent list. */
   async function record(input: StepRunInput): Promise<StepRunResultDto> {
-    isRecording.value = true
-    try {
+    return whileLoading(isRecording, async () => {
       const result = await floorApi.recordStepRun(input)
       current.value = null
       // The run is stored; a failed refresh of the list must not read as a failed record.
       await fetchRecent().catch(() => undefined)
       return result
-    } finally {
-      isRecording.value = false
-    }
+    })
   }
 
   return {

@@ -8,6 +8,7 @@ import type {
   ImportRowsQuery,
 } from '@shared/schemas/imports'
 import { importsApi } from '@/api/imports'
+import { whileLoading } from './lists/whileLoading'
 
 const POLL_MS = 1000
 
@@ -74,26 +75,22 @@ export const useImportsStore = defineStore('imports', () => {
   }
 
   async function upload(stationCode: string, file: File) {
-    isBusy.value = true
-    try {
+    await whileLoading(isBusy, async () => {
       await show_(await importsApi.upload(stationCode, file))
       await fetchRecent()
-    } finally {
-      isBusy.value = false
-    }
+    })
   }
 
   /** Saves the mapping on screen for the station, then asks for every row to be checked. */
   async function check() {
     if (!current.value || !draft.value) return
-    isBusy.value = true
-    try {
-      mappingInfo.value = await importsApi.saveMapping(current.value.stationCode, draft.value)
-      current.value = await importsApi.dryRun(current.value.id)
+    const { id, stationCode } = current.value
+    const mapping = draft.value
+    await whileLoading(isBusy, async () => {
+      mappingInfo.value = await importsApi.saveMapping(stationCode, mapping)
+      current.value = await importsApi.dryRun(id)
       watchProgress()
-    } finally {
-      isBusy.value = false
-    }
+    })
   }
 
   /** The rows of a finished dry run, those with problems first when there are any. */
@@ -105,13 +102,11 @@ export const useImportsStore = defineStore('imports', () => {
 
   async function run(defectCodeId: string | null) {
     if (!current.value) return
-    isBusy.value = true
-    try {
-      current.value = await importsApi.run(current.value.id, { defectCodeId })
+    const { id } = current.value
+    await whileLoading(isBusy, async () => {
+      current.value = await importsApi.run(id, { defectCodeId })
       watchProgress()
-    } finally {
-      isBusy.value = false
-    }
+    })
   }
 
   /**

@@ -15,6 +15,7 @@ import type {
 } from '@shared/schemas/recipes'
 import { bomApi, checksApi, revisionsApi, stepsApi, windingsApi } from '@/api/revisions'
 import { useRecipesStore } from './recipes'
+import { whileLoading } from './lists/whileLoading'
 
 /** The revision open in the editor, and every change made to it. Each action throws ApiError. */
 export const useRevisionStore = defineStore('revision', () => {
@@ -45,16 +46,13 @@ export const useRevisionStore = defineStore('revision', () => {
   /** Fetches a revision; keeps the old one on screen while a refetch of the same id runs. */
   async function load(revisionId: string) {
     if (revision.value?.id !== revisionId) revision.value = null
-    isLoading.value = true
-    try {
+    await whileLoading(isLoading, async () => {
       const next = take(await revisionsApi.get(revisionId))
       const from = next.copiedFrom?.id ?? null
       // The source may be a draft deleted since, or hidden from this role: then no comparison.
       if (base.value?.id !== from)
         base.value = from ? await revisionsApi.get(from).catch(() => null) : null
-    } finally {
-      isLoading.value = false
-    }
+    })
   }
 
   /** Fetches the open revision again, e.g. after the server said it is frozen. */

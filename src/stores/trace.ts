@@ -6,6 +6,7 @@ import type {
   ContainResultDto,
   EndContainmentInput,
   EndContainmentResultDto,
+  RecallScopeDto,
 } from '@shared/schemas/trace'
 import { ApiError } from '@/api/client'
 import { traceApi } from '@/api/trace'
@@ -70,23 +71,28 @@ export const useTraceStore = defineStore('trace', () => {
     await scopes.lookUp(code)
   }
 
-  /** Lead: contains the lot on screen; throws ApiError. */
-  async function contain(reason: string) {
+  /**
+   * Runs a containment step on the lot on screen: shows the scope it answers with, keeps its
+   * answer in `shown` and clears what the other step did.
+   */
+  async function stepOnLot<R extends { scope: RecallScopeDto }>(
+    shown: Ref<R | null>,
+    other: Ref<unknown>,
+    call: (code: string) => Promise<R>,
+  ) {
     if (!scope.value) return
-    const result = await traceApi.contain(scope.value.componentLot.internalCode, reason)
-    contained.value = result
-    ended.value = null
+    const result = await call(scope.value.componentLot.internalCode)
+    shown.value = result
+    other.value = null
     scope.value = result.scope
   }
 
+  /** Lead: contains the lot on screen; throws ApiError. */
+  const contain = (reason: string) =>
+    stepOnLot(contained, ended, (code) => traceApi.contain(code, reason))
   /** Lead: ends the containment of the lot on screen; throws ApiError. */
-  async function endContainment(input: EndContainmentInput) {
-    if (!scope.value) return
-    const result = await traceApi.endContainment(scope.value.componentLot.internalCode, input)
-    ended.value = result
-    contained.value = null
-    scope.value = result.scope
-  }
+  const endContainment = (input: EndContainmentInput) =>
+    stepOnLot(ended, contained, (code) => traceApi.endContainment(code, input))
 
   /** Lead or engineer: decides one held unit of a rejected lot, then reloads the scope. */
   async function decideContainedUnit(serial: string, input: ContainedUnitDecisionInput) {
