@@ -37,27 +37,13 @@ function defaultFilter(now = new Date()): YieldFilter {
   }
 }
 
-/** The Yield board: the period's summary and the selected lot's figures and turn review. */
-export const useYieldStore = defineStore('yield', () => {
-  const filter = ref<YieldFilter>(defaultFilter())
-  /** The KPIs and lots table for the filter; `fetchSummary` throws ApiError. */
-  const {
-    data: summary,
-    isLoading,
-    load: fetchSummary,
-  } = useFetched<YieldSummaryDto | null>(() => yieldApi.summary(filter.value), null)
-  /** The lot picked in the table. */
+/** The lot picked on the board, with its step FPYs, detail and turn review. */
+function useLotFigures() {
   const selectedLotId = ref<string | null>(null)
   const lotYield = ref<LotYieldDto | null>(null)
   const detail = ref<LotYieldDetailDto | null>(null)
   const turns = ref<LotTurnDeviationDto | null>(null)
   const isLotLoading = ref(false)
-  /** Products and their revisions, for the filters. */
-  const products = ref<ProductDto[]>([])
-
-  async function fetchProducts() {
-    products.value = await productsApi.list()
-  }
 
   /** Selects a lot and fetches its step FPYs, detail and turn review together. */
   async function selectLot(id: string) {
@@ -77,19 +63,33 @@ export const useYieldStore = defineStore('yield', () => {
     turns.value = await yieldApi.turns(id)
   }
 
+  return { selectedLotId, lotYield, detail, turns, isLotLoading, selectLot, fetchTurns }
+}
+
+/** The Yield board: the period's summary and the selected lot's figures and turn review. */
+export const useYieldStore = defineStore('yield', () => {
+  const filter = ref<YieldFilter>(defaultFilter())
+  /** The KPIs and lots table for the filter; `fetchSummary` throws ApiError. */
+  const {
+    data: summary,
+    isLoading,
+    load: fetchSummary,
+  } = useFetched<YieldSummaryDto | null>(() => yieldApi.summary(filter.value), null)
+  /** Products and their revisions, for the filters. */
+  const products = ref<ProductDto[]>([])
+
+  async function fetchProducts() {
+    products.value = await productsApi.list()
+  }
+
   return {
     filter,
     summary,
     isLoading,
-    selectedLotId,
-    lotYield,
-    detail,
-    turns,
-    isLotLoading,
     products,
     fetchProducts,
     fetchSummary,
-    selectLot,
-    fetchTurns,
+    /** The lot picked in the table (`selectedLotId`) and its figures. */
+    ...useLotFigures(),
   }
 })
