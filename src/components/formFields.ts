@@ -25,3 +25,21 @@ export function provideFormFields(context: () => FormFieldContext) {
 export function injectFormFields(): () => FormFieldContext {
   return inject(FORM_FIELDS, () => ({ model: {}, errors: {} }))
 }
+
+/** One choice of a select field: the value it stores and the words shown for it. */
+export interface FieldOption {
+  readonly value: string
+  readonly label: string
+}
+
+/**
+ * The choices of a select over a fixed list, each shown by its label.
+ * @param values the stored values, in the order offered
+ * @param labels the words for each value
+ */
+export function labelledOptions<V extends string>(
+  values: readonly V[],
+  labels: Readonly<Record<V, string>>,
+): FieldOption[] {
+  return values.map((value) => ({ value, label: labels[value] }))
+}

@@ -11,7 +11,7 @@ import { useZodRules } from '@/composables/useZodRules'
 const Input = z.object({ name: z.string().trim().min(1, 'enter a name') })
 
 /** A dialog as the screens write one: a form, zod rules and one form item in the slot. */
-function mountDialog(isOpen = false) {
+function mountDialog(isOpen = false, extra: Record<string, unknown> = {}) {
   const events: string[] = []
   const form = reactive({ name: '' })
   const Host = defineComponent({
@@ -30,6 +30,7 @@ function mountDialog(isOpen = false) {
             submitLabel: 'Add thing',
             onOpen: () => events.push('open'),
             onSubmit: () => events.push('submit'),
+            ...extra,
           },
           { default: () => h(ElFormItem, { label: 'Name', prop: 'name' }, () => form.name) },
         )
@@ -72,6 +73,18 @@ describe('FormDialog', () => {
     cancel.click()
     await flushPromises()
     expect(wrapper.findComponent(FormDialog).emitted('update:modelValue')).toEqual([[false]])
+    wrapper.unmount()
+  })
+
+  it('offers only Close, and never submits, when there is nothing to submit', async () => {
+    const { wrapper, events } = mountDialog(true, { hasSubmit: false })
+    await flushPromises()
+    const buttons = [...document.querySelectorAll('.el-dialog__footer button')]
+    expect(buttons.map((b) => b.textContent?.trim())).toEqual(['Close'])
+    // Enter in a field submits the form; with nothing to submit it must not reach the parent.
+    document.querySelector('.el-dialog form')?.dispatchEvent(new Event('submit'))
+    await flushPromises()
+    expect(events).toEqual([])
     wrapper.unmount()
   })
 

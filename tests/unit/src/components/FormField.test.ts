@@ -48,6 +48,27 @@ describe('FormField', () => {
     wrapper.unmount()
   })
 
+  it('with options is a select on the model at its prop, showing the chosen label', async () => {
+    const form = reactive({ kind: 'winding' as string | null })
+    const wrapper = mountDialog(form, {}, () => [
+      h(FormField, {
+        label: 'Kind',
+        prop: 'kind',
+        options: [
+          { value: 'winding', label: 'Winding' },
+          { value: 'hipot', label: 'Hipot' },
+        ],
+      }),
+    ])
+    await flushPromises()
+    expect(itemOf('Kind').querySelector('.el-select')?.textContent).toContain('Winding')
+    const select = wrapper.findComponent({ name: 'ElSelect' })
+    select.vm.$emit('update:modelValue', 'hipot')
+    await flushPromises()
+    expect(form.kind).toBe('hipot')
+    wrapper.unmount()
+  })
+
   it('without content is a text input on the model at its prop, upper-cased when asked', async () => {
     const form = reactive({ code: 'wind-01', note: 'first' })
     const wrapper = mountDialog(form, {}, () => [

@@ -74,6 +74,44 @@ describe('useFormDialog', () => {
     ;(state as { target: Row | null }).target = { id: 'w1', name: 'primary', turns: 1 }
     expect(bind.value.rules).toBe(updateRules)
   })
+
+  it('fills from what `from` makes of the target, where the target is not the form', () => {
+    const { state } = dialogState({ id: 'w1', name: 'primary', turns: 42 })
+    const { form, bind } = useFormDialog(
+      () => state,
+      empty,
+      (input) => Input.parse(input),
+      undefined,
+      { from: (row) => ({ name: `copy of ${row?.name}` }) },
+    )
+    bind.value.onOpen()
+    expect(form).toEqual({ name: 'copy of primary', turns: null })
+  })
+
+  it('submits only what `confirm` agrees to', async () => {
+    const { state, saved } = dialogState(null)
+    const asked: Input[] = []
+    let isAgreeing = false
+    const { form, bind } = useFormDialog(
+      () => state,
+      empty,
+      (input) => Input.parse(input),
+      undefined,
+      {
+        confirm: async (input) => {
+          asked.push(input)
+          return isAgreeing
+        },
+      },
+    )
+    form.name = 'secondary'
+    await bind.value.onSubmit()
+    expect(asked).toEqual([{ name: 'secondary', turns: null }])
+    expect(saved).toEqual([])
+    isAgreeing = true
+    await bind.value.onSubmit()
+    expect(saved).toEqual([{ name: 'secondary', turns: null }])
+  })
 })
 
 describe('a form dialog wired with useFormDialog (StationFormDialog)', () => {
