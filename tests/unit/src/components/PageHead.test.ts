@@ -1,4 +1,5 @@
 import { mount, RouterLinkStub } from '@vue/test-utils'
+import { ElButton } from 'element-plus'
 import { describe, expect, it } from 'vitest'
 import PageHead from '@/components/PageHead.vue'
 
@@ -28,5 +29,32 @@ describe('PageHead', () => {
     expect(back.props('to')).toBe('/receiving')
     expect(back.text()).toBe('← Receiving')
     expect(back.classes()).toContain('wm-page__back')
+  })
+
+  it('offers the add button to a user who may add, and says when it is pressed', async () => {
+    const head = mount(PageHead, {
+      props: { title: 'Parts', create: 'New part' },
+      global: { stubs },
+    })
+    const button = head.findComponent(ElButton)
+    expect(button.text()).toBe('New part')
+    expect(button.props('type')).toBe('primary')
+    await button.trigger('click')
+    expect(head.emitted('create')).toHaveLength(1)
+  })
+
+  it('shows no add button to a user who may not add', () => {
+    const head = mount(PageHead, { props: { title: 'Parts', create: false }, global: { stubs } })
+    expect(head.findComponent(ElButton).exists()).toBe(false)
+  })
+
+  it('shows the page’s own buttons in place of the add button', () => {
+    const head = mount(PageHead, {
+      props: { title: 'Receiving', create: 'New part' },
+      slots: { actions: '<a class="own">Parts</a>' },
+      global: { stubs },
+    })
+    expect(head.find('.own').exists()).toBe(true)
+    expect(head.findComponent(ElButton).exists()).toBe(false)
   })
 })
