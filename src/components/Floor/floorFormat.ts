@@ -1,5 +1,13 @@
 import type { CheckDto } from '@shared/schemas/recipes'
 
+/** What a check's control is told about its field: its id, its label and its verdict so far. */
+export interface FloorField {
+  fieldId: string
+  label: string
+  isFail: boolean
+  isPass: boolean
+}
+
 /** A computed value with the check's decimals and unit, or a prompt when inputs are missing. */
 export function derivedText(value: unknown, check: Pick<CheckDto, 'decimals' | 'unit'>): string {
   if (typeof value !== 'number' || !Number.isFinite(value)) return 'waiting for readings'
