@@ -9,6 +9,7 @@ import {
   writeFileSync,
 } from 'node:fs'
 import type { ServiceState } from './postgres'
+import type { ServiceConfig } from './serviceConfig'
 import { isAlive, isPortOpen, livePid, ServiceError, waitFor } from './proc'
 
 type Log = (line: string) => void
@@ -30,6 +31,28 @@ export interface FakeSpec {
   env: NodeJS.ProcessEnv
   /** Node flags the fake needs, before the script. */
   nodeFlags?: readonly string[]
+}
+
+/**
+ * The spec of one of our fakes (`s3`, `smtp`): its folder, pid file, log file and port are the
+ * config's fields named after it; the script is `scripts/<name>Fake.ts`.
+ */
+export function fakeSpec(
+  config: ServiceConfig,
+  name: 's3' | 'smtp',
+  more: Pick<FakeSpec, 'portVariable' | 'env' | 'nodeFlags'>,
+): FakeSpec {
+  return {
+    name,
+    script: `scripts/${name}Fake.ts`,
+    repoRoot: config.repoRoot,
+    dir: config[`${name}Dir`],
+    pidFile: config[`${name}PidFile`],
+    logFile: config[`${name}LogFile`],
+    host: config.host,
+    port: config[`${name}Port`],
+    ...more,
+  }
 }
 
 const markOf = (spec: FakeSpec) => spec.script.replace(/^.*\//, '').replace(/\.ts$/, '')

@@ -1,5 +1,5 @@
 import { CreateBucketCommand, S3Client } from '@aws-sdk/client-s3'
-import { fakeState, startFake, stopFake } from './fakeProcess'
+import { fakeSpec, fakeState, startFake, stopFake } from './fakeProcess'
 import type { FakeSpec } from './fakeProcess'
 import type { ServiceState } from './postgres'
 import type { ServiceConfig } from './serviceConfig'
@@ -30,21 +30,13 @@ async function createBuckets(config: ServiceConfig): Promise<void> {
 }
 
 function spec(config: ServiceConfig): FakeSpec {
-  return {
-    name: 's3',
-    script: 'scripts/s3Fake.ts',
-    repoRoot: config.repoRoot,
-    dir: config.s3Dir,
-    pidFile: config.s3PidFile,
-    logFile: config.s3LogFile,
-    host: config.host,
-    port: config.s3Port,
+  return fakeSpec(config, 's3', {
     portVariable: 'WAYMARK_S3_PORT',
     env: { ...process.env, WAYMARK_S3_PORT: String(config.s3Port), WAYMARK_S3_DIR: config.s3Dir },
     // s3rver signs ListObjectsV2 continuation tokens with DES, which OpenSSL 3 keeps in its
     // legacy provider: without it, a listing of more than 1000 keys answers 500 InternalError.
     nodeFlags: ['--openssl-legacy-provider'],
-  }
+  })
 }
 
 /** Runs the S3 fake in the background and makes sure the buckets exist. */

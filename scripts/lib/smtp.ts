@@ -1,4 +1,4 @@
-import { fakeState, startFake, stopFake } from './fakeProcess'
+import { fakeSpec, fakeState, startFake, stopFake } from './fakeProcess'
 import type { FakeSpec } from './fakeProcess'
 import type { ServiceState } from './postgres'
 import type { ServiceConfig } from './serviceConfig'
@@ -10,18 +10,10 @@ type Log = (line: string) => void
 const database = () => process.env.WAYMARK_DB || 'waymark'
 
 function spec(config: ServiceConfig): FakeSpec {
-  return {
-    name: 'smtp',
-    script: 'scripts/smtpFake.ts',
-    repoRoot: config.repoRoot,
-    dir: config.smtpDir,
-    pidFile: config.smtpPidFile,
-    logFile: config.smtpLogFile,
-    host: config.host,
-    port: config.smtpPort,
+  return fakeSpec(config, 'smtp', {
     portVariable: 'WAYMARK_SMTP_PORT',
     env: { ...process.env, ...serviceEnv(config), WAYMARK_DB: database() },
-  }
+  })
 }
 
 /** Runs the SMTP fake in the background, unless SMTP_URL points at a real relay. */

@@ -159,18 +159,7 @@ const UNIT_COLUMNS: Column[] = [
 ]
 
 function drawFirstHead(w: PaperWriter, data: CertificateData): void {
-  const { doc } = w
-  const x = SHEET.margin
-  drawLine(doc, data.shopName.toUpperCase(), x, w.y, PAPER_STYLE.kicker, { characterSpacing: 0.8 })
-  drawLine(doc, `No. ${data.reference}`, x, w.y, PAPER_STYLE.kicker, {
-    width: SHEET_WIDTH,
-    align: 'right',
-  })
-  w.y += 5 * MM
-  drawLine(doc, 'Certificate of conformance', x, w.y, PAPER_STYLE.title)
-  w.y += 10 * MM
-  doc.rect(x, w.y, SHEET_WIDTH, 1.2).fill(INK.text)
-  w.y += 4 * MM
+  w.firstHead(data.shopName, data.reference, 'Certificate of conformance')
   const products = data.groups.map((g) => `${g.product.code} ${g.product.name}`).join('; ')
   const lots = [...new Set(data.groups.flatMap((g) => g.units.map((u) => u.lotNumber)))]
   const units = data.groups.reduce((s, g) => s + g.units.length, 0)

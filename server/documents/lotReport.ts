@@ -10,13 +10,13 @@ import {
   heading,
   M,
   minute,
+  nothingToShow,
   num,
   pct,
   pctRange,
-  RULE,
+  rule,
   S,
   table,
-  W,
 } from './lotReportLayout'
 import { drawKeyCheck } from './lotReportKeyChecks'
 import { drawTurnSeries } from './lotReportTurns'
@@ -128,11 +128,7 @@ function drawCapability(doc: PDFKit.PDFDocument, c: Cursor, d: LotReportData) {
     'Capability of the numeric checks',
     'Cp, Cpk: within σ (moving range / 1.128) · Pp, Ppk: overall σ',
   )
-  if (!d.capability.length) {
-    drawLine(doc, 'No numeric readings yet.', M, c.y, S.body)
-    c.y += 16
-    return
-  }
+  if (!d.capability.length) return nothingToShow(doc, c, 'No numeric readings yet.')
   table(
     doc,
     c,
@@ -167,11 +163,7 @@ const DISPOSITION_WORDS = { rework: 'rework', scrap: 'scrap', use_as_is: 'use as
 
 function drawNonconformances(doc: PDFKit.PDFDocument, c: Cursor, d: LotReportData) {
   heading(doc, c, 'Nonconformances', `${d.nonconformances.length} in this lot`)
-  if (!d.nonconformances.length) {
-    drawLine(doc, 'None.', M, c.y, S.body)
-    c.y += 16
-    return
-  }
+  if (!d.nonconformances.length) return nothingToShow(doc, c, 'None.')
   table(
     doc,
     c,
@@ -203,12 +195,7 @@ function drawFooters(doc: PDFKit.PDFDocument, d: LotReportData) {
   const range = doc.bufferedPageRange()
   for (let i = range.start; i < range.start + range.count; i++) {
     doc.switchToPage(i)
-    doc
-      .moveTo(M, FOOTER_TOP)
-      .lineTo(W - M, FOOTER_TOP)
-      .lineWidth(0.5)
-      .strokeColor(RULE)
-      .stroke()
+    rule(doc, FOOTER_TOP)
     drawText(doc, SAFETY_FOOTER, M, FOOTER_TOP + 4, S.small, { width: CONTENT, lineBreak: true })
     const where = `${d.product.code} rev ${d.revision.letter} · lot ${d.lot.number} · lot report`
     drawLine(doc, where, M, FOOTER_TOP + 22, { ...S.small, font: FONT.medium })

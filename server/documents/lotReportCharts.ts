@@ -8,6 +8,7 @@ import {
   heading,
   INK,
   M,
+  nothingToShow,
   pct,
   RULE,
   S,
@@ -77,11 +78,7 @@ export function drawStepFpy(doc: PDFKit.PDFDocument, c: Cursor, d: LotReportData
 /** Nonconformances per defect code, most first, with the cumulative share as a line. */
 export function drawPareto(doc: PDFKit.PDFDocument, c: Cursor, d: LotReportData) {
   heading(doc, c, 'Why units failed', 'nonconformances per defect code, with the cumulative share')
-  if (!d.pareto.length) {
-    drawLine(doc, 'No nonconformances in this lot.', M, c.y, S.body)
-    c.y += 16
-    return
-  }
+  if (!d.pareto.length) return nothingToShow(doc, c, 'No nonconformances in this lot.')
   const h = 110
   c.need(h + 36)
   const x0 = M + 34

@@ -72,13 +72,24 @@ export function heading(doc: PDFKit.PDFDocument, c: Cursor, text: string, note =
   drawLine(doc, text, M, c.y, S.h2)
   if (note) drawLine(doc, note, M, c.y + 3, S.small, { width: CONTENT, align: 'right' })
   c.y += 16
+  rule(doc, c.y)
+  c.y += 6
+}
+
+/** A hairline across the content width at height `y`. */
+export function rule(doc: PDFKit.PDFDocument, y: number, lineWidth = 0.5) {
   doc
-    .moveTo(M, c.y)
-    .lineTo(W - M, c.y)
-    .lineWidth(0.5)
+    .moveTo(M, y)
+    .lineTo(W - M, y)
+    .lineWidth(lineWidth)
     .strokeColor(RULE)
     .stroke()
-  c.y += 6
+}
+
+/** The line a section shows in place of its table or chart when it has nothing to show. */
+export function nothingToShow(doc: PDFKit.PDFDocument, c: Cursor, text: string) {
+  drawLine(doc, text, M, c.y, S.body)
+  c.y += 16
 }
 
 export interface Column {
@@ -100,12 +111,7 @@ export function table(doc: PDFKit.PDFDocument, c: Cursor, cols: Column[], rows: 
       x += col.width
     }
     c.y += rowH
-    doc
-      .moveTo(M, c.y - 3)
-      .lineTo(W - M, c.y - 3)
-      .lineWidth(0.4)
-      .strokeColor(RULE)
-      .stroke()
+    rule(doc, c.y - 3, 0.4)
   }
   c.need(rowH * 2)
   head()

@@ -8,6 +8,7 @@ import {
   heading,
   INK,
   M,
+  nothingToShow,
   MUTED,
   num,
   RULE,
@@ -50,9 +51,7 @@ export function drawTurnSeries(doc: PDFKit.PDFDocument, c: Cursor, s: TurnSeries
       s.method === 'median'
         ? `No chart yet: the lot’s median needs ${MEDIAN_MIN_RUNS} inductance readings or more.`
         : 'No readings yet.'
-    drawLine(doc, none, M, c.y, S.body)
-    c.y += 16
-    return
+    return nothingToShow(doc, c, none)
   }
   const dev = s.points.map((p) => p.deviation)
   const lo = Math.min(0, ...dev, s.chart?.lcl ?? 0)

@@ -40,16 +40,7 @@ export async function packingSlipPdf(
   )
   w.newPage()
   const x = SHEET.margin
-  drawLine(doc, data.shopName.toUpperCase(), x, w.y, PAPER_STYLE.kicker, { characterSpacing: 0.8 })
-  drawLine(doc, `No. ${data.shipment.number}`, x, w.y, PAPER_STYLE.kicker, {
-    width: SHEET_WIDTH,
-    align: 'right',
-  })
-  w.y += 5 * MM
-  drawLine(doc, 'Packing slip', x, w.y, PAPER_STYLE.title)
-  w.y += 10 * MM
-  doc.rect(x, w.y, SHEET_WIDTH, 1.2).fill(INK.text)
-  w.y += 4 * MM
+  w.firstHead(data.shopName, data.shipment.number, 'Packing slip')
 
   // Ship-to on the left, in a box a window envelope or a carrier's pouch shows.
   const boxW = 85 * MM

@@ -67,6 +67,22 @@ export class PaperWriter {
     this.y = this.page === 1 ? SHEET.margin : this.runningHead(this.doc, this.page)
   }
 
+  /** The first page's head: the shop, the paper's number on the right, its title, a bar. */
+  firstHead(shopName: string, number: string, title: string): void {
+    const { doc } = this
+    const x = SHEET.margin
+    drawLine(doc, shopName.toUpperCase(), x, this.y, PAPER_STYLE.kicker, { characterSpacing: 0.8 })
+    drawLine(doc, `No. ${number}`, x, this.y, PAPER_STYLE.kicker, {
+      width: SHEET_WIDTH,
+      align: 'right',
+    })
+    this.y += 5 * MM
+    drawLine(doc, title, x, this.y, PAPER_STYLE.title)
+    this.y += 10 * MM
+    doc.rect(x, this.y, SHEET_WIDTH, 1.2).fill(INK.text)
+    this.y += 4 * MM
+  }
+
   /** Makes sure `height` points fit above the foot, else starts a new page. */
   need(height: number): void {
     if (this.y + height > SHEET.footerTop - 3 * MM) this.newPage()

@@ -54,6 +54,10 @@ class Cursor {
     })
     this.y += h + 1.2 * MM
   }
+  /** A table's head: its column titles in small type, with their width shares. */
+  head(titles: [string, number][]) {
+    this.row(titles.map(([title, share]) => [title, share, small]))
+  }
   text(text: string, style: TextStyle = body) {
     const h = textHeight(this.doc, text, style, WIDTH)
     this.room(h + 1 * MM)
@@ -99,11 +103,11 @@ function stepRun(c: Cursor, r: TraceStepRunDto) {
   c.row([[`Started ${when(r.startedAt)}, finished ${when(r.finishedAt)}`, 1, small]])
   if (HV_KINDS.has(r.stationKind)) c.row([[HIGH_VOLTAGE_CAUTION, 1, small]])
   if (r.values.length) {
-    c.row([
-      ['Check', 0.38, small],
-      ['Value', 0.2, small],
-      ['Limits', 0.26, small],
-      ['Result', 0.16, small],
+    c.head([
+      ['Check', 0.38],
+      ['Value', 0.2],
+      ['Limits', 0.26],
+      ['Result', 0.16],
     ])
     for (const v of r.values)
       c.row([
@@ -125,12 +129,12 @@ function sections(c: Cursor, t: UnitTraceDto) {
   c.heading(`Component lots fitted (${t.consumptions.length})`)
   if (!t.consumptions.length) c.text('No component lot was recorded for this unit.')
   else
-    c.row([
-      ['Part', 0.3, small],
-      ['Internal lot', 0.16, small],
-      ['Supplier and lot', 0.3, small],
-      ['Qty', 0.08, small],
-      ['Certificate', 0.16, small],
+    c.head([
+      ['Part', 0.3],
+      ['Internal lot', 0.16],
+      ['Supplier and lot', 0.3],
+      ['Qty', 0.08],
+      ['Certificate', 0.16],
     ])
   for (const k of t.consumptions)
     c.row([

@@ -12,40 +12,47 @@ import { loadDemoCustomers } from './demoShipping'
 import { loadDemoStory } from './demoStory'
 import { loadDemoRecipes } from './loadRecipes'
 import { withTransaction } from '../db/sql'
+import type { Transaction } from 'sequelize'
 
 /** The actor the audit log names for demo rows. */
 export const SEED_ACTOR: Actor = { id: null, email: 'seed@waymark', ip: null, requestId: null }
+
+/** Audits the creation of a demo row, unless `found` found it already there. */
+async function auditNew(
+  entity: 'user' | 'station',
+  after: object,
+  found: Promise<[{ id: string }, boolean]>,
+  transaction: Transaction,
+): Promise<void> {
+  const [row, isNew] = await found
+  if (isNew)
+    await recordAudit(
+      SEED_ACTOR,
+      { action: `${entity}.create`, entity, entityId: row.id, after },
+      transaction,
+    )
+}
 
 /** The demo people (one per role, two operators) and stations: what a test stack needs. */
 export async function loadPeopleAndFloor(): Promise<void> {
   const passwordHash = await hashPassword(DEMO_PASSWORD, DEMO_HASH_COST)
   await withTransaction(async (transaction) => {
     for (const u of DEMO_USERS) {
-      const [user, isNew] = await User.findOrCreate({
-        where: { email: u.email },
-        defaults: { ...u, passwordHash, lastSignInAt: null },
+      const defaults = { ...u, passwordHash, lastSignInAt: null }
+      await auditNew(
+        'user',
+        u,
+        User.findOrCreate({ where: { email: u.email }, defaults, transaction }),
         transaction,
-      })
-      if (isNew)
-        await recordAudit(
-          SEED_ACTOR,
-          { action: 'user.create', entity: 'user', entityId: user.id, after: u },
-          transaction,
-        )
+      )
     }
-    for (const s of DEMO_STATIONS) {
-      const [station, isNew] = await Station.findOrCreate({
-        where: { code: s.code },
-        defaults: s,
+    for (const s of DEMO_STATIONS)
+      await auditNew(
+        'station',
+        s,
+        Station.findOrCreate({ where: { code: s.code }, defaults: s, transaction }),
         transaction,
-      })
-      if (isNew)
-        await recordAudit(
-          SEED_ACTOR,
-          { action: 'station.create', entity: 'station', entityId: station.id, after: s },
-          transaction,
-        )
-    }
+      )
   })
 }
 

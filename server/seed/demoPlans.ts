@@ -26,104 +26,58 @@ export type Plan = Omit<LotPlan, 'customerId' | 'customerName' | 'coreAlFactor'>
   customer: string
 }
 
+type Story = keyof typeof DEMO_ORDER_REFS
+type ShopTime = [day: number, minute: number]
+
+/** The revision each lot is built to: the product's released one (demoProducts.ts). */
+const RELEASED_LETTER = { FP24: 'B', FP12: 'A' } as const
+
+/** One lot's plan as a row of the table below. */
+type PlanRow = [
+  story: Story,
+  seed: number,
+  productCode: Plan['productCode'],
+  quantity: number,
+  customer: string,
+  dueDay: number,
+  planned: ShopTime,
+  released: ShopTime | null,
+  coreLot: string,
+]
+
+const PLAN_ROWS: PlanRow[] = [
+  ['shipped', 1101, 'FP24', 16, 'Halden Rail Systems', 10, [0, 20], [0, 35], 'HM-26-0419'],
+  ['shippedWithOpenReturn', 1202, 'FP12', 12, 'Norvale Labs', 11, [1, 60], [2, 20], 'HM-26-0388'],
+  ['miscount', 318, 'FP24', 24, 'Selworth Marine', 19, [7, 300], [8, 30], 'HM-26-0419'],
+  ['hipot', 2210, 'FP24', 20, 'Corrin Instruments', 23, [12, 200], [13, 20], 'HM-26-0547'],
+  ['contained', 4502, 'FP12', 14, 'Halden Rail Systems', 30, [17, 100], [19, 30], SUSPECT_CORE_LOT],
+  ['inProgress', 612, 'FP24', 24, 'Brackwater Energy', 33, [21, 200], [23, 20], 'HM-26-0547'],
+  ['inProgressSmall', 137, 'FP12', 10, 'Norvale Labs', 34, [25, 100], [27, 20], 'HM-26-0388'],
+  ['planned', 344, 'FP24', 18, 'Selworth Marine', 45, [28, 400], null, 'HM-26-0419'],
+]
+
+const at = ([day, minute]: ShopTime) => ({ day, minute })
+
 /** The eight lots' plans, by their part in the story. */
-export const LOT_PLANS: Record<keyof typeof DEMO_ORDER_REFS, Plan> = {
-  shipped: {
-    seed: 1101,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 16,
-    orderRef: DEMO_ORDER_REFS.shipped,
-    customer: 'Halden Rail Systems',
-    dueDay: 10,
-    planned: { day: 0, minute: 20 },
-    released: { day: 0, minute: 35 },
-    coreLot: 'HM-26-0419',
-  },
-  shippedWithOpenReturn: {
-    seed: 1202,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 12,
-    orderRef: DEMO_ORDER_REFS.shippedWithOpenReturn,
-    customer: 'Norvale Labs',
-    dueDay: 11,
-    planned: { day: 1, minute: 60 },
-    released: { day: 2, minute: 20 },
-    coreLot: 'HM-26-0388',
-  },
-  miscount: {
-    seed: 318,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 24,
-    orderRef: DEMO_ORDER_REFS.miscount,
-    customer: 'Selworth Marine',
-    dueDay: 19,
-    planned: { day: 7, minute: 300 },
-    released: { day: 8, minute: 30 },
-    coreLot: 'HM-26-0419',
-  },
-  hipot: {
-    seed: 2210,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 20,
-    orderRef: DEMO_ORDER_REFS.hipot,
-    customer: 'Corrin Instruments',
-    dueDay: 23,
-    planned: { day: 12, minute: 200 },
-    released: { day: 13, minute: 20 },
-    coreLot: 'HM-26-0547',
-  },
-  contained: {
-    seed: 4502,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 14,
-    orderRef: DEMO_ORDER_REFS.contained,
-    customer: 'Halden Rail Systems',
-    dueDay: 30,
-    planned: { day: 17, minute: 100 },
-    released: { day: 19, minute: 30 },
-    coreLot: SUSPECT_CORE_LOT,
-  },
-  inProgress: {
-    seed: 612,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 24,
-    orderRef: DEMO_ORDER_REFS.inProgress,
-    customer: 'Brackwater Energy',
-    dueDay: 33,
-    planned: { day: 21, minute: 200 },
-    released: { day: 23, minute: 20 },
-    coreLot: 'HM-26-0547',
-  },
-  inProgressSmall: {
-    seed: 137,
-    productCode: 'FP12',
-    letter: 'A',
-    quantity: 10,
-    orderRef: DEMO_ORDER_REFS.inProgressSmall,
-    customer: 'Norvale Labs',
-    dueDay: 34,
-    planned: { day: 25, minute: 100 },
-    released: { day: 27, minute: 20 },
-    coreLot: 'HM-26-0388',
-  },
-  planned: {
-    seed: 344,
-    productCode: 'FP24',
-    letter: 'B',
-    quantity: 18,
-    orderRef: DEMO_ORDER_REFS.planned,
-    customer: 'Selworth Marine',
-    dueDay: 45,
-    planned: { day: 28, minute: 400 },
-    coreLot: 'HM-26-0419',
-  },
-}
+export const LOT_PLANS = Object.fromEntries(
+  PLAN_ROWS.map(
+    ([story, seed, productCode, quantity, customer, dueDay, planned, released, coreLot]) => [
+      story,
+      {
+        seed,
+        productCode,
+        letter: RELEASED_LETTER[productCode],
+        quantity,
+        orderRef: DEMO_ORDER_REFS[story],
+        customer,
+        dueDay,
+        planned: at(planned),
+        ...(released ? { released: at(released) } : {}),
+        coreLot,
+      },
+    ],
+  ),
+) as Record<Story, Plan>
 
 /**
  * The lots whose story may raise a quality alert: the miscount at WND-2, the hipot lot (its two

@@ -1,64 +1,48 @@
-import { fp24Steps, n } from './demoRecipes'
-import type { DemoProduct, DemoStep } from './demoRecipes'
-import { HIGH_VOLTAGE_CAUTION } from '../../shared/safety/hipot'
+import { derived, fp24Steps, n, ratioTest, turnCounts } from './demoRecipes'
+import type { DemoBomLine, DemoProduct, DemoStep } from './demoRecipes'
+import type { WindingInput } from '../../shared/schemas/recipes'
 
 // The smaller FP-12150 (12 V in, 150 V out, 100 W): 2 × 4 primary turns, 52 secondary turns on
 // an AL 2200 nH/turn² core. Invented for the demo, like its limits.
 function fp12Steps(): DemoStep[] {
-  const [winding, soldering, , , inspection, packing] = fp24Steps()
+  const [winding, soldering, hipot, loadTest, inspection, packing] = fp24Steps()
+  const [, heldSeconds, leakage] = hipot!.checks
   return [
     {
       ...winding!,
       instructions:
         'Wind both primary halves bifilar, 4 turns each, tape, then the secondary of 52 turns.\nMeasure at 10 kHz; apply 5.00 V to primary A for the ratio test.',
       checks: [
-        n('primary_a_turns', 'Primary A turns counted', 'turns', 4, 4, 4, 0),
-        n('primary_b_turns', 'Primary B turns counted', 'turns', 4, 4, 4, 0),
-        n('secondary_turns', 'Secondary turns counted', 'turns', 52, 52, 52, 0),
+        ...turnCounts(4, 52),
         n('l_secondary', 'Inductance, secondary', 'mH', 5.95, 4.46, 7.44, 2),
-        n('ratio_v_primary', 'Ratio test: volts on primary A', 'V', 5, 4.95, 5.05, 2),
-        n('ratio_v_secondary', 'Ratio test: volts on secondary', 'V', 65, 60, 70, 1),
-        {
-          ...n('secondary_turns_ratio', 'Secondary turns from ratio', 'turns', 52, 51.5, 52.5, 1),
-          derived: 'secondary_turns_from_ratio',
-          derivedInputs: {
-            primaryWinding: 'primary A',
-            primaryVolts: 'ratio_v_primary',
-            secondaryVolts: 'ratio_v_secondary',
-          },
-        },
+        ...ratioTest([5, 4.95, 5.05], [65, 60, 70], [52, 51.5, 52.5]),
       ],
     },
     { ...soldering!, checks: soldering!.checks.filter((c) => c.key !== 'r_secondary') },
     {
-      name: 'Hipot',
-      stationKind: 'hipot',
-      requiresSignoff: true,
+      ...hipot!,
       instructions:
         'Input shorted, output shorted. Apply the test voltage input-to-output for 60 s.',
-      safetyNote: HIGH_VOLTAGE_CAUTION,
       checks: [
         n('hipot_volts', 'Test voltage applied (AC rms)', 'V', 1500, 1500, 1600, 0),
-        n('hipot_seconds', 'Time held', 's', 60, 60, 65, 0),
-        n('hipot_leakage', 'Highest leakage current', 'mA', null, null, 5, 2),
+        heldSeconds!,
+        leakage!,
       ],
     },
     {
-      name: 'Load test',
-      stationKind: 'load_test',
-      requiresSignoff: false,
+      ...loadTest!,
       instructions: 'Load at 0.667 A (100 W) from a 12 V supply; read after 10 minutes.',
-      safetyNote: HIGH_VOLTAGE_CAUTION,
       checks: [
         n('vin', 'Input voltage', 'V', 12, 11.8, 12.2, 2),
         n('iin', 'Input current', 'A', 9.3, 0, 10.5, 2),
         n('vout', 'Output voltage, full load', 'V', 150, 147, 153, 1),
         n('iout', 'Output current', 'A', 0.667, 0.65, 0.68, 3),
-        {
-          ...n('efficiency_pct', 'Efficiency', '%', 89, 84, null, 1),
-          derived: 'efficiency',
-          derivedInputs: { vin: 'vin', iin: 'iin', vout: 'vout', iout: 'iout' },
-        },
+        derived(n('efficiency_pct', 'Efficiency', '%', 89, 84, null, 1), 'efficiency', {
+          vin: 'vin',
+          iin: 'iin',
+          vout: 'vout',
+          iout: 'iout',
+        }),
       ],
     },
     inspection!,
@@ -66,28 +50,34 @@ function fp12Steps(): DemoStep[] {
   ]
 }
 
-const FP24_WINDINGS = [
-  {
-    name: 'primary A',
-    nominalTurns: 6,
-    alNanoHenry: 3000,
+/** A product's windings on one core: two equal primary halves, then the secondary. */
+const windings = (
+  primaryTurns: number,
+  secondaryTurns: number,
+  alNanoHenry: number,
+  coreAreaMm2: number,
+): WindingInput[] =>
+  (
+    [
+      ['primary A', primaryTurns],
+      ['primary B', primaryTurns],
+      ['secondary', secondaryTurns],
+    ] as const
+  ).map(([name, nominalTurns]) => ({
+    name,
+    nominalTurns,
+    alNanoHenry,
     alTolerancePercent: 25,
-    coreAreaMm2: 178,
-  },
-  {
-    name: 'primary B',
-    nominalTurns: 6,
-    alNanoHenry: 3000,
-    alTolerancePercent: 25,
-    coreAreaMm2: 178,
-  },
-  {
-    name: 'secondary',
-    nominalTurns: 92,
-    alNanoHenry: 3000,
-    alTolerancePercent: 25,
-    coreAreaMm2: 178,
-  },
+    coreAreaMm2,
+  }))
+
+const FP24_WINDINGS = windings(6, 92, 3000, 178)
+
+/** Both products fit a main board (traced by serial), the same controller and the same switches. */
+const boardParts = (board: string): DemoBomLine[] => [
+  { partNumber: board, quantity: 1, fittedAtStep: 'Soldering', traceLevel: 'serial' },
+  { partNumber: 'ICP-PWM2', quantity: 1, refDesignators: 'U1', fittedAtStep: 'Soldering' },
+  { partNumber: 'MSF-100V', quantity: 2, refDesignators: 'Q1, Q2', fittedAtStep: 'Soldering' },
 ]
 
 export const DEMO_PRODUCTS: DemoProduct[] = [
@@ -119,19 +109,7 @@ export const DEMO_PRODUCTS: DemoProduct[] = [
           { partNumber: 'WCU-140', quantity: 1.2, fittedAtStep: 'Winding' },
           { partNumber: 'WCU-045', quantity: 9.5, fittedAtStep: 'Winding' },
           { partNumber: 'TPI-25', quantity: 0.6, fittedAtStep: 'Winding' },
-          {
-            partNumber: 'PCB-FP24-B',
-            quantity: 1,
-            fittedAtStep: 'Soldering',
-            traceLevel: 'serial',
-          },
-          { partNumber: 'ICP-PWM2', quantity: 1, refDesignators: 'U1', fittedAtStep: 'Soldering' },
-          {
-            partNumber: 'MSF-100V',
-            quantity: 2,
-            refDesignators: 'Q1, Q2',
-            fittedAtStep: 'Soldering',
-          },
+          ...boardParts('PCB-FP24-B'),
           {
             partNumber: 'DUF-600V',
             quantity: 4,
@@ -160,47 +138,13 @@ export const DEMO_PRODUCTS: DemoProduct[] = [
         letter: 'A',
         status: 'released',
         notes: 'First release. Demo data: every limit is invented for this example shop.',
-        windings: [
-          {
-            name: 'primary A',
-            nominalTurns: 4,
-            alNanoHenry: 2200,
-            alTolerancePercent: 25,
-            coreAreaMm2: 97,
-          },
-          {
-            name: 'primary B',
-            nominalTurns: 4,
-            alNanoHenry: 2200,
-            alTolerancePercent: 25,
-            coreAreaMm2: 97,
-          },
-          {
-            name: 'secondary',
-            nominalTurns: 52,
-            alNanoHenry: 2200,
-            alTolerancePercent: 25,
-            coreAreaMm2: 97,
-          },
-        ],
+        windings: windings(4, 52, 2200, 97),
         steps: fp12Steps(),
         bom: [
           { partNumber: 'FCS-2200U', quantity: 1, fittedAtStep: 'Winding' },
           { partNumber: 'WCU-140', quantity: 0.8, fittedAtStep: 'Winding' },
           { partNumber: 'WCU-045', quantity: 4.5, fittedAtStep: 'Winding' },
-          {
-            partNumber: 'PCB-FP12-A',
-            quantity: 1,
-            fittedAtStep: 'Soldering',
-            traceLevel: 'serial',
-          },
-          { partNumber: 'ICP-PWM2', quantity: 1, refDesignators: 'U1', fittedAtStep: 'Soldering' },
-          {
-            partNumber: 'MSF-100V',
-            quantity: 2,
-            refDesignators: 'Q1, Q2',
-            fittedAtStep: 'Soldering',
-          },
+          ...boardParts('PCB-FP12-A'),
         ],
       },
     ],

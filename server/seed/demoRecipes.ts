@@ -50,19 +50,22 @@ export const n = (
   choices: null,
   derived: null,
 })
+/** A yes/no check: no unit, nominal or limits. */
 const yes = (key: string, label: string): DemoCheck => ({
-  key,
-  label,
+  ...n(key, label, null, null, null, null, 0),
   kind: 'boolean',
-  unit: null,
-  nominal: null,
-  lower: null,
-  upper: null,
-  decimals: 0,
-  choices: null,
-  derived: null,
 })
-const derived = (
+/** A check where the operator picks one answer; `isPass` says which answers pass. */
+const choice = (
+  key: string,
+  label: string,
+  answers: [value: string, isPass: boolean][],
+): DemoCheck => ({
+  ...yes(key, label),
+  kind: 'choice',
+  choices: answers.map(([value, isPass]) => ({ value, isPass })),
+})
+export const derived = (
   check: DemoCheck,
   formula: NonNullable<CheckInput['derived']>,
   inputs: Record<string, string>,
@@ -71,6 +74,50 @@ const derived = (
   derived: formula,
   derivedInputs: inputs,
 })
+
+/** Nominal, lower and upper limit of a numeric check. */
+type Limits = [nominal: number, lower: number, upper: number]
+
+/** The turns counted on each winding: exactly the nominal, or the count is wrong. */
+export const turnCounts = (primaryHalf: number, secondary: number): DemoCheck[] => [
+  n(
+    'primary_a_turns',
+    'Primary A turns counted',
+    'turns',
+    primaryHalf,
+    primaryHalf,
+    primaryHalf,
+    0,
+  ),
+  n(
+    'primary_b_turns',
+    'Primary B turns counted',
+    'turns',
+    primaryHalf,
+    primaryHalf,
+    primaryHalf,
+    0,
+  ),
+  n('secondary_turns', 'Secondary turns counted', 'turns', secondary, secondary, secondary, 0),
+]
+
+/**
+ * The ratio test: volts applied to primary A, volts read on the secondary, and the secondary's
+ * turns they imply.
+ */
+export const ratioTest = (applied: Limits, read: Limits, turns: Limits): DemoCheck[] => [
+  n('ratio_v_primary', 'Ratio test: volts on primary A', 'V', ...applied, 2),
+  n('ratio_v_secondary', 'Ratio test: volts on secondary', 'V', ...read, 1),
+  derived(
+    n('secondary_turns_ratio', 'Secondary turns from ratio', 'turns', ...turns, 1),
+    'secondary_turns_from_ratio',
+    {
+      primaryWinding: 'primary A',
+      primaryVolts: 'ratio_v_primary',
+      secondaryVolts: 'ratio_v_secondary',
+    },
+  ),
+]
 
 export const DEMO_PARTS: PartInput[] = [
   {
@@ -173,9 +220,7 @@ export function fp24Steps(): DemoStep[] {
         'Wind both primary halves bifilar, 6 turns each, then two layers of tape.\nWind the secondary, 92 turns in four layers, tape between layers.\nCount turns on the counter, measure each winding on the LCR meter at 10 kHz, then apply 10.00 V to primary A and read the secondary.',
       safetyNote: '',
       checks: [
-        n('primary_a_turns', 'Primary A turns counted', 'turns', 6, 6, 6, 0),
-        n('primary_b_turns', 'Primary B turns counted', 'turns', 6, 6, 6, 0),
-        n('secondary_turns', 'Secondary turns counted', 'turns', 92, 92, 92, 0),
+        ...turnCounts(6, 92),
         n('l_primary_a', 'Inductance, primary A', 'µH', 108, 81, 135, 1),
         n('l_primary_b', 'Inductance, primary B', 'µH', 108, 81, 135, 1),
         n('l_secondary', 'Inductance, secondary', 'mH', 25.4, 19.0, 31.8, 2),
@@ -194,17 +239,7 @@ export function fp24Steps(): DemoStep[] {
           'turn_deviation',
           { inductance: 'l_secondary', winding: 'secondary' },
         ),
-        n('ratio_v_primary', 'Ratio test: volts on primary A', 'V', 10, 9.9, 10.1, 2),
-        n('ratio_v_secondary', 'Ratio test: volts on secondary', 'V', 153.3, 140, 167, 1),
-        derived(
-          n('secondary_turns_ratio', 'Secondary turns from ratio', 'turns', 92, 91.5, 92.5, 1),
-          'secondary_turns_from_ratio',
-          {
-            primaryWinding: 'primary A',
-            primaryVolts: 'ratio_v_primary',
-            secondaryVolts: 'ratio_v_secondary',
-          },
-        ),
+        ...ratioTest([10, 9.9, 10.1], [153.3, 140, 167], [92, 91.5, 92.5]),
         yes('tape_fitted', 'Interlayer tape fitted and smooth'),
       ],
     },
@@ -217,21 +252,10 @@ export function fp24Steps(): DemoStep[] {
       safetyNote: 'Use the fume extractor. Hot iron: park it in its stand.',
       checks: [
         yes('joints_inspected', 'All joints inspected under magnifier'),
-        {
-          key: 'cap_polarity',
-          label: 'Output capacitor polarity',
-          kind: 'choice',
-          unit: null,
-          nominal: null,
-          lower: null,
-          upper: null,
-          decimals: 0,
-          derived: null,
-          choices: [
-            { value: 'correct', isPass: true },
-            { value: 'reversed', isPass: false },
-          ],
-        },
+        choice('cap_polarity', 'Output capacitor polarity', [
+          ['correct', true],
+          ['reversed', false],
+        ]),
         n('r_secondary', 'Secondary DC resistance', 'Ω', 1.1, 0.8, 1.4, 2),
       ],
     },
@@ -246,22 +270,11 @@ export function fp24Steps(): DemoStep[] {
         n('hipot_volts', 'Test voltage applied (AC rms)', 'V', 1700, 1700, 1800, 0),
         n('hipot_seconds', 'Time held', 's', 60, 60, 65, 0),
         n('hipot_leakage', 'Highest leakage current', 'mA', null, null, 5, 2),
-        {
-          key: 'hipot_outcome',
-          label: 'Outcome',
-          kind: 'choice',
-          unit: null,
-          nominal: null,
-          lower: null,
-          upper: null,
-          decimals: 0,
-          derived: null,
-          choices: [
-            { value: 'no breakdown', isPass: true },
-            { value: 'breakdown', isPass: false },
-            { value: 'flashover', isPass: false },
-          ],
-        },
+        choice('hipot_outcome', 'Outcome', [
+          ['no breakdown', true],
+          ['breakdown', false],
+          ['flashover', false],
+        ]),
       ],
     },
     {

@@ -4,9 +4,10 @@ import { containComponentLot } from '../services/trace'
 import { ComponentLot } from '../models'
 import { startLot } from './demoFloor'
 import { playTogether } from './demoTimeline'
-import type { LotTimeline, Scene } from './demoTimeline'
-import { DEMO_ORDER_REFS, LOT_PLANS, MISCOUNTED_UNITS, SUSPECT_CORE_LOT } from './demoPlans'
+import type { LotTimeline, Person, Scene } from './demoTimeline'
+import { LOT_PLANS, MISCOUNTED_UNITS, SUSPECT_CORE_LOT } from './demoPlans'
 import type { Plan } from './demoPlans'
+import type { DispositionInput } from '../../shared/schemas/lots'
 import { coreAlFactor } from './demoReceiving'
 import { demoCustomerId, demoReturn, shipLot } from './demoShipping'
 
@@ -37,74 +38,129 @@ async function lotOf(scene: Scene, p: Plan): Promise<LotTimeline> {
 /** Winding bench by unit: the first half of each day's units at WND-1, the rest at WND-2. */
 const byHalfDay = (perDay: number) => (i: number) => (i % perDay < perDay / 2 ? 'WND-1' : 'WND-2')
 
+/** The lead closes the lot at shop time day/minute. */
+function closeAt(scene: Scene, lot: LotTimeline, day: number, minute: number): void {
+  lot.at(day, minute, async () => {
+    await closeLot(lot.lotId, scene.cast.lead, scene.clock.at(day, minute))
+  })
+}
+
+/** Ships the lot's passed units to its plan's customer at shop time day/minute. */
+function shipAt(
+  scene: Scene,
+  lot: LotTimeline,
+  plan: Plan,
+  [day, minute]: [number, number],
+  parcel: { carrier: string; tracking: string },
+): void {
+  const { cast, clock } = scene
+  lot.atShop(day, minute, async () => {
+    const out = await shipLot(
+      lot.lotId,
+      { customerId: await demoCustomerId(plan.customer), orderRef: plan.orderRef, ...parcel },
+      { lead: cast.lead, service: cast.service },
+      clock.at(day, minute),
+    )
+    lot.shipped = out.serials
+  })
+}
+
+/** A customer returns the lot's shipped unit `index`; service closes the case when `closed`. */
+function returnAt(
+  scene: Scene,
+  lot: LotTimeline,
+  index: number,
+  [day, minute]: [number, number],
+  complaint: string,
+  closed?: { day: number; minute: number; resolution: 'no_fault_found' },
+): void {
+  const { cast, clock } = scene
+  lot.atShop(day, minute, async () => {
+    await demoReturn(
+      lot.shipped[index]!,
+      complaint,
+      cast.service,
+      clock.at(day, minute),
+      closed && { at: clock.at(closed.day, closed.minute), resolution: closed.resolution },
+    )
+  })
+}
+
+interface Decision {
+  disposition: DispositionInput['disposition']
+  /** The route position the unit goes back to, for a rework. */
+  reworkAt?: number
+  reason: string
+}
+
+/** Decides the open nonconformance of the lot's unit `unit`. */
+async function decide(lot: LotTimeline, unit: number, d: Decision, by: Person, at: Date) {
+  await disposeNonconformance(
+    lot.failed.get(unit)!,
+    {
+      disposition: d.disposition,
+      reworkToStepId: d.reworkAt ? lot.stepAt(d.reworkAt).id : null,
+      reason: d.reason,
+      countersign: null,
+    },
+    by,
+    at,
+  )
+}
+
+/** `by` decides the open nonconformance of the lot's unit `unit` at shop time day/minute. */
+function decideAt(
+  scene: Scene,
+  lot: LotTimeline,
+  unit: number,
+  [day, minute]: [number, number],
+  by: Person,
+  d: Decision,
+): void {
+  lot.at(day, minute, () => decide(lot, unit, d, by, scene.clock.at(day, minute)))
+}
+
 /**
  * Plans, releases and builds the eight lots through the services, in shop-time order. Lots are
  * planned in order, so their numbers (L-0001…) and serials are the same on every run.
  */
 export async function loadDemoStory(scene: Scene): Promise<void> {
   const { cast, clock } = scene
-  const people = { lead: cast.lead, service: cast.service }
   const lots: LotTimeline[] = []
 
   // L-0001: clean, shipped, one return that found nothing wrong.
   const shipped = await lotOf(scene, LOT_PLANS.shipped)
   shipped.flow({ firstDay: 0, perDay: 8, bench: byHalfDay(8) })
-  shipped.at(7, 60, async () => {
-    await closeLot(shipped.lotId, cast.lead, clock.at(7, 60))
+  closeAt(scene, shipped, 7, 60)
+  shipAt(scene, shipped, LOT_PLANS.shipped, [7, 240], {
+    carrier: 'Tarn Valley Freight',
+    tracking: 'TVF 3318 0427 91',
   })
-  shipped.atShop(7, 240, async () => {
-    const out = await shipLot(
-      shipped.lotId,
-      {
-        customerId: await demoCustomerId('Halden Rail Systems'),
-        orderRef: DEMO_ORDER_REFS.shipped,
-        carrier: 'Tarn Valley Freight',
-        tracking: 'TVF 3318 0427 91',
-      },
-      people,
-      clock.at(7, 240),
-    )
-    shipped.shipped = out.serials
-  })
-  shipped.atShop(16, 150, async () => {
-    await demoReturn(
-      shipped.shipped[3]!,
-      'Unit rattles when shaken; output looks normal on our bench.',
-      cast.service,
-      clock.at(16, 150),
-      { at: clock.at(18, 420), resolution: 'no_fault_found' },
-    )
-  })
+  returnAt(
+    scene,
+    shipped,
+    3,
+    [16, 150],
+    'Unit rattles when shaken; output looks normal on our bench.',
+    { day: 18, minute: 420, resolution: 'no_fault_found' },
+  )
   lots.push(shipped)
 
   // L-0002: the small unit, clean, shipped; one return still open.
   const small = await lotOf(scene, LOT_PLANS.shippedWithOpenReturn)
   small.flow({ firstDay: 2, perDay: 6, bench: byHalfDay(6) })
-  small.at(9, 30, async () => {
-    await closeLot(small.lotId, cast.lead, clock.at(9, 30))
+  closeAt(scene, small, 9, 30)
+  shipAt(scene, small, LOT_PLANS.shippedWithOpenReturn, [9, 200], {
+    carrier: 'Fellgate Couriers',
+    tracking: 'FG-55810-2274',
   })
-  small.atShop(9, 200, async () => {
-    const out = await shipLot(
-      small.lotId,
-      {
-        customerId: await demoCustomerId('Norvale Labs'),
-        orderRef: DEMO_ORDER_REFS.shippedWithOpenReturn,
-        carrier: 'Fellgate Couriers',
-        tracking: 'FG-55810-2274',
-      },
-      people,
-      clock.at(9, 200),
-    )
-    small.shipped = out.serials
-  })
-  small.atShop(27, 90, async () => {
-    await demoReturn(
-      small.shipped[7]!,
-      'Output drops to about 0 V after 20 minutes at full load; recovers after cooling.',
-      cast.service,
-      clock.at(27, 90),
-    )
-  })
+  returnAt(
+    scene,
+    small,
+    7,
+    [27, 90],
+    'Output drops to about 0 V after 20 minutes at full load; recovers after cooling.',
+  )
   lots.push(small)
 
   // L-0003: the miscount at WND-2, caught and rewound.
@@ -124,14 +180,14 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
   })
   miscount.at(12, 420, async () => {
     for (const i of MISCOUNTED_UNITS)
-      await disposeNonconformance(
-        miscount.failed.get(i)!,
+      await decide(
+        miscount,
+        i,
         {
           disposition: 'rework',
-          reworkToStepId: miscount.stepAt(1).id,
+          reworkAt: 1,
           reason:
             'turn-deviation panel: six secondaries from WND-2 read about 2 turns over; its counter skips. Strip and rewind the secondary at WND-1',
-          countersign: null,
         },
         cast.lead,
         clock.at(12, 420),
@@ -141,9 +197,7 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
     miscount.run(i, 1, 12, 500 + k * 40, { bench: 'WND-1', turns: 92, isExtra: true })
     for (let p = 2; p <= 6; p++) miscount.run(i, p, 12 + p - 1, 600 + k * 20 + p, { isExtra: true })
   }
-  miscount.at(18, 60, async () => {
-    await closeLot(miscount.lotId, cast.lead, clock.at(18, 60))
-  })
+  closeAt(scene, miscount, 18, 60)
   lots.push(miscount)
 
   // L-0004: hipot breakdown (scrap), leakage (cleaned, retested), a scuff (used as is); shipped.
@@ -163,63 +217,25 @@ export async function loadDemoStory(scene: Scene): Promise<void> {
       { unit: 16, position: 5, override: { cosmetic_ok: false }, defectCode: 'I-COSMETIC' },
     ],
   })
-  hipot.at(16, 100, async () => {
-    await disposeNonconformance(
-      hipot.failed.get(5)!,
-      {
-        disposition: 'scrap',
-        reworkToStepId: null,
-        reason: 'insulation punctured between primary and secondary; not worth rewinding',
-        countersign: null,
-      },
-      cast.lead,
-      clock.at(16, 100),
-    )
+  decideAt(scene, hipot, 5, [16, 100], cast.lead, {
+    disposition: 'scrap',
+    reason: 'insulation punctured between primary and secondary; not worth rewinding',
   })
-  hipot.at(16, 820, async () => {
-    await disposeNonconformance(
-      hipot.failed.get(12)!,
-      {
-        disposition: 'rework',
-        reworkToStepId: hipot.stepAt(3).id,
-        reason: 'flux residue across the isolation slot: clean with IPA, dry, test again',
-        countersign: null,
-      },
-      cast.lead,
-      clock.at(16, 820),
-    )
+  decideAt(scene, hipot, 12, [16, 820], cast.lead, {
+    disposition: 'rework',
+    reworkAt: 3,
+    reason: 'flux residue across the isolation slot: clean with IPA, dry, test again',
   })
   for (let p = 3; p <= 6; p++) hipot.run(12, p, 17 + p - 3, 650 + p, { isExtra: true })
-  hipot.at(19, 700, async () => {
-    await disposeNonconformance(
-      hipot.failed.get(16)!,
-      {
-        disposition: 'use_as_is',
-        reworkToStepId: null,
-        reason:
-          'scuff on the enclosure side, under 5 mm and away from the label; no function affected',
-        countersign: null,
-      },
-      cast.engineer,
-      clock.at(19, 700),
-    )
+  decideAt(scene, hipot, 16, [19, 700], cast.engineer, {
+    disposition: 'use_as_is',
+    reason: 'scuff on the enclosure side, under 5 mm and away from the label; no function affected',
   })
   hipot.run(16, 6, 20, 730, { isExtra: true })
-  hipot.at(21, 60, async () => {
-    await closeLot(hipot.lotId, cast.lead, clock.at(21, 60))
-  })
-  hipot.atShop(21, 300, async () => {
-    await shipLot(
-      hipot.lotId,
-      {
-        customerId: await demoCustomerId('Corrin Instruments'),
-        orderRef: DEMO_ORDER_REFS.hipot,
-        carrier: 'Tarn Valley Freight',
-        tracking: 'TVF 3318 5120 06',
-      },
-      people,
-      clock.at(21, 300),
-    )
+  closeAt(scene, hipot, 21, 60)
+  shipAt(scene, hipot, LOT_PLANS.hipot, [21, 300], {
+    carrier: 'Tarn Valley Freight',
+    tracking: 'TVF 3318 5120 06',
   })
   lots.push(hipot)
 
