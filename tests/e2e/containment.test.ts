@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Unit } from '../../server/models'
-import { LOT_ROLES, signInRoles } from '../api/support/client'
+import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
 import type { TestLot } from '../api/support/floor'
 import { openPage, picturesOf, signInByApi, useE2eApp, waitForStillness } from './support/setup'
@@ -12,7 +12,10 @@ describe('ending a containment on the recall page', () => {
   let serials: string[]
 
   beforeAll(async () => {
-    const { engineer, lead, stores, operator } = await signInRoles(...LOT_ROLES)
+    await resetSignInLimits()
+    const [engineer, lead, stores, operator] = await Promise.all(
+      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
+    )
     t = await releasedTestLot({ engineer, lead, stores }, 3)
     serials = t.units.map((u) => u.serial)
     for (const s of serials) await operator.post('/api/step-runs', windingRun(t, s)).expect(201)

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest'
 import { closeImportsQueue } from '../../server/services/imports/queue'
 import { newQueueConnection } from '../../server/redis'
 import { startImportsWorker } from '../../server/services/imports'
-import { LOT_ROLES, signInRoles } from '../api/support/client'
+import { resetSignInLimits, signedInAs } from '../api/support/client'
 import { releasedTestLot, windingRun } from '../api/support/floor'
 import { openPage, picturesOf, signInAs, useE2eApp } from './support/setup'
 
@@ -26,7 +26,10 @@ describe('Bench import screen', () => {
   })
 
   it('uploads a rack file, shows the dry run with its problems in words, imports and shows progress', async () => {
-    const { engineer, lead, stores, operator } = await signInRoles(...LOT_ROLES)
+    await resetSignInLimits()
+    const [engineer, lead, stores, operator] = await Promise.all(
+      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
+    )
     const t = await releasedTestLot({ engineer, lead, stores }, 3, 10)
     for (const u of t.units.slice(0, 2))
       await operator.post('/api/step-runs', windingRun(t, u.serial)).expect(201)

@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { CustomerDto, ServiceCaseDto } from '../../shared/schemas/shipping'
 import { AuditEvent, ComponentLot, Document, Lot, ServiceCase, Unit } from '../../server/models'
-import { LOT_ROLES, signedInRoles, uniqueSuffix } from '../api/support/client'
+import { resetSignInLimits, signedInAs, uniqueSuffix } from '../api/support/client'
+import type { TestClient } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
 import type { TestLot } from '../api/support/floor'
 import { openPage, picturesOf, signInByApi, signInHere, useE2eApp } from './support/setup'
@@ -10,9 +11,9 @@ const stateOf = async (serial: string) => (await Unit.findOne({ where: { serial 
 
 describe('component lot links, a unit’s papers, returns, packing and containment', () => {
   const e2e = useE2eApp()
-  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   // A lot of its own, built for a customer of its own, so the demo stays as other tests expect.
   let t: TestLot
+  let lead: TestClient
   let customer: CustomerDto
   /** Shipped and returned (open case). */
   let returned: string
@@ -25,6 +26,11 @@ describe('component lot links, a unit’s papers, returns, packing and containme
   let caseNumber: string
 
   beforeAll(async () => {
+    await resetSignInLimits()
+    const [engineer, stores, operator, service] = await Promise.all(
+      ['engineer', 'stores', 'operator', 'service'].map(signedInAs),
+    )
+    lead = await signedInAs('lead')
     t = await releasedTestLot({ engineer, lead, stores }, 4)
     ;[returned, shipped, inShop, toPack] = t.units.map((u) => u.serial) as [
       string,

@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Unit } from '../../server/models'
-import { LOT_ROLES, signInRoles, uniqueSuffix } from '../api/support/client'
+import { resetSignInLimits, signedInAs, uniqueSuffix } from '../api/support/client'
 import { loadTestRun, releasedTestLot, windingRun } from '../api/support/floor'
 import { screenshotOnFailure } from './support/browser'
 import { picturesOf, signInHere, useE2eApp } from './support/setup'
@@ -18,9 +18,12 @@ describe('Shipping screen', () => {
   })
 
   async function prepare() {
+    await resetSignInLimits()
     // Units to ship, made through the same API the Floor uses: two pass both steps, one stops
     // after the first.
-    const { engineer, lead, stores, operator, service } = await signInRoles(...LOT_ROLES, 'service')
+    const [engineer, lead, stores, operator, service] = await Promise.all(
+      ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
+    )
     const t = await releasedTestLot({ engineer, lead, stores }, 3)
     passed = t.units.slice(0, 2).map((u) => u.serial)
     unfinished = t.units[2]!.serial
