@@ -10,12 +10,20 @@ import { db } from '../../server/models'
 import { closeDocumentsQueue } from '../../server/services/documents/queue'
 import { newQueueConnection } from '../../server/redis'
 import { startDocumentsWorker } from '../../server/services/documents'
-import { LOT_ROLES, signedInAs, signedInRoles } from './support/client'
-import { binary, flat, pdfText } from './support/pdf'
+import { resetSignInLimits, signedInAs } from './support/client'
+import type { TestClient } from './support/client'
+import { flat, pdfText } from './support/pdf'
 import { runMixedLot } from './support/floor'
 import type { TestLot } from './support/floor'
 
 const today = new Date().toISOString().slice(0, 10)
+type Parser = Parameters<ReturnType<TestClient['get']>['parse']>[0]
+/** Reads a binary download (supertest buffers only text by default). */
+const binary = ((res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = []
+  res.on('data', (c: Buffer) => chunks.push(c))
+  res.on('end', () => done(null, Buffer.concat(chunks)))
+}) as unknown as Parser
 const workbook = async (body: unknown) => {
   const wb = new ExcelJS.Workbook()
   await wb.xlsx.load(body as ArrayBuffer)
@@ -23,13 +31,20 @@ const workbook = async (body: unknown) => {
 }
 
 describe('lot report and exports', () => {
-  const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
+  let engineer: TestClient
+  let lead: TestClient
+  let stores: TestClient
+  let operator: TestClient
   let t: TestLot
   let serials: string[]
   let connection: Redis
   let documents: ReturnType<typeof startDocumentsWorker>
 
   beforeAll(async () => {
+    await resetSignInLimits()
+    ;[engineer, lead, stores, operator] = await Promise.all(
+      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
+    )
     // The same small lot as tests/api/yield.test.ts (runMixedLot): units 1 and 2 clean; unit 3
     // fails the load test, is reworked to Winding and passes; unit 4 reads 40 mH at winding and
     // is scrapped; unit 5 waits at the load test.
@@ -68,7 +83,11 @@ describe('lot report and exports', () => {
       }
       expect(now.error).toBeNull()
       expect(now.status).toBe('done')
-      const file = await binary(lead.get(`/api/documents/${doc.id}/file`)).expect(200)
+      const file = await lead
+        .get(`/api/documents/${doc.id}/file`)
+        .buffer(true)
+        .parse(binary)
+        .expect(200)
       pdf = file.body as Buffer
       await mkdir('test-results', { recursive: true })
       await writeFile('test-results/lot-report.pdf', pdf) // to look at; ignored by git
@@ -238,7 +257,7 @@ describe('lot report and exports', () => {
     })
 
     it('writes the measurements as XLSX with a bold, frozen header and number formats', async () => {
-      const res = await binary(lead.get(measurementsUrl('xlsx'))).expect(200)
+      const res = await lead.get(measurementsUrl('xlsx')).buffer(true).parse(binary).expect(200)
       expect(res.headers['content-type']).toMatch(/spreadsheetml/)
       const wb = await workbook(res.body)
       const ws = wb.worksheets[0]!
@@ -292,7 +311,11 @@ describe('lot report and exports', () => {
       expect(Number(r['Rolled throughput yield (%)'])).toBeCloseTo(53.3333, 3)
       expect(Number(r['WIP (units)'])).toBe(1)
 
-      const xlsx = await binary(lead.get(`/api/exports/lots?format=xlsx&${q}`)).expect(200)
+      const xlsx = await lead
+        .get(`/api/exports/lots?format=xlsx&${q}`)
+        .buffer(true)
+        .parse(binary)
+        .expect(200)
       const wb = await workbook(xlsx.body)
       const ws = wb.worksheets[0]!
       expect(ws.getRow(1).font?.bold).toBe(true)
