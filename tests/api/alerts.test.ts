@@ -17,16 +17,12 @@ import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
 import { processAlertJob, sendDueDigests } from '../../server/services/quality'
 import { enqueueMail, startMailWorker } from '../../server/services/mail'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 import { loadTestRun, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 import { buildSmallRecipe } from './support/recipes'
 
-let engineer: TestClient
-let lead: TestClient
-let stores: TestClient
-let operator: TestClient
+const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
 let defectId: string
 let fake: Awaited<ReturnType<typeof startSmtpFake>>
 let connection: Redis
@@ -147,10 +143,6 @@ async function ageNotices(): Promise<void> {
 }
 
 beforeAll(async () => {
-  await resetSignInLimits()
-  ;[engineer, lead, stores, operator] = await Promise.all(
-    ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-  )
   defectId = (await operator.get('/api/defect-codes')).body.find(
     (d: { code: string }) => d.code === 'L-VOUT',
   ).id

@@ -1,8 +1,8 @@
 import { QueryTypes } from 'sequelize'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { isAuthCacheLive } from '../../server/services/auth/authCache'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs, TestClient, uniqueSuffix } from './support/client'
+import { TestClient, signedInRoles, uniqueSuffix } from './support/client'
 
 // The session row and the user behind a signed-in request are cached in memory (authCache.ts).
 // These changes are made straight in the database, as another API process or an operator's psql
@@ -31,11 +31,7 @@ async function newUser(
 }
 
 describe('auth cache', () => {
-  let admin: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    admin = await signedInAs('admin')
-  })
+  const { admin } = signedInRoles('admin')
 
   it('is in use once the notification channel listens', async () => {
     await admin.get('/api/auth/me').expect(200)

@@ -1,8 +1,14 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { PASSWORD_LIMITS } from '../../server/middleware/rateLimits'
 import { AuditEvent, User } from '../../server/models'
 import { BADGE_CODE_SHAPE } from '../../shared/links'
-import { resetSignInLimits, signedInAs, TestClient, uniqueSuffix } from './support/client'
+import {
+  LOT_ROLES,
+  resetSignInLimits,
+  signedInRoles,
+  TestClient,
+  uniqueSuffix,
+} from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 
 const PASSWORD = 'a-long-test-password'
@@ -24,11 +30,7 @@ async function newEngineer(
 const badgeOf = async (id: string) => (await User.findByPk(id))!.badgeCode!
 
 describe('badge and PIN for a second signature', () => {
-  let admin: TestClient
-  let lead: TestClient
-  let operator: TestClient
-  let engineer: TestClient
-  let stores: TestClient
+  const { admin, lead, operator, engineer, stores } = signedInRoles(...LOT_ROLES, 'admin')
 
   /** A unit that failed its load test, its nonconformance waiting for a decision. */
   async function nonconformanceToDispose(): Promise<string> {
@@ -42,13 +44,6 @@ describe('badge and PIN for a second signature', () => {
     )
     return failed.body.nonconformanceId as string
   }
-
-  beforeAll(async () => {
-    await resetSignInLimits()
-    ;[admin, lead, operator, engineer, stores] = await Promise.all(
-      ['admin', 'lead', 'operator', 'engineer', 'stores'].map(signedInAs),
-    )
-  })
 
   it('sets a PIN only with the person’s own password, hashed and audited without the value', async () => {
     const me = await newEngineer(admin)

@@ -5,8 +5,7 @@ import type { RevisionDto } from '../../shared/schemas/recipes'
 import type { StatisticsDto } from '../../shared/schemas/statistics'
 import { AuditEvent } from '../../server/models'
 import { renderDocument } from '../../server/services/documents/documentRender'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles } from './support/client'
 import { binary, pdfText } from './support/pdf'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
@@ -19,9 +18,7 @@ const today = new Date().toISOString().slice(0, 10)
 const VOUT = [350, 351, 349, 350, 352, 348, 350, 351]
 
 describe('statistics on any check and the document flags', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   let t: TestLot
   let rev: RevisionDto
   const checkId = (key: string) => rev.steps.flatMap((s) => s.checks).find((c) => c.key === key)!
@@ -36,11 +33,6 @@ describe('statistics on any check and the document flags', () => {
   }
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    let stores: TestClient, operator: TestClient
-    ;[engineer, lead, stores, service, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'service', 'operator'].map(signedInAs),
-    )
     t = await releasedTestLot({ engineer, lead, stores }, VOUT.length)
     for (const [i, u] of t.units.entries()) {
       await operator.post('/api/step-runs', windingRun(t, u.serial)).expect(201)

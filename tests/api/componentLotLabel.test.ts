@@ -1,28 +1,16 @@
 import { PDFParse } from 'pdf-parse'
-import type { Response } from 'superagent'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { ComponentLotDto } from '../../shared/schemas/componentLots'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
-
-function asBytes(res: Response, done: (err: Error | null, body: unknown) => void): void {
-  const chunks: Buffer[] = []
-  const stream = res as unknown as NodeJS.ReadableStream
-  stream.on('data', (c: Buffer) => chunks.push(c))
-  stream.on('end', () => done(null, Buffer.concat(chunks)))
-}
+import { signedInRoles, uniqueSuffix } from './support/client'
+import { binary } from './support/pdf'
 
 // A label printed for a lot that may not be fitted says so (issue 20, point 2).
 describe('component lot labels of held and expired lots', () => {
-  let stores: TestClient
+  const { stores } = signedInRoles('stores')
   let partId: string
 
   const labelText = async (lot: ComponentLotDto) => {
-    const res = await stores
-      .get(`/api/component-lots/${lot.id}/label.pdf`)
-      .buffer(true)
-      .parse(asBytes)
-      .expect(200)
+    const res = await binary(stores.get(`/api/component-lots/${lot.id}/label.pdf`)).expect(200)
     const parser = new PDFParse({ data: res.body as Buffer })
     try {
       return (await parser.getText()).text.normalize('NFKC')
@@ -45,8 +33,6 @@ describe('component lot labels of held and expired lots', () => {
     ).body as ComponentLotDto
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    stores = await signedInAs('stores')
     partId = (
       await stores
         .post('/api/parts', {

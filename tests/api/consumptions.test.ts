@@ -1,21 +1,11 @@
 import { randomUUID } from 'node:crypto'
 import { QueryTypes } from 'sequelize'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 
 describe('serial-traced parts', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-    )
-  })
+  const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
 
   /** A released one-step recipe fitting one serial-traced board, and a released lot of it. */
   async function serialTracedLot(quantity: number) {

@@ -4,8 +4,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { ContainedUnitDto, EndContainmentResultDto } from '../../shared/schemas/trace'
 import { DEMO_PASSWORD } from '../../server/seed/demoUsers'
 import { ComponentLot, db, Unit } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 
@@ -23,10 +22,7 @@ const unitsBySerial = async (serials: string[]) =>
   )
 
 describe('ending a containment and deciding its units', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
+  const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
   // Lot a: three units wound with component lot A; the first passed its load test.
   // Lot b: two units wound with component lot B. The last unit of lot a holds B as well.
   let a: TestLot
@@ -38,10 +34,6 @@ describe('ending a containment and deciding its units', () => {
   const decide = (serial: string) => `/api/trace/units/${serial}/containment-decision`
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-    )
     a = await releasedTestLot({ engineer, lead, stores }, 3)
     b = await releasedTestLot({ engineer, lead, stores }, 2)
     sa = a.units.map((u) => u.serial)

@@ -13,8 +13,7 @@ import {
   MISCOUNTED_UNITS,
   SUSPECT_CORE_LOT,
 } from '../../server/seed/demoPlans'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInRoles } from './support/client'
 
 // The demo shop as `npm test` seeds it (server/seed/demoStory.ts): the story's lots, found by
 // their order references, since other test files add lots of their own beside them.
@@ -25,15 +24,11 @@ const sql = <T extends object>(query: string, replacements: Record<string, unkno
 const ORDER_REFS = Object.values(DEMO_ORDER_REFS)
 
 describe('the demo shop', () => {
-  let lead: TestClient
-  let service: TestClient
+  const { lead, service } = signedInRoles('lead', 'service')
   let lots: Map<string, LotDto>
   let anchor: Date
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    lead = await signedInAs('lead')
-    service = await signedInAs('service')
     const all = (await lead.get('/api/lots').expect(200)).body as LotDto[]
     // Only the seed's lots carry these references with the seed's own numbers (L-0001…L-0008).
     lots = new Map(

@@ -1,22 +1,13 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInAs, signedInRoles, uniqueSuffix } from './support/client'
 import { releasedTestLot, windingRun } from './support/floor'
 
 describe('the Floor’s waiting list and a traveler’s link', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let admin: TestClient
+  const { engineer, lead, stores, operator, admin } = signedInRoles(...LOT_ROLES, 'admin')
   let winding = ''
   let loadTest = ''
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, admin] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'admin'].map(signedInAs),
-    )
     // Stations of our own, so the demo's stations and their queues do not matter here.
     winding = `WQ-${uniqueSuffix()}`.toUpperCase()
     loadTest = `LQ-${uniqueSuffix()}`.toUpperCase()

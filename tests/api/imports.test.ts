@@ -15,7 +15,7 @@ import {
   pendingImports,
   processImport,
 } from '../../server/services/imports'
-import { resetSignInLimits, signedInAs } from './support/client'
+import { LOT_ROLES, signedInRoles } from './support/client'
 import type { TestClient } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
@@ -45,11 +45,7 @@ function csv(rows: [string, string][], tag = String(Math.random())): Buffer {
 }
 
 describe('bench data import', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   let defectId: string
 
   const lot = (quantity: number) => releasedTestLot({ engineer, lead, stores }, quantity, 50)
@@ -80,10 +76,6 @@ describe('bench data import', () => {
   }
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, service] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
-    )
     defectId = (await operator.get('/api/defect-codes')).body.find(
       (d: { code: string }) => d.code === 'L-VOUT',
     ).id

@@ -1,8 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { ComponentLotDto } from '../../shared/schemas/componentLots'
 import { AuditEvent } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 import { releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 
@@ -12,9 +11,7 @@ const PDF = Buffer.from(
 )
 
 describe('incoming inspection and expiry on receipt', () => {
-  let stores: TestClient
-  let engineer: TestClient
-  let operator: TestClient
+  const { stores, engineer, operator, lead } = signedInRoles(...LOT_ROLES)
   let t: TestLot
   let partId: string
 
@@ -42,11 +39,6 @@ describe('incoming inspection and expiry on receipt', () => {
       .expect(200)
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    stores = await signedInAs('stores')
-    engineer = await signedInAs('engineer')
-    operator = await signedInAs('operator')
-    const lead = await signedInAs('lead')
     t = await releasedTestLot({ engineer, lead, stores }, 3)
     partId = t.rev.bom[0]!.partId
     // The part fitted at winding now ages (180 days' shelf life) and needs incoming inspection.

@@ -1,22 +1,14 @@
 import { setTimeout as sleep } from 'node:timers/promises'
 import { QueryTypes } from 'sequelize'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles } from './support/client'
 import { releasedTestLot, windingRun } from './support/floor'
 
 // A hold and the first scans of a freshly released lot take the lot's and the units' row locks;
 // taken in two orders they deadlocked, and PostgreSQL's victim answered 500.
 describe('a hold racing the first scans of a released lot', () => {
-  let clients: Record<'engineer' | 'lead' | 'stores' | 'operator', TestClient>
-  beforeAll(async () => {
-    await resetSignInLimits()
-    const [engineer, lead, stores, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-    )
-    clients = { engineer: engineer!, lead: lead!, stores: stores!, operator: operator! }
-  })
+  const clients = signedInRoles(...LOT_ROLES)
 
   it('ends in one answer each time: scans recorded before the hold, or refused by it', async () => {
     const { lead, operator } = clients

@@ -5,18 +5,13 @@ import type { LotDto } from '../../shared/schemas/lots'
 import { db, Document } from '../../server/models'
 import { renderDocument } from '../../server/services/documents/documentRender'
 import { getFile } from '../../server/storage'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInAs, signedInRoles } from './support/client'
 import { buildSmallRecipe } from './support/recipes'
 
 describe('lots', () => {
-  let engineer: TestClient
-  let lead: TestClient
+  const { engineer, lead } = signedInRoles('engineer', 'lead')
   let revId: string
   beforeAll(async () => {
-    await resetSignInLimits()
-    engineer = await signedInAs('engineer')
-    lead = await signedInAs('lead')
     const rev = await buildSmallRecipe(engineer)
     await engineer.post(`/api/revisions/${rev.id}/release`).expect(200)
     revId = rev.id

@@ -2,8 +2,7 @@ import { QueryTypes } from 'sequelize'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { ContainResultDto, RecallScopeDto } from '../../shared/schemas/trace'
 import { db, Email, Unit } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 import { shipTo } from './support/shipments'
@@ -17,21 +16,16 @@ async function auditCount(action: string, entityIds: string[]): Promise<number> 
 }
 
 describe('recall scope and containment of a component lot', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let service: TestClient
-  let admin: TestClient
+  const { engineer, lead, stores, operator, service, admin } = signedInRoles(
+    ...LOT_ROLES,
+    'service',
+    'admin',
+  )
   let t: TestLot
   let serials: string[]
   let northId: string
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, service, admin] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'service', 'admin'].map(signedInAs),
-    )
     t = await releasedTestLot({ engineer, lead, stores }, 5)
     serials = t.units.map((u) => u.serial)
     // All five get the component lot at winding; four finish, the fifth stays on the floor.

@@ -1,12 +1,11 @@
 import { createHash } from 'node:crypto'
 import { PDFParse } from 'pdf-parse'
-import type { Response } from 'superagent'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { isValidMod3736 } from '../../shared/checkCharacter'
 import type { ComponentLotDto } from '../../shared/schemas/componentLots'
 import { AuditEvent } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInAs, signedInRoles, uniqueSuffix } from './support/client'
+import { binary } from './support/pdf'
 
 // The smallest valid files of each type, built here so the test needs no fixtures on disk.
 const PDF = Buffer.from(
@@ -17,16 +16,8 @@ const PNG = Buffer.from(
   'hex',
 )
 
-/** Collects a response body as raw bytes (superagent would try to parse a PDF as text). */
-function asBytes(res: Response, done: (err: Error | null, body: unknown) => void): void {
-  const chunks: Buffer[] = []
-  const stream = res as unknown as NodeJS.ReadableStream
-  stream.on('data', (c: Buffer) => chunks.push(c))
-  stream.on('end', () => done(null, Buffer.concat(chunks)))
-}
-
 describe('receiving', () => {
-  let stores: TestClient
+  const { stores } = signedInRoles('stores')
   let partId: string
   let expiringPartId: string
   const receive = (over: Record<string, unknown> = {}) =>
@@ -40,8 +31,6 @@ describe('receiving', () => {
     })
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    stores = await signedInAs('stores')
     partId = (
       await stores.post('/api/parts', {
         partNumber: `RP-${uniqueSuffix()}`,
@@ -143,10 +132,7 @@ describe('receiving', () => {
     })
     expect(res.body.certificate.sha256).toBe(createHash('sha256').update(PDF).digest('hex'))
     const service = await signedInAs('service')
-    const file = await service
-      .get(`/api/component-lots/${lot.id}/certificate`)
-      .buffer(true)
-      .parse(asBytes)
+    const file = await binary(service.get(`/api/component-lots/${lot.id}/certificate`))
     expect(file.status).toBe(200)
     expect(Buffer.compare(file.body as Buffer, PDF)).toBe(0)
     const png = await stores
@@ -173,10 +159,7 @@ describe('receiving', () => {
 
   it('prints a label PDF whose text carries the internal code and part', async () => {
     const lot = (await receive().expect(201)).body as ComponentLotDto
-    const res = await stores
-      .get(`/api/component-lots/${lot.id}/label.pdf`)
-      .buffer(true)
-      .parse(asBytes)
+    const res = await binary(stores.get(`/api/component-lots/${lot.id}/label.pdf`))
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toMatch(/application\/pdf/)
     const parser = new PDFParse({ data: res.body as Buffer })

@@ -1,11 +1,10 @@
 import { QueryTypes } from 'sequelize'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { LotDto } from '../../shared/schemas/lots'
 import type { ReleaseCheckDto } from '../../shared/recipes/releaseCheck'
 import type { RevisionDto } from '../../shared/schemas/recipes'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInRoles } from './support/client'
 import { buildSmallRecipe } from './support/recipes'
 
 async function auditRows(entityId: string, action: string) {
@@ -16,13 +15,7 @@ async function auditRows(entityId: string, action: string) {
 }
 
 describe('releasing a revision that replaces another', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    engineer = await signedInAs('engineer')
-    lead = await signedInAs('lead')
-  })
+  const { engineer, lead } = signedInRoles('engineer', 'lead')
 
   /** Revision A released with a lot in progress on it, and a draft B copied from A. */
   async function replacedPair() {
@@ -106,11 +99,7 @@ describe('releasing a revision that replaces another', () => {
 })
 
 describe('a revision’s working voltage', () => {
-  let engineer: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    engineer = await signedInAs('engineer')
-  })
+  const { engineer } = signedInRoles('engineer')
 
   it('is saved on a draft, copied into the next revision, and refused when not positive', async () => {
     const rev = await buildSmallRecipe(engineer)

@@ -1,15 +1,10 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInAs, signedInRoles, uniqueSuffix } from './support/client'
 import { buildSmallRecipe } from './support/recipes'
 
 describe('recipes', () => {
-  let engineer: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    engineer = await signedInAs('engineer')
-  })
+  const { engineer } = signedInRoles('engineer')
 
   it('lists products with their revisions in the documented shape', async () => {
     const operator = await signedInAs('operator')

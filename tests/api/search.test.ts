@@ -2,13 +2,13 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { mod3736CheckCharacter } from '../../shared/checkCharacter'
 import type { SearchKind, SearchResultsDto } from '../../shared/schemas/search'
 import type { ServiceCaseDto } from '../../shared/schemas/shipping'
-import { resetSignInLimits, signedInAs, TestClient, uniqueSuffix } from './support/client'
+import { LOT_ROLES, signedInRoles, TestClient, uniqueSuffix } from './support/client'
 import type { TestLot } from './support/floor'
 import { releasedTestLot } from './support/floor'
 import { shipTo } from './support/shipments'
 
-type Role = 'admin' | 'engineer' | 'lead' | 'operator' | 'stores' | 'service'
-const clients = {} as Record<Role, TestClient>
+const clients = signedInRoles(...LOT_ROLES, 'admin', 'service')
+type Role = keyof typeof clients
 
 let t: TestLot
 let supplierLotCode: string
@@ -27,9 +27,6 @@ const titles = (r: SearchResultsDto, kind: SearchKind) =>
 const kinds = (r: SearchResultsDto) => r.groups.map((g) => g.kind)
 
 beforeAll(async () => {
-  await resetSignInLimits()
-  for (const role of ['admin', 'engineer', 'lead', 'operator', 'stores', 'service'] as const)
-    clients[role] = await signedInAs(role)
   t = await releasedTestLot(clients, 3)
   supplierLotCode = `SUP-${uniqueSuffix()}`
   await clients.stores

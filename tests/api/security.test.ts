@@ -2,7 +2,6 @@ import { randomUUID } from 'node:crypto'
 import { parse as parseCsv } from 'csv-parse/sync'
 import { symbols } from 'pino'
 import request from 'supertest'
-import type { Response } from 'superagent'
 import { Op } from 'sequelize'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { RevisionDto } from '../../shared/schemas/recipes'
@@ -17,7 +16,15 @@ import { redisConnection, redisPrefix } from '../../server/redis'
 import { FILE_NAME_MAX } from '../../server/services/receiving/uploads'
 import { loadTestRun, windingRun } from './support/floor'
 import { buildSmallRecipe } from './support/recipes'
-import { resetSignInLimits, signedInAs, TestClient, testApp, uniqueSuffix } from './support/client'
+import {
+  LOT_ROLES,
+  TestClient,
+  resetSignInLimits,
+  signedInRoles,
+  testApp,
+  uniqueSuffix,
+} from './support/client'
+import { binary } from './support/pdf'
 
 const LEAD = 'lead@ferncastle.example'
 const ENGINEER = 'engineer@ferncastle.example'
@@ -25,13 +32,6 @@ const PDF = Buffer.from(
   '%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
 )
 const FORMULA = '=HYPERLINK("http://evil.example/x","open")'
-
-/** Collects a response body as raw bytes. */
-function asBytes(res: Response, done: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = []
-  res.on('data', (c: Buffer) => chunks.push(c))
-  res.on('end', () => done(null, Buffer.concat(chunks)))
-}
 
 /** The session id inside a `waymark.sid=s%3A<id>.<signature>` cookie. */
 function sessionIdOf(setCookie: string[] | string | undefined): { cookie: string; sid: string } {
@@ -42,20 +42,15 @@ function sessionIdOf(setCookie: string[] | string | undefined): { cookie: string
 }
 
 describe('security', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let admin: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, admin, service } = signedInRoles(
+    ...LOT_ROLES,
+    'admin',
+    'service',
+  )
   let defectId = ''
 
   beforeAll(async () => {
     testApp()
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, admin, service] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'admin', 'service'].map(signedInAs),
-    )
     defectId = (await operator.get('/api/defect-codes')).body.find(
       (d: { code: string }) => d.code === 'W-TURNS',
     ).id
@@ -412,8 +407,7 @@ describe('security', () => {
       const up = await stores
         .send('put', `/api/component-lots/${lot.id}/certificate`)
         .attach('file', PDF, 'mill "cert".pdf')
-      const get = () =>
-        service.get(`/api/component-lots/${lot.id}/certificate`).buffer(true).parse(asBytes)
+      const get = () => binary(service.get(`/api/component-lots/${lot.id}/certificate`))
       const res = await get()
       expect(res.status).toBe(200)
       expect(res.headers['content-disposition']).toMatch(

@@ -5,8 +5,7 @@ import type { CustomerDto, ServiceCaseDto, ShipmentDto } from '../../shared/sche
 import { limitNumber } from '../../shared/recipes/limitText'
 import { AuditEvent, Check, Email, Measurement, Shipment, StepRun, Unit } from '../../server/models'
 import { renderDocument } from '../../server/services/documents/documentRender'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInAs, signedInRoles, uniqueSuffix } from './support/client'
 import { binary, pdfText } from './support/pdf'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
@@ -28,11 +27,7 @@ async function waitFor<T>(probe: () => Promise<T | null | undefined>, what: stri
 }
 
 describe('customers, shipments, certificates, e-mail and returns', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   let t: TestLot
   let customer: CustomerDto
   /** Three units that passed both steps; the fourth only passed winding. */
@@ -47,10 +42,6 @@ describe('customers, shipments, certificates, e-mail and returns', () => {
   const unitState = async (serial: string) => (await Unit.findOne({ where: { serial } }))!.state
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, service] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
-    )
     mailRig = await startMailRig()
     t = await releasedTestLot({ engineer, lead, stores }, 4)
     const serials = t.units.map((u) => u.serial)

@@ -1,16 +1,9 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { AuditEvent } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInRoles, uniqueSuffix } from './support/client'
 
 describe('stations', () => {
-  let admin: TestClient
-  let operator: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    admin = await signedInAs('admin')
-    operator = await signedInAs('operator')
-  })
+  const { admin, operator } = signedInRoles('admin', 'operator')
 
   it('lists the demo floor to any signed-in user', async () => {
     const res = await operator.get('/api/stations').expect(200)

@@ -7,8 +7,7 @@ import { ComponentLot, db } from '../../server/models'
 import { recordStepRun } from '../../server/services/floor/stepRuns'
 import { READ_SCANS, WRITE_RUNS, writeRunsValues } from '../../server/services/floor/stepRunSql'
 import { StepRunInput } from '../../shared/schemas/lots'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInAs, signedInRoles, uniqueSuffix } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 
 interface PlanNode {
@@ -24,19 +23,12 @@ async function count(sql: string, replacements: Record<string, unknown>): Promis
 }
 
 describe('step runs at the Floor', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
+  const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
   let defectId: string
   const lot = (quantity: number, stock?: number) =>
     releasedTestLot({ engineer, lead, stores }, quantity, stock)
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-    )
     defectId = (await operator.get('/api/defect-codes')).body.find(
       (d: { code: string }) => d.code === 'W-TURNS',
     ).id

@@ -7,13 +7,11 @@ import { ownerConnection } from '../../server/db/migrator'
 import type { MigrationContext } from '../../server/db/migrator'
 import { up } from '../../server/db/migrations/20261205130700-create-suppliers'
 import { AuditEvent } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInAs, signedInRoles, uniqueSuffix } from './support/client'
 import { releasedTestLot, windingRun } from './support/floor'
 
 describe('suppliers are records', () => {
-  let stores: TestClient
-  let lead: TestClient
+  const { stores, lead } = signedInRoles('stores', 'lead')
   let partId: string
   /** A supplier name no other run has used. */
   const fresh = () => `Brindle Wire ${uniqueSuffix()} Co.`
@@ -29,9 +27,6 @@ describe('suppliers are records', () => {
     })
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    stores = await signedInAs('stores')
-    lead = await signedInAs('lead')
     partId = (
       await stores
         .post('/api/parts', { partNumber: `SP-${uniqueSuffix()}`, description: 'Enamelled wire' })

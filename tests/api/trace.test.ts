@@ -1,38 +1,22 @@
 import { PDFParse } from 'pdf-parse'
-import type { Response } from 'superagent'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { mod3736CheckCharacter } from '../../shared/checkCharacter'
 import type { UnitTraceDto } from '../../shared/schemas/trace'
 import { ServiceCase, Unit } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
+import { binary } from './support/pdf'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 import { shipTo } from './support/shipments'
 
-function asBytes(res: Response, done: (err: Error | null, body: unknown) => void): void {
-  const chunks: Buffer[] = []
-  const stream = res as unknown as NodeJS.ReadableStream
-  stream.on('data', (c: Buffer) => chunks.push(c))
-  stream.on('end', () => done(null, Buffer.concat(chunks)))
-}
-
 describe('trace of a serial', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   let t: TestLot
   let reworked: string
   let fresh: string
   let defectId: string
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, service] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
-    )
     defectId = (await operator.get('/api/defect-codes')).body.find(
       (d: { code: string }) => d.code === 'W-TURNS',
     ).id
@@ -167,11 +151,7 @@ describe('trace of a serial', () => {
   })
 
   it('downloads the unit history record as PDF and as JSON', async () => {
-    const pdf = await service
-      .get(`/api/trace/units/${reworked}/history.pdf`)
-      .buffer(true)
-      .parse(asBytes)
-      .expect(200)
+    const pdf = await binary(service.get(`/api/trace/units/${reworked}/history.pdf`)).expect(200)
     expect(pdf.headers['content-type']).toMatch(/application\/pdf/)
     expect(pdf.headers['content-disposition']).toMatch(/^attachment; filename="unit-history-/)
     const parser = new PDFParse({ data: pdf.body as Buffer })

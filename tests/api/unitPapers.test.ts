@@ -9,19 +9,14 @@ import type {
 } from '../../shared/schemas/shipping'
 import type { UnitTraceDto } from '../../shared/schemas/trace'
 import { AuditEvent, Document, Lot } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
 import { loadTestRun, releasedTestLot, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 
 // A unit's documents in one list, certificates refused while a return is open unless
 // confirmed, and what packing and the return dialog are told about a serial before saving.
 describe('a unit’s papers, open returns and the checks before shipping and returns', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
-  let service: TestClient
+  const { engineer, lead, stores, operator, service } = signedInRoles(...LOT_ROLES, 'service')
   let t: TestLot
   let customer: CustomerDto
   let shipment: ShipmentDto
@@ -34,10 +29,6 @@ describe('a unit’s papers, open returns and the checks before shipping and ret
   let caseNumber: string
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator, service] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator', 'service'].map(signedInAs),
-    )
     t = await releasedTestLot({ engineer, lead, stores }, 3)
     ;[returned, clean, unfinished] = t.units.map((u) => u.serial) as [string, string, string]
     for (const s of [returned, clean]) {

@@ -1,12 +1,8 @@
-import { beforeAll, describe, expect, it } from 'vitest'
-import { resetSignInLimits, signedInAs, TestClient, uniqueSuffix } from './support/client'
+import { describe, expect, it } from 'vitest'
+import { TestClient, signedInRoles, uniqueSuffix } from './support/client'
 
 describe('users', () => {
-  let admin: TestClient
-  beforeAll(async () => {
-    await resetSignInLimits()
-    admin = await signedInAs('admin')
-  })
+  const { admin } = signedInRoles('admin')
 
   it('creates a user who can then sign in with the given role', async () => {
     const email = `new-${uniqueSuffix()}@ferncastle.example`.toLowerCase()

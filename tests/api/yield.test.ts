@@ -7,8 +7,7 @@ import { lotYield } from '../../shared/quality/yieldStats'
 import type { StepRun } from '../../shared/quality/yieldStats'
 import type { LotYieldDto, YieldSummaryDto } from '../../shared/schemas/yield'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { LOT_ROLES, signedInRoles } from './support/client'
 import { releasedTestLot, runMixedLot } from './support/floor'
 import type { TestLot } from './support/floor'
 
@@ -16,17 +15,10 @@ const day = (offset: number) =>
   new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10)
 
 describe('yield figures', () => {
-  let engineer: TestClient
-  let lead: TestClient
-  let stores: TestClient
-  let operator: TestClient
+  const { engineer, lead, stores, operator } = signedInRoles(...LOT_ROLES)
   let t: TestLot
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    ;[engineer, lead, stores, operator] = await Promise.all(
-      ['engineer', 'lead', 'stores', 'operator'].map(signedInAs),
-    )
     // Units 1 and 2 pass both steps at the first attempt; unit 3 is reworked and passes both at
     // attempt 2; unit 4 is scrapped at winding; unit 5 waits at the load test (runMixedLot).
     const mixed = await runMixedLot({ engineer, lead, stores, operator })

@@ -3,8 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { OPEN_UNIT_STATES } from '../../shared/lots'
 import type { LotYieldDto } from '../../shared/schemas/yield'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs } from './support/client'
-import type { TestClient } from './support/client'
+import { signedInRoles } from './support/client'
 
 // A lot with no unit in work keeps its step figures in lot_step_yields (yieldQueries.ts), and
 // they are used only while the lot has the step-run count they were computed from.
@@ -40,13 +39,11 @@ const lotRuns = async (lotId: string) =>
   )
 
 describe('kept step figures of settled lots', () => {
-  let lead: TestClient
+  const { lead } = signedInRoles('lead')
   let lotId: string
   let first: LotYieldDto
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    lead = await signedInAs('lead')
     lotId = await settledLotId()
     await db().query('DELETE FROM lot_step_yields WHERE lot_id = :lotId', {
       replacements: { lotId },

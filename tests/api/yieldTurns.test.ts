@@ -9,7 +9,7 @@ import type {
   YieldSummaryDto,
 } from '../../shared/schemas/yield'
 import { db } from '../../server/models'
-import { resetSignInLimits, signedInAs, uniqueSuffix } from './support/client'
+import { signedInRoles, uniqueSuffix } from './support/client'
 import type { TestClient } from './support/client'
 
 const day = (offset: number) =>
@@ -73,18 +73,11 @@ async function magneticsRecipe(engineer: TestClient): Promise<RevisionDto> {
 }
 
 describe('turn-count deviation and the lot detail of the Yield board', () => {
-  let lead: TestClient
-  let admin: TestClient
+  const { engineer, lead, operator, admin } = signedInRoles('engineer', 'lead', 'operator', 'admin')
   let lot: LotDto
   let serials: string[]
 
   beforeAll(async () => {
-    await resetSignInLimits()
-    let engineer: TestClient
-    let operator: TestClient
-    ;[engineer, lead, operator, admin] = await Promise.all(
-      ['engineer', 'lead', 'operator', 'admin'].map(signedInAs),
-    )
     const codes = (await operator.get('/api/defect-codes').expect(200)).body as {
       id: string
       code: string

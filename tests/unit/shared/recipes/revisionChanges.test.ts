@@ -47,43 +47,33 @@ const line = (
   traceLevel: 'lot',
 })
 
-/** A base revision and its copy with every id changed, as `copyRecipe` makes them. */
+/**
+ * One revision's content with every id carrying `tag` (`ca1`, `cb1`…), so two tags give a base
+ * revision and its copy with every id changed, as `copyRecipe` makes them.
+ */
+function content(tag: string): RecipeContent {
+  return {
+    windings: [winding(`w${tag}`, 'Primary')],
+    steps: [
+      step(`s${tag}1`, 1, 'Winding', [
+        check(`c${tag}1`, 'l_pri'),
+        check(`c${tag}2`, 'turns_est', {
+          derived: 'turns_from_inductance',
+          derivedInputs: { winding: `w${tag}`, inductance: 'l_pri' },
+          unit: 'turns',
+        }),
+      ]),
+      step(`s${tag}2`, 2, 'Hipot', [
+        check(`c${tag}3`, 'leak', { unit: 'mA', nominal: null, lower: null, upper: 5 }),
+      ]),
+    ],
+    bom: [line(`b${tag}1`, 'CORE-1', `s${tag}1`)],
+  }
+}
+
+/** A base revision (ids `…a…`) and its copy (ids `…b…`). */
 function pair(): { base: RecipeContent; draft: RecipeContent } {
-  const base: RecipeContent = {
-    windings: [winding('wa', 'Primary')],
-    steps: [
-      step('sa1', 1, 'Winding', [
-        check('ca1', 'l_pri'),
-        check('ca2', 'turns_est', {
-          derived: 'turns_from_inductance',
-          derivedInputs: { winding: 'wa', inductance: 'l_pri' },
-          unit: 'turns',
-        }),
-      ]),
-      step('sa2', 2, 'Hipot', [
-        check('ca3', 'leak', { unit: 'mA', nominal: null, lower: null, upper: 5 }),
-      ]),
-    ],
-    bom: [line('ba1', 'CORE-1', 'sa1')],
-  }
-  const draft: RecipeContent = {
-    windings: [winding('wb', 'Primary')],
-    steps: [
-      step('sb1', 1, 'Winding', [
-        check('cb1', 'l_pri'),
-        check('cb2', 'turns_est', {
-          derived: 'turns_from_inductance',
-          derivedInputs: { winding: 'wb', inductance: 'l_pri' },
-          unit: 'turns',
-        }),
-      ]),
-      step('sb2', 2, 'Hipot', [
-        check('cb3', 'leak', { unit: 'mA', nominal: null, lower: null, upper: 5 }),
-      ]),
-    ],
-    bom: [line('bb1', 'CORE-1', 'sb1')],
-  }
-  return { base, draft }
+  return { base: content('a'), draft: content('b') }
 }
 
 describe('summarizeRecipeChanges', () => {
