@@ -4,13 +4,12 @@ import { PERMISSIONS } from '../../shared/permissions'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { acknowledgeAlert, acknowledgeAlerts, listAlerts } from '../services/quality'
+import { queryHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const alertRoutes = apiRoutes('/alerts')
 
-alertRoutes.get('/', PERMISSIONS.readAlerts, async (req, res) => {
-  res.json(await listAlerts(parse(AlertQuery, req.query)))
-})
+alertRoutes.get('/', PERMISSIONS.readAlerts, queryHandler(AlertQuery, listAlerts))
 alertRoutes.post('/acknowledge', PERMISSIONS.acknowledgeAlerts, async (req, res) => {
   res.json(await acknowledgeAlerts(parse(AcknowledgeAlertsInput, req.body), actorOf(req)))
 })

@@ -1,5 +1,4 @@
 import multer from 'multer'
-import { IdParam } from '../../shared/schemas/common'
 import {
   ComponentLotCreateInput,
   ComponentLotInspectionInput,
@@ -30,10 +29,10 @@ import {
 } from '../services/receiving'
 import { CERTIFICATE_MAX_BYTES } from '../services/receiving'
 import { getFile } from '../storage'
+import { changeHandler, createHandler, idOf, queryHandler, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const componentLotRoutes = apiRoutes('/component-lots')
-const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk.
 const upload = multipartUpload(
@@ -43,49 +42,37 @@ const upload = multipartUpload(
   }).single('file'),
 )
 
-componentLotRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
-  res.json(await listComponentLots(parse(ComponentLotQuery, req.query)))
-})
+componentLotRoutes.get(
+  '/',
+  PERMISSIONS.readComponentLots,
+  queryHandler(ComponentLotQuery, listComponentLots),
+)
 
-componentLotRoutes.post('/', PERMISSIONS.editComponentLots, async (req, res) => {
-  res
-    .status(201)
-    .json(await receiveComponentLot(parse(ComponentLotCreateInput, req.body), actorOf(req)))
-})
+componentLotRoutes.post(
+  '/',
+  PERMISSIONS.editComponentLots,
+  createHandler(ComponentLotCreateInput, receiveComponentLot),
+)
 
-componentLotRoutes.get('/:id', PERMISSIONS.readComponentLots, async (req, res) => {
-  res.json(await getComponentLot(id(req.params)))
-})
+componentLotRoutes.get('/:id', PERMISSIONS.readComponentLots, readHandler(getComponentLot))
 
-componentLotRoutes.patch('/:id', PERMISSIONS.editComponentLots, async (req, res) => {
-  res.json(
-    await updateComponentLot(
-      id(req.params),
-      parse(ComponentLotUpdateInput, req.body),
-      actorOf(req),
-    ),
-  )
-})
+componentLotRoutes.patch(
+  '/:id',
+  PERMISSIONS.editComponentLots,
+  changeHandler(ComponentLotUpdateInput, updateComponentLot),
+)
 
-componentLotRoutes.post('/:id/status', PERMISSIONS.setComponentLotStatus, async (req, res) => {
-  res.json(
-    await setComponentLotStatus(
-      id(req.params),
-      parse(ComponentLotStatusInput, req.body),
-      actorOf(req),
-    ),
-  )
-})
+componentLotRoutes.post(
+  '/:id/status',
+  PERMISSIONS.setComponentLotStatus,
+  changeHandler(ComponentLotStatusInput, setComponentLotStatus),
+)
 
-componentLotRoutes.post('/:id/inspection', PERMISSIONS.editComponentLots, async (req, res) => {
-  res.json(
-    await inspectComponentLot(
-      id(req.params),
-      parse(ComponentLotInspectionInput, req.body),
-      actorOf(req),
-    ),
-  )
-})
+componentLotRoutes.post(
+  '/:id/inspection',
+  PERMISSIONS.editComponentLots,
+  changeHandler(ComponentLotInspectionInput, inspectComponentLot),
+)
 
 componentLotRoutes.put(
   '/:id/certificate',
@@ -96,12 +83,12 @@ componentLotRoutes.put(
       throw AppError.badRequest('file: attach the certificate as the form field "file"', {
         file: 'attach a file',
       })
-    res.json(await attachCertificate(id(req.params), req.file, actorOf(req)))
+    res.json(await attachCertificate(idOf(req.params), req.file, actorOf(req)))
   },
 )
 
 componentLotRoutes.get('/:id/certificate', PERMISSIONS.readComponentLots, async (req, res) => {
-  const cert = await certificateOf(id(req.params))
+  const cert = await certificateOf(idOf(req.params))
   const file = await getFile(cert.storageKey)
   await sendStoredFile(res, {
     body: file.body,
@@ -111,7 +98,7 @@ componentLotRoutes.get('/:id/certificate', PERMISSIONS.readComponentLots, async 
 })
 
 componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req, res) => {
-  const lot = await getComponentLot(id(req.params))
+  const lot = await getComponentLot(idOf(req.params))
   res.type('application/pdf')
   res.setHeader('Content-Disposition', `inline; filename="label-${lot.internalCode}.pdf"`)
   res.send(await componentLotLabelPdf(lot, env.publicBaseUrl))
@@ -120,9 +107,7 @@ componentLotRoutes.get('/:id/label.pdf', PERMISSIONS.printLotLabels, async (req,
 /** Suppliers are records: receiving picks one from these suggestions or adds one. */
 export const supplierRoutes = apiRoutes('/suppliers')
 
-supplierRoutes.get('/', PERMISSIONS.readComponentLots, async (req, res) => {
-  res.json(await listSuppliers(parse(SupplierQuery, req.query)))
-})
+supplierRoutes.get('/', PERMISSIONS.readComponentLots, queryHandler(SupplierQuery, listSuppliers))
 
 supplierRoutes.post('/', PERMISSIONS.editComponentLots, async (req, res) => {
   const { supplier, isNew } = await addSupplier(parse(SupplierInput, req.body), actorOf(req))

@@ -7,13 +7,12 @@ import { parse } from '../middleware/validate'
 import { documentEmailDraft, emailDocument } from '../services/mail'
 import { documentFile, getDocument } from '../services/documents'
 import { getFile } from '../storage'
+import { readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const documentRoutes = apiRoutes('/documents')
 
-documentRoutes.get('/:id', PERMISSIONS.readLots, async (req, res) => {
-  res.json(await getDocument(parse(IdParam, req.params.id)))
-})
+documentRoutes.get('/:id', PERMISSIONS.readLots, readHandler(getDocument))
 documentRoutes.get('/:id/file', PERMISSIONS.readLots, async (req, res) => {
   const doc = await documentFile(parse(IdParam, req.params.id))
   const file = await getFile(doc.storageKey)

@@ -1,6 +1,5 @@
 import multer from 'multer'
 import { IMPORT_MAX_BYTES } from '../../shared/imports'
-import { IdParam } from '../../shared/schemas/common'
 import {
   ImportCreateInput,
   ImportMappingInput,
@@ -23,11 +22,11 @@ import {
   toImportDto,
 } from '../services/imports'
 import { enqueueImport, enqueueImportCheck } from '../services/imports'
+import { idOf, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const importRoutes = apiRoutes('/imports')
 const use = PERMISSIONS.importBenchData
-const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 // Held in memory: the file goes to the object store, never to this process's disk. One byte
 // over the limit is enough for multer to answer 413.
@@ -47,25 +46,27 @@ importRoutes.post('/', use, upload, async (req, res) => {
   res.status(201).json(await uploadBenchFile(req.file, stationCode, actorOf(req)))
 })
 
-importRoutes.get('/:id', use, async (req, res) => {
-  res.json(await getImport(id(req.params)))
-})
+importRoutes.get('/:id', use, readHandler(getImport))
 
 importRoutes.get('/:id/rows', use, async (req, res) => {
-  res.json(await listImportRows(id(req.params), parse(ImportRowsQuery, req.query)))
+  res.json(await listImportRows(idOf(req.params), parse(ImportRowsQuery, req.query)))
 })
 
 // 202: the rows are planned by a job (a 20 MB file is too much for one request); the screen
 // polls GET /imports/:id until it is `checked`.
 importRoutes.post('/:id/dry-run', use, async (req, res) => {
-  const imp = await requestDryRun(id(req.params), actorOf(req))
+  const imp = await requestDryRun(idOf(req.params), actorOf(req))
   await enqueueImportCheck(imp.id, imp.updatedAt)
   res.status(202).json(await toImportDto(imp))
 })
 
 // 202: the rows are recorded by the import job; the screen polls GET /imports/:id for progress.
 importRoutes.post('/:id/run', use, async (req, res) => {
-  const imp = await requestImportRun(id(req.params), parse(ImportRunInput, req.body), actorOf(req))
+  const imp = await requestImportRun(
+    idOf(req.params),
+    parse(ImportRunInput, req.body),
+    actorOf(req),
+  )
   await enqueueImport(imp.id)
   res.status(202).json(await toImportDto(imp))
 })

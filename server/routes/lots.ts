@@ -1,5 +1,4 @@
 import { z } from 'zod'
-import { IdParam } from '../../shared/schemas/common'
 import {
   DocumentRequestInput,
   LotCreateInput,
@@ -23,47 +22,35 @@ import {
   unholdLot,
   updateLot,
 } from '../services/lots'
+import { changeHandler, createHandler, idOf, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const lotRoutes = apiRoutes('/lots')
 const read = PERMISSIONS.readLots
 const edit = PERMISSIONS.editLots
-const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 lotRoutes.get('/', read, async (req, res) => {
   res.json(await listLots(parse(z.object({ status: z.enum(LOT_STATUSES).optional() }), req.query)))
 })
-lotRoutes.post('/', edit, async (req, res) => {
-  res.status(201).json(await createLot(parse(LotCreateInput, req.body), actorOf(req)))
-})
-lotRoutes.get('/:id', read, async (req, res) => {
-  res.json(await getLot(id(req.params)))
-})
-lotRoutes.patch('/:id', edit, async (req, res) => {
-  res.json(await updateLot(id(req.params), parse(LotUpdateInput, req.body), actorOf(req)))
-})
+lotRoutes.post('/', edit, createHandler(LotCreateInput, createLot))
+lotRoutes.get('/:id', read, readHandler(getLot))
+lotRoutes.patch('/:id', edit, changeHandler(LotUpdateInput, updateLot))
 lotRoutes.post('/:id/release', edit, async (req, res) => {
-  res.json(await releaseLot(id(req.params), actorOf(req)))
+  res.json(await releaseLot(idOf(req.params), actorOf(req)))
 })
 lotRoutes.post('/:id/hold', edit, async (req, res) => {
-  res.json(await holdLot(id(req.params), parse(ReasonInput, req.body).reason, actorOf(req)))
+  res.json(await holdLot(idOf(req.params), parse(ReasonInput, req.body).reason, actorOf(req)))
 })
 lotRoutes.post('/:id/unhold', edit, async (req, res) => {
-  res.json(await unholdLot(id(req.params), parse(ReasonInput, req.body).reason, actorOf(req)))
+  res.json(await unholdLot(idOf(req.params), parse(ReasonInput, req.body).reason, actorOf(req)))
 })
 lotRoutes.post('/:id/close', edit, async (req, res) => {
-  res.json(await closeLot(id(req.params), actorOf(req)))
+  res.json(await closeLot(idOf(req.params), actorOf(req)))
 })
-lotRoutes.get('/:id/units', read, async (req, res) => {
-  res.json(await listLotUnits(id(req.params)))
-})
-lotRoutes.get('/:id/grid', read, async (req, res) => {
-  res.json(await lotGrid(id(req.params)))
-})
-lotRoutes.get('/:id/documents', read, async (req, res) => {
-  res.json(await listLotDocuments(id(req.params)))
-})
+lotRoutes.get('/:id/units', read, readHandler(listLotUnits))
+lotRoutes.get('/:id/grid', read, readHandler(lotGrid))
+lotRoutes.get('/:id/documents', read, readHandler(listLotDocuments))
 lotRoutes.post('/:id/documents', edit, async (req, res) => {
   const input = parse(DocumentRequestInput, req.body)
-  res.status(201).json(await requestLotDocument(id(req.params), input, actorOf(req)))
+  res.status(201).json(await requestLotDocument(idOf(req.params), input, actorOf(req)))
 })

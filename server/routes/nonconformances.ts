@@ -6,6 +6,7 @@ import { actorOf, signedInUser } from '../middleware/access'
 import { countersignLimiters } from '../middleware/rateLimits'
 import { parse } from '../middleware/validate'
 import { disposeNonconformance, listNonconformances } from '../services/quality'
+import { queryHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const nonconformanceRoutes = apiRoutes('/nonconformances')
@@ -16,9 +17,11 @@ const Query = z.object({
   status: z.enum(['open', 'closed']).optional(),
 })
 
-nonconformanceRoutes.get('/', PERMISSIONS.readNonconformances, async (req, res) => {
-  res.json(await listNonconformances(parse(Query, req.query)))
-})
+nonconformanceRoutes.get(
+  '/',
+  PERMISSIONS.readNonconformances,
+  queryHandler(Query, listNonconformances),
+)
 nonconformanceRoutes.post(
   '/:id/disposition',
   PERMISSIONS.disposeNonconformances,

@@ -15,18 +15,15 @@ import {
   updateDraft,
 } from '../services/mail'
 import { getFile } from '../storage'
+import { changeHandler, queryHandler, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const outboxRoutes = apiRoutes('/outbox')
 
 const AttachmentIndex = z.coerce.number().int().min(0).max(999)
 
-outboxRoutes.get('/', PERMISSIONS.readOutbox, async (req, res) => {
-  res.json(await listEmails(parse(OutboxQuery, req.query)))
-})
-outboxRoutes.get('/:id', PERMISSIONS.readOutbox, async (req, res) => {
-  res.json(await getEmail(parse(IdParam, req.params.id)))
-})
+outboxRoutes.get('/', PERMISSIONS.readOutbox, queryHandler(OutboxQuery, listEmails))
+outboxRoutes.get('/:id', PERMISSIONS.readOutbox, readHandler(getEmail))
 outboxRoutes.get('/:id/attachments/:index', PERMISSIONS.readOutbox, async (req, res) => {
   const a = await emailAttachment(
     parse(IdParam, req.params.id),
@@ -38,15 +35,11 @@ outboxRoutes.get('/:id/attachments/:index', PERMISSIONS.readOutbox, async (req, 
 })
 
 // Drafts (recall letters) wait for a person: edit them, then send.
-outboxRoutes.patch('/:id', PERMISSIONS.sendDraftEmails, async (req, res) => {
-  res.json(
-    await updateDraft(
-      parse(IdParam, req.params.id),
-      parse(DraftUpdateInput, req.body),
-      actorOf(req),
-    ),
-  )
-})
+outboxRoutes.patch(
+  '/:id',
+  PERMISSIONS.sendDraftEmails,
+  changeHandler(DraftUpdateInput, updateDraft),
+)
 outboxRoutes.post('/:id/send', PERMISSIONS.sendDraftEmails, async (req, res) => {
   res.json(await sendDraft(parse(IdParam, req.params.id), actorOf(req)))
 })

@@ -5,6 +5,7 @@ import { actorOf, signedInUser } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { createProduct, listProducts, updateProduct } from '../services/recipes'
 import { createRevision } from '../services/recipes'
+import { changeHandler, createHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const productRoutes = apiRoutes('/products')
@@ -14,19 +15,9 @@ productRoutes.get('/', 'signed_in', async (req, res) => {
   res.json(await listProducts(can(signedInUser(req).role, 'readDraftRecipes')))
 })
 
-productRoutes.post('/', edit, async (req, res) => {
-  res.status(201).json(await createProduct(parse(ProductCreateInput, req.body), actorOf(req)))
-})
+productRoutes.post('/', edit, createHandler(ProductCreateInput, createProduct))
 
-productRoutes.patch('/:id', edit, async (req, res) => {
-  res.json(
-    await updateProduct(
-      parse(IdParam, req.params.id),
-      parse(ProductUpdateInput, req.body),
-      actorOf(req),
-    ),
-  )
-})
+productRoutes.patch('/:id', edit, changeHandler(ProductUpdateInput, updateProduct))
 
 productRoutes.post('/:id/revisions', edit, async (req, res) => {
   res.status(201).json(await createRevision(parse(IdParam, req.params.id), actorOf(req)))

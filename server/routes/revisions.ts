@@ -1,4 +1,3 @@
-import { IdParam } from '../../shared/schemas/common'
 import {
   BomLineInput,
   ReleaseInput,
@@ -24,14 +23,14 @@ import {
 } from '../services/recipes'
 import { createStep, reorderSteps } from '../services/recipes'
 import { createWinding } from '../services/recipes'
+import { changeHandler, deleteHandler, idOf, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const revisionRoutes = apiRoutes('/revisions')
 const edit = PERMISSIONS.editRecipes
-const id = (p: { id?: string }) => parse(IdParam, p.id)
 
 revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
-  const rev = await getRevision(id(req.params))
+  const rev = await getRevision(idOf(req.params))
   // Operators, stores and service see what is built: released (or retired) revisions only; a
   // draft is answered as absent, so its existence does not show either.
   if (rev.status === 'draft' && !can(signedInUser(req).role, 'readDraftRecipes'))
@@ -39,49 +38,44 @@ revisionRoutes.get('/:id', 'signed_in', async (req, res) => {
   res.json(rev)
 })
 
-revisionRoutes.patch('/:id', edit, async (req, res) => {
-  res.json(await updateRevision(id(req.params), parse(RevisionUpdateInput, req.body), actorOf(req)))
-})
+revisionRoutes.patch('/:id', edit, changeHandler(RevisionUpdateInput, updateRevision))
 
-revisionRoutes.delete('/:id', edit, async (req, res) => {
-  await deleteRevision(id(req.params), actorOf(req))
-  res.status(204).end()
-})
+revisionRoutes.delete('/:id', edit, deleteHandler(deleteRevision))
 
-revisionRoutes.get('/:id/release-check', PERMISSIONS.readReleaseCheck, async (req, res) => {
-  res.json(await releaseCheck(id(req.params)))
-})
+revisionRoutes.get('/:id/release-check', PERMISSIONS.readReleaseCheck, readHandler(releaseCheck))
 
 revisionRoutes.post('/:id/release', edit, async (req, res) => {
-  res.json(await releaseRevision(id(req.params), actorOf(req), parse(ReleaseInput, req.body ?? {})))
+  res.json(
+    await releaseRevision(idOf(req.params), actorOf(req), parse(ReleaseInput, req.body ?? {})),
+  )
 })
 
 revisionRoutes.post('/:id/obsolete', edit, async (req, res) => {
-  res.json(await obsoleteRevision(id(req.params), actorOf(req)))
+  res.json(await obsoleteRevision(idOf(req.params), actorOf(req)))
 })
 
 revisionRoutes.post('/:id/copy', edit, async (req, res) => {
-  res.status(201).json(await copyRevision(id(req.params), actorOf(req)))
+  res.status(201).json(await copyRevision(idOf(req.params), actorOf(req)))
 })
 
 revisionRoutes.post('/:id/windings', edit, async (req, res) => {
   res
     .status(201)
-    .json(await createWinding(id(req.params), parse(WindingInput, req.body), actorOf(req)))
+    .json(await createWinding(idOf(req.params), parse(WindingInput, req.body), actorOf(req)))
 })
 
 revisionRoutes.post('/:id/steps', edit, async (req, res) => {
-  res.status(201).json(await createStep(id(req.params), parse(StepInput, req.body), actorOf(req)))
+  res.status(201).json(await createStep(idOf(req.params), parse(StepInput, req.body), actorOf(req)))
 })
 
 revisionRoutes.put('/:id/steps/order', edit, async (req, res) => {
   res.json(
-    await reorderSteps(id(req.params), parse(StepOrderInput, req.body).stepIds, actorOf(req)),
+    await reorderSteps(idOf(req.params), parse(StepOrderInput, req.body).stepIds, actorOf(req)),
   )
 })
 
 revisionRoutes.get('/:id/bom', 'signed_in', async (req, res) => {
-  const revisionId = id(req.params)
+  const revisionId = idOf(req.params)
   await assertRevisionReadable(revisionId, signedInUser(req).role)
   res.json(await listBom(revisionId))
 })
@@ -89,5 +83,5 @@ revisionRoutes.get('/:id/bom', 'signed_in', async (req, res) => {
 revisionRoutes.post('/:id/bom', edit, async (req, res) => {
   res
     .status(201)
-    .json(await createBomLine(id(req.params), parse(BomLineInput, req.body), actorOf(req)))
+    .json(await createBomLine(idOf(req.params), parse(BomLineInput, req.body), actorOf(req)))
 })

@@ -13,6 +13,7 @@ import {
   requestShipmentCertificate,
   requestUnitCertificate,
 } from '../services/shipping'
+import { createHandler, queryHandler, readHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const shipmentRoutes = apiRoutes('/shipments')
@@ -21,19 +22,17 @@ export const unitDocumentRoutes = apiRoutes('/units')
 const Serial = scanText('serial', 'scan a serial')
 const Query = z.object({ customerId: IdParam.optional() })
 
-shipmentRoutes.get('/', PERMISSIONS.readShipments, async (req, res) => {
-  res.json(await listShipments(parse(Query, req.query)))
-})
-shipmentRoutes.post('/', PERMISSIONS.createShipments, async (req, res) => {
-  res.status(201).json(await createShipment(parse(ShipmentCreateInput, req.body), actorOf(req)))
-})
+shipmentRoutes.get('/', PERMISSIONS.readShipments, queryHandler(Query, listShipments))
+shipmentRoutes.post(
+  '/',
+  PERMISSIONS.createShipments,
+  createHandler(ShipmentCreateInput, createShipment),
+)
 // The packing screen checks each scan at once, before the shipment is confirmed.
 shipmentRoutes.get('/units/:serial', PERMISSIONS.createShipments, async (req, res) => {
   res.json(await checkShippable(parse(Serial, req.params.serial)))
 })
-shipmentRoutes.get('/:id', PERMISSIONS.readShipments, async (req, res) => {
-  res.json(await getShipment(parse(IdParam, req.params.id)))
-})
+shipmentRoutes.get('/:id', PERMISSIONS.readShipments, readHandler(getShipment))
 shipmentRoutes.post('/:id/certificate', PERMISSIONS.issueCustomerDocuments, async (req, res) => {
   res
     .status(201)

@@ -3,6 +3,7 @@ import { UserCreateInput, UserUpdateInput } from '../../shared/schemas/users'
 import { actorOf } from '../middleware/access'
 import { parse } from '../middleware/validate'
 import { createUser, issueBadge, listUsers, updateUser } from '../services/admin'
+import { createHandler } from './handlers'
 import { apiRoutes } from './registry'
 
 export const userRoutes = apiRoutes('/users')
@@ -11,9 +12,7 @@ userRoutes.get('/', ['admin'], async (_req, res) => {
   res.json(await listUsers())
 })
 
-userRoutes.post('/', ['admin'], async (req, res) => {
-  res.status(201).json(await createUser(parse(UserCreateInput, req.body), actorOf(req)))
-})
+userRoutes.post('/', ['admin'], createHandler(UserCreateInput, createUser))
 
 userRoutes.patch('/:id', ['admin'], async (req, res) => {
   const input = parse(UserUpdateInput, req.body)

@@ -6,15 +6,12 @@ import type {
 import { Station } from '../../models'
 import { auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../audit'
 import type { Actor } from '../audit'
+import { pickFields } from '../presenters'
 import { withTransaction } from '../../db/sql'
 
 function toStationDto(s: Station): StationDto {
   return {
-    id: s.id,
-    code: s.code,
-    name: s.name,
-    kind: s.kind,
-    isActive: s.isActive,
+    ...pickFields(s, ['id', 'code', 'name', 'kind', 'isActive']),
     createdAt: s.createdAt.toISOString(),
     updatedAt: s.updatedAt.toISOString(),
   }

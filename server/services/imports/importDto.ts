@@ -18,6 +18,7 @@ import {
 } from '../../models'
 import { loadImport, readyWhere } from './loadImport'
 import { stationChecks, toMapping } from './mappings'
+import { pickFields } from '../presenters'
 
 // What the import screen shows: an import with its counts and the mapping it would use, the
 // latest imports, and a page of an import's rows.
@@ -87,18 +88,18 @@ export async function listImports(): Promise<ImportDto[]> {
 }
 
 function toRowDto(r: ImportRow): ImportRowDto {
-  return {
-    rowNumber: r.rowNumber,
-    serial: r.serial,
-    stepName: r.stepName,
-    benchTime: r.benchTime,
-    benchOperator: r.benchOperator,
-    checks: r.checks,
-    result: r.result,
-    errors: r.errors,
-    outcome: r.outcome,
-    outcomeMessage: r.outcomeMessage,
-  }
+  return pickFields(r, [
+    'rowNumber',
+    'serial',
+    'stepName',
+    'benchTime',
+    'benchOperator',
+    'checks',
+    'result',
+    'errors',
+    'outcome',
+    'outcomeMessage',
+  ])
 }
 
 /** A page of an import's rows in file order: all, only those with errors, only good ones. */

@@ -16,6 +16,7 @@ import { enqueueMail } from './queue'
 import { putFile } from '../../storage'
 import { changedFields, recordAudit } from '../admin'
 import type { Actor } from '../admin'
+import { pickFields } from '../presenters'
 import { withTransaction } from '../../db/sql'
 
 /** An attachment to send: new bytes, or a file already in the object store (a document). */
@@ -35,15 +36,10 @@ export interface OutgoingEmail {
 
 function toSummaryDto(e: Email): EmailSummaryDto {
   return {
-    id: e.id,
-    direction: e.direction,
-    status: e.status,
+    ...pickFields(e, ['id', 'direction', 'status', 'subject', 'attempts', 'error']),
     to: e.toAddresses,
     from: e.fromAddress,
-    subject: e.subject,
     attachmentCount: e.attachments.length,
-    attempts: e.attempts,
-    error: e.error,
     related: e.relatedEntity && e.relatedId ? { entity: e.relatedEntity, id: e.relatedId } : null,
     createdAt: e.createdAt.toISOString(),
     sentAt: e.sentAt?.toISOString() ?? null,

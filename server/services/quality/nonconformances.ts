@@ -5,6 +5,7 @@ import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { verifyCountersign } from '../auth'
 import { reworkTarget, scrapUnit, sendToRework, stepAfter } from '../units'
+import { isoTime, isoTimeOrNull, pickCamel } from '../presenters'
 import { select, withTransaction } from '../../db/sql'
 
 // A failed scan opens its nonconformance in the scan's batched write (`opened` in WRITE_RUNS,
@@ -54,25 +55,27 @@ const SELECT_NC = `
 
 function toDto(r: NcRow): NonconformanceDto {
   return {
-    id: r.id,
-    serial: r.serial,
-    lotNumber: r.lot_number,
-    stepName: r.step_name,
-    stepPosition: r.step_position,
+    ...pickCamel(r, [
+      'id',
+      'serial',
+      'lot_number',
+      'step_name',
+      'step_position',
+      'description',
+      'failed_checks',
+      'disposition',
+      'reason',
+      'opened_by',
+      'decided_by',
+      'countersigned_by',
+    ]),
     defectCode: r.code,
     defectDescription: r.code_description,
-    description: r.description,
-    failedChecks: r.failed_checks,
     failedCheckLabels: r.failed_labels,
     status: r.closed_at ? 'closed' : 'open',
-    disposition: r.disposition,
     reworkToStepName: r.rework_step_name,
-    reason: r.reason,
-    openedBy: r.opened_by,
-    decidedBy: r.decided_by,
-    countersignedBy: r.countersigned_by,
-    openedAt: new Date(r.opened_at).toISOString(),
-    closedAt: r.closed_at ? new Date(r.closed_at).toISOString() : null,
+    openedAt: isoTime(r.opened_at),
+    closedAt: isoTimeOrNull(r.closed_at),
   }
 }
 

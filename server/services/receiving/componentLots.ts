@@ -18,6 +18,7 @@ import { auditAction, auditCreated, auditedUpdate } from '../admin'
 import type { Actor } from '../admin'
 import { CERTIFICATE_MAX_BYTES, CERTIFICATE_TYPES, storeUpload, toUploadDto } from './uploads'
 import { findOrAddSupplier } from './suppliers'
+import { isoTimeOrNull, partFields, pickFields } from '../presenters'
 import { select, withTransaction } from '../../db/sql'
 
 /** Today's date as YYYY-MM-DD (UTC), the day against which expiry dates are judged. */
@@ -27,26 +28,26 @@ export function todayIso(now = new Date()): string {
 
 export function toComponentLotDto(lot: ComponentLot, today = todayIso()): ComponentLotDto {
   return {
-    id: lot.id,
-    internalCode: lot.internalCode,
-    partId: lot.partId,
-    partNumber: lot.part?.partNumber ?? '',
-    partDescription: lot.part?.description ?? '',
-    unitOfMeasure: lot.part?.unitOfMeasure ?? 'pcs',
-    supplierId: lot.supplierId,
+    ...pickFields(lot, [
+      'id',
+      'internalCode',
+      'partId',
+      'supplierId',
+      'supplierLotCode',
+      'quantityReceived',
+      'quantityRemaining',
+      'receivedOn',
+      'expiresOn',
+      'status',
+      'notes',
+      'awaitsInspection',
+      'inspectionNote',
+    ]),
+    ...partFields(lot.part),
     supplierName: lot.supplier?.name ?? '',
-    supplierLotCode: lot.supplierLotCode,
-    quantityReceived: lot.quantityReceived,
-    quantityRemaining: lot.quantityRemaining,
-    receivedOn: lot.receivedOn,
-    expiresOn: lot.expiresOn,
     isExpired: lot.expiresOn !== null && lot.expiresOn < today,
-    status: lot.status,
-    notes: lot.notes,
     certificate: lot.certificate ? toUploadDto(lot.certificate) : null,
-    awaitsInspection: lot.awaitsInspection,
-    inspectedAt: lot.inspectedAt ? new Date(lot.inspectedAt).toISOString() : null,
-    inspectionNote: lot.inspectionNote,
+    inspectedAt: isoTimeOrNull(lot.inspectedAt),
   }
 }
 

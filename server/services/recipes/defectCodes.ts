@@ -2,16 +2,11 @@ import type { DefectCodeDto, DefectCodeInput } from '../../../shared/schemas/rec
 import { DefectCode } from '../../models'
 import { auditCreated, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
+import { pickFields } from '../presenters'
 import { withTransaction } from '../../db/sql'
 
 function toDto(d: DefectCode): DefectCodeDto {
-  return {
-    id: d.id,
-    code: d.code,
-    description: d.description,
-    stationKinds: d.stationKinds,
-    isActive: d.isActive,
-  }
+  return pickFields(d, ['id', 'code', 'description', 'stationKinds', 'isActive'])
 }
 
 const duplicateCode = conflictOnDuplicate('another defect code has this code', {

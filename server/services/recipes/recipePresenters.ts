@@ -6,87 +6,97 @@ import type {
   WindingDto,
 } from '../../../shared/schemas/recipes'
 import type { BomLine, Check, Revision, RouteStep, Winding } from '../../models'
+import { partFields, pickFields } from '../presenters'
 
 /** Model-to-JSON for the recipe records; the only place their DTO shapes are built. */
 export function toWindingDto(w: Winding): WindingDto {
-  return {
-    id: w.id,
-    position: w.position,
-    name: w.name,
-    nominalTurns: w.nominalTurns,
-    alNanoHenry: w.alNanoHenry,
-    alTolerancePercent: w.alTolerancePercent,
-    coreAreaMm2: w.coreAreaMm2,
-  }
+  return pickFields(w, [
+    'id',
+    'position',
+    'name',
+    'nominalTurns',
+    'alNanoHenry',
+    'alTolerancePercent',
+    'coreAreaMm2',
+  ])
 }
 
 export function toCheckDto(c: Check): CheckDto {
-  return {
-    id: c.id,
-    stepId: c.stepId,
-    position: c.position,
-    key: c.key,
-    label: c.label,
-    kind: c.kind,
-    unit: c.unit,
-    nominal: c.nominal,
-    lower: c.lower,
-    upper: c.upper,
-    decimals: c.decimals,
-    choices: c.choices,
-    derived: c.derived,
-    derivedInputs: c.derivedInputs,
-    isKey: c.isKey,
-    isForCustomers: c.isForCustomers,
-  }
+  return pickFields(c, [
+    'id',
+    'stepId',
+    'position',
+    'key',
+    'label',
+    'kind',
+    'unit',
+    'nominal',
+    'lower',
+    'upper',
+    'decimals',
+    'choices',
+    'derived',
+    'derivedInputs',
+    'isKey',
+    'isForCustomers',
+  ])
 }
 
 export function toStepDto(s: RouteStep, checks: readonly Check[] = s.checks ?? []): StepDto {
   return {
-    id: s.id,
-    position: s.position,
-    name: s.name,
-    stationKind: s.stationKind,
-    instructions: s.instructions,
-    safetyNote: s.safetyNote,
-    requiresSignoff: s.requiresSignoff,
-    checks: [...checks].sort((a, b) => a.position - b.position).map(toCheckDto),
+    ...pickFields(s, [
+      'id',
+      'position',
+      'name',
+      'stationKind',
+      'instructions',
+      'safetyNote',
+      'requiresSignoff',
+    ]),
+    checks: byPosition(checks).map(toCheckDto),
   }
 }
 
 export function toBomLineDto(b: BomLine): BomLineDto {
   return {
-    id: b.id,
-    partId: b.partId,
-    partNumber: b.part?.partNumber ?? '',
-    partDescription: b.part?.description ?? '',
-    unitOfMeasure: b.part?.unitOfMeasure ?? 'pcs',
-    quantity: b.quantity,
-    refDesignators: b.refDesignators,
-    fittedAtStepId: b.fittedAtStepId,
-    traceLevel: b.traceLevel,
+    ...pickFields(b, [
+      'id',
+      'partId',
+      'quantity',
+      'refDesignators',
+      'fittedAtStepId',
+      'traceLevel',
+    ]),
+    ...partFields(b.part),
   }
 }
 
 /** A revision with everything under it, in position order; expects the full include. */
 export function toRevisionDto(r: Revision): RevisionDto {
   return {
-    id: r.id,
-    letter: r.letter,
-    status: r.status,
-    productId: r.productId,
+    ...pickFields(r, [
+      'id',
+      'letter',
+      'status',
+      'productId',
+      'notes',
+      'fpyThresholdPercent',
+      'workingVolts',
+      'insulation',
+    ]),
     productCode: r.product?.code ?? '',
     productName: r.product?.name ?? '',
-    notes: r.notes,
-    fpyThresholdPercent: r.fpyThresholdPercent,
-    workingVolts: r.workingVolts,
-    insulation: r.insulation,
     copiedFrom: r.copiedFrom ? { id: r.copiedFrom.id, letter: r.copiedFrom.letter } : null,
     releasedAt: r.releasedAt?.toISOString() ?? null,
     releasedBy: r.releaser?.name ?? null,
     createdAt: r.createdAt.toISOString(),
-    windings: [...(r.windings ?? [])].sort((a, b) => a.position - b.position).map(toWindingDto),
-    steps: [...(r.steps ?? [])].sort((a, b) => a.position - b.position).map((s) => toStepDto(s)),
-    bom: [...(r.bomLines ?? [])].sort((a, b) => a.position - b.position).map(toBomLineDto),
+    windings: byPosition(r.windings ?? []).map(toWindingDto),
+    steps: byPosition(r.steps ?? []).map((s) => toStepDto(s)),
+    bom: byPosition(r.bomLines ?? []).map(toBomLineDto),
   }
+}
+
+/** A copy of recipe records in their `position` order. */
+function byPosition<T extends { position: number }>(records: readonly T[]): T[] {
+  return [...records].sort((a, b) => a.position - b.position)
 }

@@ -17,6 +17,7 @@ import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { createShipment } from '../shipping'
 import { reworkTarget, sendToRework } from '../units'
+import { isoTime, isoTimeOrNull, pickCamel } from '../presenters'
 import { select, withTransaction } from '../../db/sql'
 
 interface CaseRow {
@@ -73,31 +74,33 @@ const SELECT_CASE = `
 
 function toDto(r: CaseRow): ServiceCaseDto {
   return {
-    id: r.id,
-    number: r.number,
-    serial: r.serial,
-    unitState: r.unit_state,
-    lotId: r.lot_id,
-    lotNumber: r.lot_number,
-    productCode: r.product_code,
-    revisionId: r.revision_id,
-    revisionLetter: r.revision_letter,
-    customerId: r.customer_id,
-    customerName: r.customer_name,
-    shipmentNumber: r.shipment_number,
-    complaint: r.complaint,
-    receivedOn: r.received_on,
-    findings: r.findings,
-    defectCodeId: r.defect_code_id,
-    defectCode: r.defect_code,
-    resolution: r.resolution,
+    ...pickCamel(r, [
+      'id',
+      'number',
+      'serial',
+      'unit_state',
+      'lot_id',
+      'lot_number',
+      'product_code',
+      'revision_id',
+      'revision_letter',
+      'customer_id',
+      'customer_name',
+      'shipment_number',
+      'complaint',
+      'received_on',
+      'findings',
+      'defect_code_id',
+      'defect_code',
+      'resolution',
+      'replacement_serial',
+      'status',
+      'opened_by',
+      'closed_by',
+    ]),
     reworkToStepName: r.rework_step_name,
-    replacementSerial: r.replacement_serial,
-    status: r.status,
-    openedBy: r.opened_by,
-    closedBy: r.closed_by,
-    closedAt: r.closed_at ? new Date(r.closed_at).toISOString() : null,
-    createdAt: new Date(r.created_at).toISOString(),
+    closedAt: isoTimeOrNull(r.closed_at),
+    createdAt: isoTime(r.created_at),
   }
 }
 

@@ -8,6 +8,7 @@ import { AppError } from '../../errors'
 import { Customer } from '../../models'
 import { auditAction, conflictOnDuplicate, findOr404, updateAudited } from '../admin'
 import type { Actor } from '../admin'
+import { isoTime, pickCamel } from '../presenters'
 import { execute, select, withTransaction } from '../../db/sql'
 
 interface CustomerRow {
@@ -28,13 +29,10 @@ const SELECT_CUSTOMER = `
 
 function toDto(r: CustomerRow): CustomerDto {
   return {
-    id: r.id,
-    name: r.name,
-    contactEmail: r.contact_email,
-    address: r.address,
+    ...pickCamel(r, ['id', 'name', 'contact_email', 'address']),
     lotCount: Number(r.lot_count),
     shipmentCount: Number(r.shipment_count),
-    createdAt: new Date(r.created_at).toISOString(),
+    createdAt: isoTime(r.created_at),
   }
 }
 

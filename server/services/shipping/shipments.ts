@@ -16,6 +16,7 @@ import { Customer, Document, Shipment, ShipmentUnit, Unit } from '../../models'
 import { recordAudit } from '../admin'
 import type { Actor } from '../admin'
 import { requestDocument, toDocumentDto } from '../documents'
+import { isoTime, pickCamel } from '../presenters'
 import { OPEN_RETURNS_SQL, UNIT_DOCUMENTS_SQL } from '../trace'
 import { select, withTransaction } from '../../db/sql'
 
@@ -55,13 +56,15 @@ export async function checkShippable(scanned: string): Promise<ShippableUnitDto>
   })
   if (!row) throw AppError.notFound(`unit ${serial}`)
   return {
-    serial: row.serial,
-    state: row.state,
-    lotNumber: row.lot_number,
-    productCode: row.product_code,
-    revisionLetter: row.revision_letter,
-    lotCustomerId: row.lot_customer_id,
-    lotCustomerName: row.lot_customer_name,
+    ...pickCamel(row, [
+      'serial',
+      'state',
+      'lot_number',
+      'product_code',
+      'revision_letter',
+      'lot_customer_id',
+      'lot_customer_name',
+    ]),
     refusal: shipRefusal(row.state),
   }
 }
@@ -92,17 +95,19 @@ const SELECT_SHIPMENT = `
 
 function toSummary(r: ShipmentRow): ShipmentSummaryDto {
   return {
-    id: r.id,
-    number: r.number,
-    customerId: r.customer_id,
-    customerName: r.customer_name,
-    orderRef: r.order_ref,
-    carrier: r.carrier,
-    tracking: r.tracking,
-    shippedOn: r.shipped_on,
+    ...pickCamel(r, [
+      'id',
+      'number',
+      'customer_id',
+      'customer_name',
+      'order_ref',
+      'carrier',
+      'tracking',
+      'shipped_on',
+      'created_by',
+    ]),
     unitCount: Number(r.unit_count),
-    createdBy: r.created_by,
-    createdAt: new Date(r.created_at).toISOString(),
+    createdAt: isoTime(r.created_at),
   }
 }
 
@@ -136,13 +141,9 @@ export async function getShipment(id: string, transaction?: Transaction): Promis
   return {
     ...toSummary(row),
     customerEmail: row.customer_email,
-    units: units.map((u) => ({
-      serial: u.serial,
-      lotNumber: u.lot_number,
-      productCode: u.product_code,
-      revisionLetter: u.revision_letter,
-      state: u.state,
-    })),
+    units: units.map((u) =>
+      pickCamel(u, ['serial', 'lot_number', 'product_code', 'revision_letter', 'state']),
+    ),
     documents: documents.map(toDocumentDto),
   }
 }

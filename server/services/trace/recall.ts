@@ -15,6 +15,7 @@ import { ComponentLot, Email, Part, Supplier, Unit } from '../../models'
 import { auditAction } from '../admin'
 import type { Actor } from '../admin'
 import { moveComponentLotStatus } from '../receiving'
+import { pickFields } from '../presenters'
 import { writeCsv } from '../../csv'
 import { draftEmail } from '../mail'
 import { RECALL_SCOPE_SQL } from './traceQueries'
@@ -103,14 +104,10 @@ export async function recallScope(scanned: string, transaction?: Transaction) {
   })
   const scope: RecallScopeDto = {
     componentLot: {
-      id: lot.id,
-      internalCode: lot.internalCode,
+      ...pickFields(lot, ['id', 'internalCode', 'supplierLotCode', 'status', 'receivedOn']),
       partNumber: lot.part?.partNumber ?? '',
       partDescription: lot.part?.description ?? '',
       supplierName: lot.supplier?.name ?? '',
-      supplierLotCode: lot.supplierLotCode,
-      status: lot.status,
-      receivedOn: lot.receivedOn,
     },
     counts,
     // Shipped units first: those are the customers to call.
