@@ -14,7 +14,7 @@ import { AppError } from '../../errors'
 import { db, Email } from '../../models'
 import { enqueueMail } from './queue'
 import { putFile } from '../../storage'
-import { changedFields, recordAudit } from '../admin'
+import { auditAction, changedFields } from '../admin'
 import type { Actor } from '../admin'
 import { pickFields } from '../presenters'
 import { withTransaction } from '../../db/sql'
@@ -127,12 +127,11 @@ export async function queueEmail(
     },
     { transaction },
   )
-  await recordAudit(
+  await auditAction(
     actor,
+    'email.queue',
+    email.id,
     {
-      action: 'email.queue',
-      entity: 'email',
-      entityId: email.id,
       after: {
         to,
         subject: mail.subject,
@@ -219,12 +218,11 @@ export async function draftEmail(
     },
     { transaction },
   )
-  await recordAudit(
+  await auditAction(
     actor,
+    'email.draft',
+    email.id,
     {
-      action: 'email.draft',
-      entity: 'email',
-      entityId: email.id,
       after: { to, subject: mail.subject, related: mail.related ?? null },
     },
     transaction,
@@ -256,12 +254,11 @@ export async function updateDraft(
       { subject: input.subject ?? email.subject, textBody: input.text ?? email.textBody },
       { transaction },
     )
-    await recordAudit(
+    await auditAction(
       actor,
+      'email.edit_draft',
+      id,
       {
-        action: 'email.edit_draft',
-        entity: 'email',
-        entityId: id,
         ...changedFields(before, { subject: email.subject, text: email.textBody }),
       },
       transaction,
@@ -275,12 +272,11 @@ export async function sendDraft(id: string, actor: Actor): Promise<EmailDto> {
   return withTransaction(async (transaction) => {
     const email = await lockDraft(id, transaction)
     await email.update({ status: 'queued' }, { transaction })
-    await recordAudit(
+    await auditAction(
       actor,
+      'email.send_draft',
+      id,
       {
-        action: 'email.send_draft',
-        entity: 'email',
-        entityId: id,
         before: { status: 'draft' },
         after: { status: 'queued', to: email.toAddresses, subject: email.subject },
       },

@@ -33,7 +33,7 @@ import { AppError } from '../../errors'
 import { logger } from '../../logger'
 import { Check, Lot, Revision, RouteStep } from '../../models'
 import type { Check as CheckModel } from '../../models'
-import { recordAudit } from '../admin'
+import { auditAction, recordAudit, statusMove } from '../admin'
 import type { Actor } from '../admin'
 import { execute, select, withTransaction } from '../../db/sql'
 import { ALERTS_ACTOR, noticeLeads } from './alertMail'
@@ -518,15 +518,11 @@ async function auditAcknowledged(
   transaction: Transaction,
 ): Promise<void> {
   for (const id of ids)
-    await recordAudit(
+    await auditAction(
       actor,
-      {
-        action: 'alert.acknowledge',
-        entity: 'alert',
-        entityId: id,
-        before: { status: 'open' },
-        after: { status: 'acknowledged' },
-      },
+      'alert.acknowledge',
+      id,
+      statusMove('open', 'acknowledged'),
       transaction,
     )
 }
