@@ -3,7 +3,6 @@ import type { Redis } from 'ioredis'
 import { Op } from 'sequelize'
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { AlertDto } from '../../shared/schemas/alerts'
-import type { LotDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import type { RevisionDto } from '../../shared/schemas/recipes'
 import { startSmtpFake } from '../../server/devMail/smtpFake'
 import { closeMail, setSmtpPortForTests } from '../../server/mail'
@@ -17,8 +16,8 @@ import { closeMailQueue } from '../../server/services/mail/queue'
 import { newQueueConnection } from '../../server/redis'
 import { processAlertJob, sendDueDigests } from '../../server/services/quality'
 import { enqueueMail, startMailWorker } from '../../server/services/mail'
-import { LOT_ROLES, signedInRoles, uniqueSuffix } from './support/client'
-import { loadTestRun, windingRun } from './support/floor'
+import { LOT_ROLES, signedInRoles } from './support/client'
+import { loadTestRun, releasedLotOf, windingRun } from './support/floor'
 import type { TestLot } from './support/floor'
 import { buildSmallRecipe } from './support/recipes'
 
@@ -46,23 +45,7 @@ async function alertLot(
     const check = draft.steps[0]!.checks.find((c) => c.key === 'l_sec')!
     await engineer.patch(`/api/checks/${check.id}`, { nominal: opts.inductanceNominal }).expect(200)
   }
-  const rev = (await engineer.post(`/api/revisions/${draft.id}/release`).expect(200))
-    .body as RevisionDto
-  const created = await lead
-    .post('/api/lots', { revisionId: rev.id, quantity, orderRef: `PO-${uniqueSuffix()}` })
-    .expect(201)
-  const lot = (await lead.post(`/api/lots/${created.body.id}/release`).expect(200)).body as LotDto
-  const units = (await lead.get(`/api/lots/${lot.id}/units`).expect(200)).body as UnitSummaryDto[]
-  const cl = await stores
-    .post('/api/component-lots', {
-      partId: rev.bom[0]!.partId,
-      supplierName: 'Test',
-      supplierLotCode: `S-${uniqueSuffix()}`,
-      quantityReceived: 100,
-      receivedOn: '2026-11-01',
-    })
-    .expect(201)
-  return { rev, lot, units, componentLotCode: cl.body.internalCode }
+  return releasedLotOf({ engineer, lead, stores }, draft, quantity)
 }
 
 async function wind(t: TestLot, serial: string, inductanceMilliHenry: number) {

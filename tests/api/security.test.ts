@@ -5,7 +5,6 @@ import request from 'supertest'
 import { Op } from 'sequelize'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { RevisionDto } from '../../shared/schemas/recipes'
-import type { LotDto, UnitSummaryDto } from '../../shared/schemas/lots'
 import { buildApp } from '../../server/main/app'
 import { DEMO_PASSWORD } from '../../server/seed/demoUsers'
 import { logger } from '../../server/logger'
@@ -14,7 +13,7 @@ import { PASSWORD_LIMITS } from '../../server/middleware/rateLimits'
 import { AuditEvent, Upload } from '../../server/models'
 import { redisConnection, redisPrefix } from '../../server/redis'
 import { FILE_NAME_MAX } from '../../server/services/receiving/uploads'
-import { loadTestRun, windingRun } from './support/floor'
+import { loadTestRun, releasedLotOf, windingRun } from './support/floor'
 import { buildSmallRecipe } from './support/recipes'
 import {
   LOT_ROLES,
@@ -58,27 +57,8 @@ describe('security', () => {
   beforeEach(resetSignInLimits)
 
   /** Releases `rev`, makes a released lot of it and a component lot of its first BOM part. */
-  async function lotOf(
-    rev: RevisionDto,
-    quantity: number,
-    supplierLotCode = `S-${uniqueSuffix()}`,
-  ) {
-    await engineer.post(`/api/revisions/${rev.id}/release`).expect(200)
-    const created = await lead
-      .post('/api/lots', { revisionId: rev.id, quantity, orderRef: `PO-${uniqueSuffix()}` })
-      .expect(201)
-    const lot = (await lead.post(`/api/lots/${created.body.id}/release`).expect(200)).body as LotDto
-    const units = (await lead.get(`/api/lots/${lot.id}/units`).expect(200)).body as UnitSummaryDto[]
-    const cl = await stores
-      .post('/api/component-lots', {
-        partId: rev.bom[0]!.partId,
-        supplierName: 'Test',
-        supplierLotCode,
-        quantityReceived: 100,
-        receivedOn: '2026-11-01',
-      })
-      .expect(201)
-    return { rev, lot, units, componentLotCode: cl.body.internalCode as string }
+  function lotOf(rev: RevisionDto, quantity: number, supplierLotCode?: string) {
+    return releasedLotOf({ engineer, lead, stores }, rev, quantity, { supplierLotCode })
   }
 
   /** A lot whose load test needs a second person's signature. */

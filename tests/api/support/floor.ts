@@ -21,8 +21,21 @@ export async function releasedTestLot(
   quantity: number,
   stock = 100,
 ): Promise<TestLot> {
-  const rev = await buildSmallRecipe(clients.engineer)
-  await clients.engineer.post(`/api/revisions/${rev.id}/release`).expect(200)
+  return releasedLotOf(clients, await buildSmallRecipe(clients.engineer), quantity, { stock })
+}
+
+/**
+ * Releases the draft `draft` (a test may change it first), makes a released lot of `quantity`
+ * units of it and receives a component lot of its first BOM part.
+ */
+export async function releasedLotOf(
+  clients: { engineer: TestClient; lead: TestClient; stores: TestClient },
+  draft: RevisionDto,
+  quantity: number,
+  { stock = 100, supplierLotCode = `S-${uniqueSuffix()}` } = {},
+): Promise<TestLot> {
+  const rev = (await clients.engineer.post(`/api/revisions/${draft.id}/release`).expect(200))
+    .body as RevisionDto
   const created = await clients.lead
     .post('/api/lots', { revisionId: rev.id, quantity, orderRef: `PO-${uniqueSuffix()}` })
     .expect(201)
@@ -34,12 +47,12 @@ export async function releasedTestLot(
     .post('/api/component-lots', {
       partId: rev.bom[0]!.partId,
       supplierName: 'Test',
-      supplierLotCode: `S-${uniqueSuffix()}`,
+      supplierLotCode,
       quantityReceived: stock,
       receivedOn: '2026-11-01',
     })
     .expect(201)
-  return { rev, lot, units, componentLotCode: cl.body.internalCode }
+  return { rev, lot, units, componentLotCode: cl.body.internalCode as string }
 }
 
 /** A winding submission for `serial`; 24.3 mH is 90 turns on AL 3000 (a 2-turn miscount). */
