@@ -22,10 +22,27 @@ interface NumericCheck {
   upper: number
 }
 
-/** Picks an option of an Element Plus select; the option list opens in a popper on the page. */
+/**
+ * Picks an option of an Element Plus select; the option list opens in a popper on the page.
+ * On a busy machine a click can land while the list is still opening and pick nothing, so it
+ * waits for the select to show the option and tries again (three times at most).
+ */
 async function choose(page: Page, select: Locator, option: string): Promise<void> {
-  await select.click()
-  await page.getByRole('option', { name: option, exact: true }).click()
+  const item = page.getByRole('option', { name: option, exact: true })
+  // The select's outer box (the locator may be its inner input) shows the chosen label.
+  const box = select.locator(
+    'xpath=ancestor-or-self::div[contains(concat(" ", normalize-space(@class), " "), " el-select ")][1]',
+  )
+  for (let attempt = 1; ; attempt++) {
+    if (!(await item.isVisible())) await select.click()
+    await item.click()
+    try {
+      await box.getByText(option, { exact: true }).waitFor({ timeout: 5_000 })
+      return
+    } catch (error) {
+      if (attempt === 3) throw error
+    }
+  }
 }
 
 /** Appends a step to the route through the New step dialog. */
